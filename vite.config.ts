@@ -1,0 +1,21 @@
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+// Client build goes to dist/client. The server is bundled separately with
+// `vite build --ssr server/index.ts --outDir dist/server` (see package.json).
+export default defineConfig(({ isSsrBuild }) => ({
+  plugins: isSsrBuild ? [] : [react(), tailwindcss()],
+  build: isSsrBuild
+    ? {
+        target: 'node20',
+        emptyOutDir: true,
+        rollupOptions: {
+          // Extra server entries (worker threads) are listed here by the job runner.
+          input: { index: 'server/index.ts' },
+          output: { entryFileNames: '[name].js', format: 'es' },
+        },
+      }
+    : { outDir: 'dist/client', emptyOutDir: true },
+  ssr: { noExternal: [] },
+}));
