@@ -1,0 +1,3 @@
+// Every area's tables, one export line per area file (add yours below).
+export * from './auth';
+export * from './mail';
