@@ -1,0 +1,112 @@
+import { z } from 'zod';
+import { classificationSchema, smithDrawingSchema, tilingSchema } from './tilings';
+
+// Contracts for the stock of accepted tilings.
+
+export const provenanceSchema = z.enum(['setter', 'foundry', 'demo']);
+export type Provenance = z.infer<typeof provenanceSchema>;
+
+const intParam = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+const boolParam = z.enum(['true', 'false']).transform((v) => v === 'true');
+
+export const stockSortSchema = z.enum(['createdAt', 'order', 'width', 'height', 'id']);
+
+/** Filters for GET /api/stock and its exports (query parameters). */
+export const stockFilterSchema = z.object({
+  orderMin: intParam(1, 100_000).optional(),
+  orderMax: intParam(1, 100_000).optional(),
+  widthMin: intParam(1, 2_147_483_647).optional(),
+  widthMax: intParam(1, 2_147_483_647).optional(),
+  heightMin: intParam(1, 2_147_483_647).optional(),
+  heightMax: intParam(1, 2_147_483_647).optional(),
+  square: boolParam.optional(),
+  perfect: boolParam.optional(),
+  simple: boolParam.optional(),
+  provenance: provenanceSchema.optional(),
+  used: z.enum(['used', 'unused']).optional(),
+  setterId: z.string().trim().min(1).max(200).optional(),
+});
+
+const rangeCheck = (v: Record<string, unknown>, ctx: z.RefinementCtx) => {
+  for (const k of ['order', 'width', 'height']) {
+    const lo = v[`${k}Min`];
+    const hi = v[`${k}Max`];
+    if (typeof lo === 'number' && typeof hi === 'number' && lo > hi) {
+      ctx.addIssue({ code: 'custom', path: [`${k}Min`], message: `${k}Min (${lo}) is larger than ${k}Max (${hi})` });
+    }
+  }
+};
+
+export const stockListQuerySchema = stockFilterSchema
+  .extend({
+    sort: stockSortSchema.default('createdAt'),
+    dir: z.enum(['asc', 'desc']).default('desc'),
+    page: intParam(1, 1_000_000).default(1),
+    pageSize: intParam(1, 200).default(25),
+  })
+  .strict()
+  .superRefine(rangeCheck);
+export type StockListQuery = z.infer<typeof stockListQuerySchema>;
+
+export const stockExportQuerySchema = stockFilterSchema
+  .extend({ limit: intParam(1, 100_000).default(10_000) })
+  .strict()
+  .superRefine(rangeCheck);
+export type StockExportQuery = z.infer<typeof stockExportQuerySchema>;
+
+export const stockItemSchema = z.object({
+  id: z.number().int(),
+  canonicalKey: z.string(),
+  canonicalCode: z.string(),
+  width: z.number().int(),
+  height: z.number().int(),
+  order: z.number().int(),
+  square: z.boolean(),
+  perfect: z.boolean(),
+  simple: z.boolean(),
+  provenance: provenanceSchema,
+  setterId: z.string().nullable(),
+  useCount: z.number().int(),
+  createdAt: z.string(),
+  acceptedAt: z.string().nullable(),
+});
+export type StockItem = z.infer<typeof stockItemSchema>;
+
+export const stockListSchema = z.object({
+  items: z.array(stockItemSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type StockList = z.infer<typeof stockListSchema>;
+
+export const stockHistoryEventSchema = z.object({
+  kind: z.enum(['submitted', 'accepted', 'added']),
+  at: z.string(),
+  submissionId: z.number().int().optional(),
+  note: z.string().optional(),
+});
+
+export const stockDetailSchema = stockItemSchema.extend({
+  bouwkamp: z.string(),
+  params: z.record(z.string(), z.unknown()).nullable(),
+  tiling: tilingSchema,
+  smith: smithDrawingSchema.nullable(),
+  classification: classificationSchema,
+  history: z.object({
+    events: z.array(stockHistoryEventSchema),
+    puzzles: z.array(z.object({ id: z.number().int(), kind: z.string(), grade: z.number().int().nullable(), createdAt: z.string() })),
+    editions: z.array(z.object({ id: z.number().int(), title: z.string(), date: z.string() })),
+  }),
+});
+export type StockDetail = z.infer<typeof stockDetailSchema>;
+
+/** GET /api/stock/summary: counts by order (and grade, once puzzles exist). */
+export const stockSummarySchema = z.object({
+  total: z.number().int(),
+  byOrder: z.array(z.object({ order: z.number().int(), count: z.number().int() })),
+  byGrade: z.array(z.object({ grade: z.number().int(), count: z.number().int() })),
+});
+export type StockSummary = z.infer<typeof stockSummarySchema>;
+
+export const imageQuerySchema = z.object({ size: z.enum(['thumb', 'full']).default('full') }).strict();

@@ -1,0 +1,135 @@
+import { z } from 'zod';
+import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema } from './tilings';
+
+// Contracts for setters' submissions and the editors' review of them.
+
+export const submissionSourceSchema = z.enum(['paste', 'sketch', 'file']);
+export const submissionStatusSchema = z.enum(['pending', 'accepted', 'rejected']);
+export type SubmissionStatus = z.infer<typeof submissionStatusSchema>;
+
+export const MAX_TITLE = 120;
+export const MAX_NOTE = 2000;
+/** Upload limits (issue 6): at most 5 MB (413) and 20,000 lines (422). */
+export const MAX_UPLOAD_BYTES = 5 * 1024 * 1024;
+export const MAX_UPLOAD_LINES = 20_000;
+
+const titleSchema = z.string().trim().max(MAX_TITLE, `title is longer than ${MAX_TITLE} characters`);
+const noteSchema = z.string().trim().max(MAX_NOTE, `note is longer than ${MAX_NOTE} characters`);
+
+/** POST /api/submissions: exactly one of code (paste) or squares (sketch). */
+export const createSubmissionSchema = z
+  .object({
+    code: z.string().trim().min(1, 'code is empty').max(MAX_CODE_LENGTH).optional(),
+    squares: squaresInputSchema.optional(),
+    title: titleSchema.optional(),
+    note: noteSchema.optional(),
+    source: z.enum(['paste', 'sketch']),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if ((v.code === undefined) === (v.squares === undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['code'], message: 'give exactly one of code or squares' });
+    }
+  });
+export type CreateSubmission = z.infer<typeof createSubmissionSchema>;
+
+export const submissionSchema = z.object({
+  id: z.number().int(),
+  setterId: z.string(),
+  setterName: z.string().nullable(),
+  title: z.string().nullable(),
+  note: z.string().nullable(),
+  source: submissionSourceSchema,
+  code: z.string(),
+  canonicalCode: z.string(),
+  canonicalKey: z.string(),
+  width: z.number().int(),
+  height: z.number().int(),
+  order: z.number().int(),
+  square: z.boolean(),
+  perfect: z.boolean(),
+  simple: z.boolean(),
+  status: submissionStatusSchema,
+  duplicateOf: duplicateOfSchema.nullable(),
+  editorNote: z.string().nullable(),
+  stockId: z.number().int().nullable(),
+  createdAt: z.string(),
+  reviewedAt: z.string().nullable(),
+});
+export type Submission = z.infer<typeof submissionSchema>;
+
+/** GET /api/submissions/:id adds drawing data and classification. */
+export const submissionDetailSchema = submissionSchema.extend({
+  tiling: tilingSchema,
+  smith: smithDrawingSchema.nullable(),
+  classification: classificationSchema,
+  bouwkamp: z.string(),
+});
+export type SubmissionDetail = z.infer<typeof submissionDetailSchema>;
+
+export const submissionSortSchema = z.enum(['createdAt', 'title', 'order', 'width', 'height', 'status']);
+const intParam = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+
+export const submissionListQuerySchema = z
+  .object({
+    status: submissionStatusSchema.optional(),
+    q: z.string().trim().max(200).optional(),
+    duplicate: z.enum(['true', 'false']).optional(),
+    sort: submissionSortSchema.default('createdAt'),
+    dir: z.enum(['asc', 'desc']).default('desc'),
+    page: intParam(1, 1_000_000).default(1),
+    pageSize: intParam(1, 200).default(25),
+  })
+  .strict();
+export type SubmissionListQuery = z.infer<typeof submissionListQuerySchema>;
+
+export const submissionListSchema = z.object({
+  items: z.array(submissionSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type SubmissionList = z.infer<typeof submissionListSchema>;
+
+export const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+
+export const reviewSchema = z.object({ note: noteSchema.optional() }).strict();
+export const rejectSchema = z
+  .object({ note: noteSchema.min(1, 'say why in a note: the setter reads it') })
+  .strict();
+
+export const bulkReviewSchema = z
+  .object({
+    ids: z.array(z.number().int().positive()).min(1, 'choose at least one submission').max(500),
+    action: z.enum(['accept', 'reject']),
+    note: noteSchema.optional(),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if (v.action === 'reject' && !v.note) ctx.addIssue({ code: 'custom', path: ['note'], message: 'say why in a note: the setter reads it' });
+  });
+export type BulkReview = z.infer<typeof bulkReviewSchema>;
+
+export const bulkResultSchema = z.object({
+  results: z.array(z.object({ id: z.number().int(), ok: z.boolean(), status: submissionStatusSchema.optional(), error: z.string().optional() })),
+});
+
+/** One line of the upload report. */
+export const uploadLineSchema = z.object({
+  line: z.number().int(),
+  verdict: z.enum(['valid', 'invalid', 'duplicate']),
+  error: tilingErrorSchema.optional(),
+  submissionId: z.number().int().optional(),
+  duplicateOf: duplicateOfSchema.optional(),
+  order: z.number().int().optional(),
+  width: z.number().int().optional(),
+  height: z.number().int().optional(),
+});
+export type UploadLine = z.infer<typeof uploadLineSchema>;
+
+export const uploadReportSchema = z.object({
+  fileName: z.string(),
+  lines: z.array(uploadLineSchema),
+  summary: z.object({ valid: z.number().int(), invalid: z.number().int(), duplicate: z.number().int(), created: z.number().int() }),
+});
+export type UploadReport = z.infer<typeof uploadReportSchema>;
