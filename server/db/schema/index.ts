@@ -1,3 +1,4 @@
 // Every area's tables, one export line per area file (add yours below).
 export * from './auth';
 export * from './mail';
+export * from './ledger';
