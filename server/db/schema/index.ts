@@ -2,3 +2,5 @@
 export * from './auth';
 export * from './mail';
 export * from './ledger';
+export * from './stock';
+export * from './submissions';
