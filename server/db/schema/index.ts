@@ -4,3 +4,5 @@ export * from './mail';
 export * from './ledger';
 export * from './stock';
 export * from './submissions';
+export * from './jobs';
+export * from './foundry';
