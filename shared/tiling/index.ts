@@ -1,0 +1,29 @@
+// The tiling engine's public API (the contract other areas code against).
+export type {
+  Square,
+  Tiling,
+  PlaneGraph,
+  Rect,
+  Classification,
+  Direction,
+  SmithNode,
+  SmithEdge,
+  SmithDiagram,
+  KirchhoffViolation,
+  VerifyResult,
+  SolveResult,
+} from './types';
+export { TilingInputError } from './errors';
+export type { InputLocation } from './errors';
+export { parseTiling, tilingFromSquares, readCode, decodeSizes, MAX_INPUT_LENGTH } from './parse';
+export { verifyTiling, MAX_SIDE, MAX_SQUARES } from './verify';
+export { classifyTiling, isSimple, subRectangles } from './classify';
+export { canonicalTiling, canonicalCode, canonicalKey, orientations, readingOrder } from './orientations';
+export { toBouwkamp, toTableCode } from './bouwkamp';
+export { solvePlaneNetwork } from './solve-network';
+export { bareissDeterminant, bareissSolve } from './bareiss';
+export { smithDiagram } from './smith-diagram';
+export { checkKirchhoff } from './kirchhoff';
+export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';
+export { planeGraphFromDrawing } from './drawing';
+export { analysePlaneGraph } from './plane-graph';

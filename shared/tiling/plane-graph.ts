@@ -1,0 +1,111 @@
+// Rotation systems (combinatorial embeddings) of plane graphs: validation, darts and faces.
+// Face tracing rule: the dart after (u -> v) is (v -> w), w = the neighbour after u in adj[v]
+// (common practice for rotation systems; Mohar & Thomassen, "Graphs on Surfaces", 3.2).
+
+import type { PlaneGraph } from './types';
+
+export const MAX_GRAPH_VERTICES = 400;
+export const MAX_GRAPH_EDGES = 2001;
+
+export interface Darts {
+  /** dart d goes from tail[d] to head[d]; darts of vertex v are first[v] .. first[v+1]-1 in rotation order */
+  tail: Int32Array;
+  head: Int32Array;
+  first: Int32Array;
+  /** the reverse dart */
+  rev: Int32Array;
+  /** face id of each dart (the face on the dart's traced side) */
+  face: Int32Array;
+  faceCount: number;
+  edgeCount: number;
+}
+
+export type GraphCheck = { ok: true; darts: Darts } | { ok: false; code: 'not-plane' | 'disconnected' | 'too-large'; message: string };
+
+/** Checks shape, symmetry, loops, parallel edges, connectivity and Euler's formula V - E + F = 2. */
+export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
+  if (g === null || typeof g !== 'object' || !Array.isArray(g.adj)) {
+    return { ok: false, code: 'not-plane', message: 'the graph must be an object { n, adj } with adj an array of neighbour lists' };
+  }
+  const n = g.n;
+  if (!Number.isInteger(n) || n < 2) return { ok: false, code: 'not-plane', message: `n must be an integer >= 2 (got ${String(n)})` };
+  if (n > MAX_GRAPH_VERTICES) return { ok: false, code: 'too-large', message: `the graph has ${n} vertices; at most ${MAX_GRAPH_VERTICES} are accepted` };
+  if (g.adj.length !== n) return { ok: false, code: 'not-plane', message: `adj has ${g.adj.length} lists but n = ${n}` };
+  const first = new Int32Array(n + 1);
+  for (let v = 0; v < n; v++) {
+    const list = g.adj[v];
+    if (!Array.isArray(list)) return { ok: false, code: 'not-plane', message: `adj[${v}] is not an array` };
+    first[v + 1] = first[v]! + list.length;
+  }
+  const D = first[n]!;
+  if (D / 2 > MAX_GRAPH_EDGES) return { ok: false, code: 'too-large', message: `the graph has ${D / 2} edges; at most ${MAX_GRAPH_EDGES} are accepted` };
+  const tail = new Int32Array(D);
+  const head = new Int32Array(D);
+  for (let v = 0; v < n; v++) {
+    const list = g.adj[v]!;
+    const seen = new Set<number>();
+    for (let i = 0; i < list.length; i++) {
+      const u = list[i];
+      if (typeof u !== 'number' || !Number.isInteger(u) || u < 0 || u >= n) {
+        return { ok: false, code: 'not-plane', message: `adj[${v}][${i}] = ${String(u)} is not a vertex (0..${n - 1})` };
+      }
+      if (u === v) return { ok: false, code: 'not-plane', message: `vertex ${v} has a loop (adj[${v}][${i}] = ${v})` };
+      if (seen.has(u)) return { ok: false, code: 'not-plane', message: `vertex ${v} lists neighbour ${u} twice; parallel edges are not accepted` };
+      seen.add(u);
+      tail[first[v]! + i] = v;
+      head[first[v]! + i] = u;
+    }
+  }
+  const rev = new Int32Array(D);
+  for (let d = 0; d < D; d++) {
+    const u = tail[d]!;
+    const v = head[d]!;
+    const j = g.adj[v]!.indexOf(u);
+    if (j < 0) return { ok: false, code: 'not-plane', message: `edge ${u}-${v} appears in adj[${u}] but ${u} is missing from adj[${v}]` };
+    rev[d] = first[v]! + j;
+  }
+  // connectivity
+  const seenV = new Uint8Array(n);
+  const stack = [0];
+  seenV[0] = 1;
+  let reached = 1;
+  while (stack.length > 0) {
+    const v = stack.pop()!;
+    for (let d = first[v]!; d < first[v + 1]!; d++) {
+      const u = head[d]!;
+      if (!seenV[u]) {
+        seenV[u] = 1;
+        reached++;
+        stack.push(u);
+      }
+    }
+  }
+  if (reached < n) {
+    const missing = seenV.indexOf(0);
+    return { ok: false, code: 'disconnected', message: `the graph is not connected: vertex ${missing} cannot be reached from vertex 0` };
+  }
+  // faces
+  const face = new Int32Array(D).fill(-1);
+  let faceCount = 0;
+  for (let d0 = 0; d0 < D; d0++) {
+    if (face[d0] !== -1) continue;
+    let d = d0;
+    while (face[d] === -1) {
+      face[d] = faceCount;
+      const r = rev[d]!; // dart v -> u at v
+      const v = tail[r]!;
+      const deg = first[v + 1]! - first[v]!;
+      d = first[v]! + ((r - first[v]! + 1) % deg);
+    }
+    faceCount++;
+  }
+  const E = D / 2;
+  if (n - E + faceCount !== 2) {
+    return {
+      ok: false,
+      code: 'not-plane',
+      message: `the rotation system is not a plane embedding: V - E + F = ${n} - ${E} + ${faceCount} = ${n - E + faceCount}, not 2 (check that every vertex lists its neighbours in the same cyclic sense)`,
+    };
+  }
+  return { ok: true, darts: { tail, head, first, rev, face, faceCount, edgeCount: E } };
+}
