@@ -1,0 +1,39 @@
+import { lazyPage, type AppRoute } from './route-types';
+import type { Role } from '../lib/roles';
+
+const setters: readonly Role[] = ['setter'];
+const editors: readonly Role[] = ['editor', 'admin'];
+const printers: readonly Role[] = ['printer', 'admin'];
+const admins: readonly Role[] = ['admin'];
+
+/**
+ * THE list of signed-in pages. To add a feature page, add (or fill in) one entry:
+ *   { path: 'stock/:id', title: 'Stock tiling', roles: editors,
+ *     page: lazyPage(() => import('../features/stock/components/stock-detail-page'), 'StockDetailPage') },
+ * An entry without `page` shows a "coming soon" placeholder. The navigation (nav.ts)
+ * links to paths listed here; the home page ('') is composed in home-page.tsx.
+ * Keep one entry per line group and edit with small targeted changes: several
+ * engineers add to this file.
+ */
+export const appRoutes: readonly AppRoute[] = [
+  // setter
+  { path: 'submit', title: 'Submit', roles: setters, summary: 'Send in a tiling: paste a code, upload a file or sketch a network.' },
+  { path: 'submissions', title: 'My submissions', roles: setters, summary: 'Your submissions with their state and the editor’s notes.' },
+  { path: 'earnings', title: 'Earnings', roles: setters, summary: 'Fees for your printed puzzles, monthly statements and payouts.' },
+  // editor (and admin)
+  { path: 'review', title: 'Review queue', roles: editors, summary: 'Submissions waiting for review: accept into the stock or reject with a note.' },
+  { path: 'stock', title: 'Stock', roles: editors, summary: 'Every verified tiling, with filters, provenance and reuse history.' },
+  { path: 'puzzles', title: 'Puzzles', roles: editors, summary: 'Assembly and Deduction puzzles with their certificates.' },
+  { path: 'editions', title: 'Editions', roles: editors, summary: 'Dated editions: slots, introduction, checks and proofs.' },
+  { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.' },
+  { path: 'payouts', title: 'Payouts', roles: editors, summary: 'What each setter is owed, and payout runs.' },
+  // printer
+  { path: 'proofs', title: 'Proofs', roles: printers, summary: 'Editions sent to proof: download, approve or return with notes.' },
+  { path: 'press-files', title: 'Press files', roles: printers, summary: 'Approved editions, ready for the press.' },
+  // admin
+  { path: 'admin/users', title: 'Users', roles: admins, page: lazyPage(() => import('../features/admin-users/components/users-page'), 'UsersPage') },
+  { path: 'admin/publications', title: 'Publications', roles: admins, summary: 'Titles, page templates, cadence, solution rule, reuse window and fees.' },
+  { path: 'admin/templates', title: 'Templates', roles: admins, summary: 'The page templates, with a sample page of each.' },
+  { path: 'admin/mailbox', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mailbox-page'), 'MailboxPage') },
+  { path: 'admin/mailbox/:id', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mail-page'), 'MailPage') },
+];

@@ -1,0 +1,265 @@
+import { useEffect, useState, type ReactNode } from 'react';
+import {
+  createColumnHelper,
+  rowPaginationFeature,
+  rowSortingFeature,
+  tableFeatures,
+  useTable,
+  type ColumnDef,
+  type PaginationState,
+  type SortingState,
+  type Updater,
+  type RowData,
+} from '@tanstack/react-table';
+import { Alert } from './alert';
+import { Button } from './button';
+import { SelectField, type SelectOption } from './select-field';
+import { TextField } from './text-field';
+import type { TableSearchParams } from './use-table-search-params';
+
+/**
+ * The table features every DataTable uses (TanStack Table v9 API, see
+ * docs/decisions/001-data-table-on-table-v9.md): sorting and pagination, both manual
+ * (the server sorts and pages), state owned by the URL.
+ */
+export const dataTableFeatures = tableFeatures({ rowSortingFeature, rowPaginationFeature });
+export type DataTableFeatures = typeof dataTableFeatures;
+export type DataTableColumn<T extends RowData> = ColumnDef<DataTableFeatures, T, any>;
+
+/**
+ * Column helper for DataTable columns:
+ * `const col = dataTableColumnHelper<StockRow>(); const columns = col.columns([col.accessor('order', { header: 'Order' })]);`
+ * Columns are sortable unless `enableSorting: false`; keep `columns` at module scope.
+ */
+export function dataTableColumnHelper<T extends RowData>() {
+  return createColumnHelper<DataTableFeatures, T>();
+}
+
+/** A filter control above the table, bound to one URL search param. */
+export type DataTableFilter =
+  | { id: string; label: string; kind: 'text'; placeholder?: string }
+  | { id: string; label: string; kind: 'select'; options: readonly SelectOption[]; anyLabel?: string };
+
+export interface DataTableProps<T extends RowData> {
+  /** Accessible name of the table (rendered as its caption, visually hidden unless `showCaption`). */
+  label: string;
+  showCaption?: boolean;
+  columns: readonly DataTableColumn<T>[];
+  /** The current page of rows from the server. Pass a stable empty array while loading. */
+  rows: readonly T[];
+  /** Total number of rows matching the filters (from the server). */
+  total: number | undefined;
+  /** From useTableSearchParams: the URL-held query and its setters. */
+  params: TableSearchParams;
+  filters?: readonly DataTableFilter[];
+  getRowId?: (row: T) => string;
+  loading?: boolean;
+  error?: unknown;
+  /** Shown instead of the table when there are no rows and nothing is loading. */
+  empty?: ReactNode;
+  /** Makes each row activatable (click or Enter) e.g. to open a detail drawer. */
+  onRowActivate?: (row: T) => void;
+}
+
+const noRows: never[] = [];
+
+/**
+ * A real list: server-side sort, filter and pagination, all held in the URL so a view
+ * can be bookmarked and shared. The server must answer `{ items, total }` for
+ * `?page&pageSize&sort(-id for descending)&<filters>` (toListSearch builds that).
+ */
+export function DataTable<T extends RowData>({
+  label,
+  showCaption = false,
+  columns,
+  rows,
+  total,
+  params,
+  filters = [],
+  getRowId,
+  loading = false,
+  error,
+  empty,
+  onRowActivate,
+}: DataTableProps<T>) {
+  const { query } = params;
+  const sorting: SortingState = query.sort ? [{ id: query.sort, desc: query.desc }] : [];
+  const pagination: PaginationState = { pageIndex: query.page - 1, pageSize: query.pageSize };
+  const table = useTable({
+    features: dataTableFeatures,
+    columns: columns as DataTableColumn<T>[],
+    data: (rows as T[]) ?? noRows,
+    ...(getRowId ? { getRowId: (row: T) => getRowId(row) } : {}),
+    rowCount: total ?? 0,
+    manualSorting: true,
+    manualPagination: true,
+    enableMultiSort: false,
+    state: { sorting, pagination },
+    onSortingChange: (updater: Updater<SortingState>) => {
+      const next = typeof updater === 'function' ? updater(sorting) : updater;
+      const first = next[0];
+      params.setSort(first ? { id: first.id, desc: first.desc } : undefined);
+    },
+    onPaginationChange: (updater: Updater<PaginationState>) => {
+      const next = typeof updater === 'function' ? updater(pagination) : updater;
+      if (next.pageSize !== pagination.pageSize) params.setPageSize(next.pageSize);
+      else params.setPage(next.pageIndex + 1);
+    },
+  });
+  const pageCount = Math.max(1, Math.ceil((total ?? 0) / query.pageSize));
+  const firstRow = total ? (query.page - 1) * query.pageSize + 1 : 0;
+  const lastRow = Math.min(total ?? 0, query.page * query.pageSize);
+  const showEmpty = !loading && !error && rows.length === 0 && empty;
+
+  return (
+    <div className="flex flex-col gap-3">
+      {filters.length > 0 ? (
+        <div role="search" aria-label={`Filter ${label}`} className="flex flex-wrap items-end gap-3">
+          {filters.map((f) => (
+            <FilterControl key={f.id} filter={f} value={query.filters[f.id] ?? ''} onChange={(v) => params.setFilter(f.id, v)} />
+          ))}
+        </div>
+      ) : null}
+      {error ? (
+        <Alert tone="danger" title={`Could not load ${label.toLowerCase()}`}>
+          {error instanceof Error ? error.message : 'Unknown error'}
+        </Alert>
+      ) : null}
+      {showEmpty ? (
+        empty
+      ) : (
+        <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
+          <table className="w-full border-collapse text-sm tabular-nums" aria-busy={loading || undefined}>
+            <caption className={showCaption ? 'px-3 py-2 text-left font-semibold' : 'sr-only'}>{label}</caption>
+            <thead className="bg-paper-deep text-left">
+              {table.getHeaderGroups().map((group) => (
+                <tr key={group.id}>
+                  {group.headers.map((header) => {
+                    const sorted = header.column.getIsSorted();
+                    const canSort = header.column.getCanSort();
+                    return (
+                      <th
+                        key={header.id}
+                        scope="col"
+                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : canSort ? 'none' : undefined}
+                        className="border-b border-rule px-3 py-2 font-semibold whitespace-nowrap text-ink"
+                      >
+                        {header.isPlaceholder ? null : canSort ? (
+                          <button
+                            type="button"
+                            onClick={header.column.getToggleSortingHandler()}
+                            className="inline-flex items-center gap-1 rounded-sm hover:text-accent-strong focus-visible:outline-2 focus-visible:outline-focus"
+                          >
+                            <table.FlexRender header={header} />
+                            <span aria-hidden className="text-ink-faint">
+                              {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                            </span>
+                          </button>
+                        ) : (
+                          <table.FlexRender header={header} />
+                        )}
+                      </th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {table.getRowModel().rows.map((row) => (
+                <tr
+                  key={row.id}
+                  className={`border-b border-rule last:border-b-0 ${onRowActivate ? 'cursor-pointer hover:bg-paper focus-visible:outline-2 focus-visible:outline-focus' : ''}`}
+                  {...(onRowActivate
+                    ? {
+                        tabIndex: 0,
+                        onClick: () => onRowActivate(row.original),
+                        onKeyDown: (e: React.KeyboardEvent) => {
+                          if (e.key === 'Enter') onRowActivate(row.original);
+                        },
+                      }
+                    : {})}
+                >
+                  {row.getAllCells().map((cell) => (
+                    <td key={cell.id} className="px-3 py-2 align-middle text-ink">
+                      <table.FlexRender cell={cell} />
+                    </td>
+                  ))}
+                </tr>
+              ))}
+              {loading && rows.length === 0 ? (
+                <tr>
+                  <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
+                    Loading…
+                  </td>
+                </tr>
+              ) : null}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <nav aria-label={`${label} pages`} className="flex flex-wrap items-center justify-between gap-3 text-sm text-ink-muted">
+        <p className="tabular-nums" aria-live="polite">
+          {total === undefined ? '' : total === 0 ? 'No rows' : `${firstRow}–${lastRow} of ${total}`}
+        </p>
+        <div className="flex items-center gap-2">
+          <label className="flex items-center gap-2">
+            Rows per page
+            <select
+              value={query.pageSize}
+              onChange={(e) => table.setPageSize(Number(e.target.value))}
+              className="h-8 rounded-md border border-rule-strong bg-surface px-2 text-ink focus-visible:outline-2 focus-visible:outline-focus"
+            >
+              {params.pageSizes.map((n) => (
+                <option key={n} value={n}>
+                  {n}
+                </option>
+              ))}
+            </select>
+          </label>
+          <Button size="sm" onClick={() => table.previousPage()} disabled={query.page <= 1}>
+            Previous
+          </Button>
+          <span className="tabular-nums">
+            Page {query.page} of {pageCount}
+          </span>
+          <Button size="sm" onClick={() => table.nextPage()} disabled={query.page >= pageCount}>
+            Next
+          </Button>
+        </div>
+      </nav>
+    </div>
+  );
+}
+
+function FilterControl({ filter, value, onChange }: { filter: DataTableFilter; value: string; onChange: (v: string) => void }) {
+  if (filter.kind === 'select') {
+    return (
+      <SelectField
+        label={filter.label}
+        options={filter.options}
+        placeholder={filter.anyLabel ?? 'Any'}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="min-w-40"
+      />
+    );
+  }
+  return <DebouncedText label={filter.label} placeholder={filter.placeholder} value={value} onChange={onChange} />;
+}
+
+/** Text filter that writes to the URL 300 ms after typing stops. */
+function DebouncedText({ label, placeholder, value, onChange }: { label: string; placeholder?: string | undefined; value: string; onChange: (v: string) => void }) {
+  const [draft, setDraft] = useState(value);
+  const [seen, setSeen] = useState(value);
+  if (value !== seen) {
+    // the URL changed from elsewhere (back button, clear): follow it
+    setSeen(value);
+    setDraft(value);
+  }
+  useEffect(() => {
+    if (draft === value) return;
+    const timer = setTimeout(() => onChange(draft), 300);
+    return () => clearTimeout(timer);
+  }, [draft, value, onChange]);
+  return <TextField type="search" label={label} placeholder={placeholder} value={draft} onChange={(e) => setDraft(e.target.value)} className="min-w-56" />;
+}

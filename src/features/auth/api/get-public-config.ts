@@ -1,0 +1,19 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { publicConfigResponseSchema, type PublicConfig } from '../../../../shared/contracts/auth';
+import { apiRequest } from '../../../lib/api-client';
+
+/** GET /api/public/config: whether this is a demo database, and its demo sign-ins. */
+export function getPublicConfig(signal?: AbortSignal): Promise<PublicConfig> {
+  return apiRequest('/api/public/config', { schema: publicConfigResponseSchema, signal });
+}
+
+export const publicConfigQueryOptions = () =>
+  queryOptions({
+    queryKey: ['public-config'] as const,
+    queryFn: ({ signal }) => getPublicConfig(signal),
+    staleTime: Infinity,
+  });
+
+export function usePublicConfig() {
+  return useQuery(publicConfigQueryOptions());
+}

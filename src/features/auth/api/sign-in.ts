@@ -1,0 +1,22 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { SignInBody } from '../../../../shared/contracts/auth';
+import { ApiError } from '../../../lib/api-client';
+import { authClient } from '../../../lib/auth-client';
+import { meQueryOptions } from './get-me';
+
+/** POST /api/auth/sign-in/email through better-auth; throws ApiError with the server's message. */
+export async function signIn(body: SignInBody): Promise<void> {
+  const { error } = await authClient.signIn.email({ email: body.email, password: body.password });
+  if (error) {
+    throw new ApiError(error.status ?? 400, error.code ?? 'sign_in_failed', error.message ?? 'Sign-in failed.');
+  }
+}
+
+/** Signs in, then reloads the session user. */
+export function useSignIn() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: signIn,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: meQueryOptions().queryKey }),
+  });
+}
