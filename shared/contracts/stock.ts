@@ -3,13 +3,27 @@ import { classificationSchema, smithDrawingSchema, tilingSchema } from './tiling
 
 // Contracts for the stock of accepted tilings.
 
+/**
+ * A list's `sort` query parameter as the client's tables send it: a column key, prefixed
+ * with `-` for descending (`sort=-createdAt`). Parses to `{ key, desc }`.
+ */
+export function sortParam<const K extends readonly [string, ...string[]]>(keys: K, fallback: `${K[number]}` | `-${K[number]}`) {
+  return z
+    .string()
+    .default(fallback)
+    .refine((v) => (keys as readonly string[]).includes(v.replace(/^-/, '')), {
+      message: `sort by one of ${keys.join(', ')} (prefix - for descending)`,
+    })
+    .transform((v) => ({ key: v.replace(/^-/, '') as K[number], desc: v.startsWith('-') }));
+}
+
 export const provenanceSchema = z.enum(['setter', 'foundry', 'demo']);
 export type Provenance = z.infer<typeof provenanceSchema>;
 
 const intParam = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
 const boolParam = z.enum(['true', 'false']).transform((v) => v === 'true');
 
-export const stockSortSchema = z.enum(['createdAt', 'order', 'width', 'height', 'id']);
+export const stockSortKeys = ['createdAt', 'order', 'width', 'height', 'id'] as const;
 
 /** Filters for GET /api/stock and its exports (query parameters). */
 export const stockFilterSchema = z.object({
@@ -39,8 +53,7 @@ const rangeCheck = (v: Record<string, unknown>, ctx: z.RefinementCtx) => {
 
 export const stockListQuerySchema = stockFilterSchema
   .extend({
-    sort: stockSortSchema.default('createdAt'),
-    dir: z.enum(['asc', 'desc']).default('desc'),
+    sort: sortParam(stockSortKeys, '-createdAt'),
     page: intParam(1, 1_000_000).default(1),
     pageSize: intParam(1, 200).default(25),
   })

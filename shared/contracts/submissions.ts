@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { sortParam } from './stock';
 import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema } from './tilings';
 
 // Contracts for setters' submissions and the editors' review of them.
@@ -64,10 +65,15 @@ export const submissionDetailSchema = submissionSchema.extend({
   smith: smithDrawingSchema.nullable(),
   classification: classificationSchema,
   bouwkamp: z.string(),
+  /** editors only (empty for setters): the same tiling elsewhere */
+  duplicates: z.object({
+    stockId: z.number().int().nullable(),
+    submissions: z.array(z.object({ id: z.number().int(), status: submissionStatusSchema })),
+  }),
 });
 export type SubmissionDetail = z.infer<typeof submissionDetailSchema>;
 
-export const submissionSortSchema = z.enum(['createdAt', 'title', 'order', 'width', 'height', 'status']);
+export const submissionSortKeys = ['createdAt', 'title', 'order', 'width', 'height', 'status'] as const;
 const intParam = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
 
 export const submissionListQuerySchema = z
@@ -75,8 +81,7 @@ export const submissionListQuerySchema = z
     status: submissionStatusSchema.optional(),
     q: z.string().trim().max(200).optional(),
     duplicate: z.enum(['true', 'false']).optional(),
-    sort: submissionSortSchema.default('createdAt'),
-    dir: z.enum(['asc', 'desc']).default('desc'),
+    sort: sortParam(submissionSortKeys, '-createdAt'),
     page: intParam(1, 1_000_000).default(1),
     pageSize: intParam(1, 200).default(25),
   })

@@ -73,6 +73,8 @@ export const whereSchema = z
     group: z.number().int().optional(),
     element: z.number().int().optional(),
     square: z.number().int().optional(),
+    /** for sketches: the two edges (0-based) that cross */
+    edges: z.tuple([z.number().int(), z.number().int()]).optional(),
   })
   .partial();
 
