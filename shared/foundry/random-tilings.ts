@@ -1,0 +1,134 @@
+// Random simple perfect squared rectangles (engine.md 6.3): start from a wheel W_k, k >= 4
+// (K4 admits neither a face split nor a vertex split), add random face splits or vertex
+// splits (a face split of the dual, dualised back) up to m = n + 1 edges, pick a random pole
+// edge, solve exactly, classify, filter. Not uniform over graphs; reproducible from the seed
+// (mulberry32).
+import { classifyTiling, solvePlaneNetwork } from '../tiling/index';
+import { describeTiling, type FoundTiling } from './found-tiling';
+import { dualOf, edgeCount, edgesOf, facesOf, FoundryInputError, splitFace, wheel, type RotationSystem } from './plane-graph';
+import { mulberry32, randomInt } from './prng';
+
+export const MAX_RANDOM_ORDER = 40;
+export const MIN_RANDOM_ORDER = 9;
+
+export interface RandomOptions {
+  count: number;
+  orderMin: number;
+  orderMax: number;
+  /** largest square side at most this */
+  maxSide?: number;
+  /** aspect ratio long side / short side, >= 1 */
+  aspectMin?: number;
+  aspectMax?: number;
+  squaresOnly?: boolean;
+  seed: number;
+  /** tries before giving up (default 5000 per wanted tiling) */
+  maxTries?: number;
+  /** the stock already has this canonical key */
+  isKnown?: (key: string) => boolean;
+  shouldStop?: () => boolean;
+  onProgress?: (p: { done: number; total: number; tries: number }) => void;
+  onFound?: (t: FoundTiling) => void;
+}
+
+export interface RandomSummary {
+  found: number;
+  tries: number;
+  zeroCurrent: number;
+  rejectedFilter: number;
+  rejectedKnown: number;
+  rejectedNotSimplePerfect: number;
+  ms: number;
+  stopped: boolean;
+  exhaustedTries: boolean;
+}
+
+function randomChord(g: RotationSystem, rnd: () => number): RotationSystem | null {
+  const faces = facesOf(g).filter((f) => f.length >= 4);
+  if (faces.length === 0) return null;
+  const f = faces[randomInt(rnd, faces.length)]!;
+  const k = f.length;
+  for (;;) {
+    const i = randomInt(rnd, k);
+    const j = randomInt(rnd, k);
+    const d = Math.abs(i - j);
+    if (d >= 2 && d !== k - 1) return splitFace(g, f, Math.min(i, j), Math.max(i, j));
+  }
+}
+
+/** A random 3-connected plane graph with exactly m edges (m >= 8). */
+export function randomPlaneGraph(m: number, rnd: () => number): RotationSystem {
+  if (!Number.isInteger(m) || m < 8) throw new FoundryInputError('bad-edges', `randomPlaneGraph: m must be an integer >= 8, got ${m}`);
+  const k = 4 + randomInt(rnd, Math.floor(m / 2) - 3);
+  let g = wheel(k);
+  while (edgeCount(g) < m) {
+    if (rnd() < 0.5) {
+      const h = randomChord(g, rnd);
+      if (h) { g = h; continue; }
+    }
+    const h = randomChord(dualOf(g), rnd);
+    if (h) g = dualOf(h);
+    else {
+      const h2 = randomChord(g, rnd);
+      if (!h2) throw new Error('randomPlaneGraph: neither a face split nor a vertex split exists');
+      g = h2;
+    }
+  }
+  return g;
+}
+
+function validate(o: RandomOptions): void {
+  const bad = (msg: string) => { throw new FoundryInputError('bad-random-options', `randomTilings: ${msg}`); };
+  if (!Number.isInteger(o.count) || o.count < 1) bad(`count must be a positive integer, got ${o.count}`);
+  if (!Number.isInteger(o.orderMin) || o.orderMin < MIN_RANDOM_ORDER) bad(`orderMin must be an integer >= ${MIN_RANDOM_ORDER}, got ${o.orderMin}`);
+  if (!Number.isInteger(o.orderMax) || o.orderMax > MAX_RANDOM_ORDER) bad(`orderMax must be an integer <= ${MAX_RANDOM_ORDER}, got ${o.orderMax}`);
+  if (o.orderMax < o.orderMin) bad(`orderMax (${o.orderMax}) is below orderMin (${o.orderMin})`);
+  if (!Number.isInteger(o.seed)) bad(`seed must be an integer, got ${o.seed}`);
+  if (o.aspectMin !== undefined && o.aspectMax !== undefined && o.aspectMax < o.aspectMin) bad(`aspectMax (${o.aspectMax}) is below aspectMin (${o.aspectMin})`);
+}
+
+export function randomTilings(o: RandomOptions): RandomSummary {
+  validate(o);
+  const t0 = Date.now();
+  const rnd = mulberry32(o.seed);
+  const maxTries = o.maxTries ?? o.count * 5000;
+  const seen = new Set<string>();
+  const s: RandomSummary = { found: 0, tries: 0, zeroCurrent: 0, rejectedFilter: 0, rejectedKnown: 0, rejectedNotSimplePerfect: 0, ms: 0, stopped: false, exhaustedTries: false };
+  while (s.found < o.count) {
+    if (s.tries >= maxTries) { s.exhaustedTries = true; break; }
+    if ((s.tries & 15) === 0) {
+      if (o.shouldStop?.()) { s.stopped = true; break; }
+      o.onProgress?.({ done: s.found, total: o.count, tries: s.tries });
+    }
+    s.tries++;
+    const order = o.orderMin + randomInt(rnd, o.orderMax - o.orderMin + 1);
+    const g = randomPlaneGraph(order + 1, rnd);
+    const edges = edgesOf(g);
+    const [p, q] = edges[randomInt(rnd, edges.length)]!;
+    const r = solvePlaneNetwork(g, { p, q });
+    if (!r.ok) {
+      if (r.code === 'zero-current') { s.zeroCurrent++; continue; }
+      throw new Error(`solvePlaneNetwork failed on a random graph: ${r.code}: ${r.message}`);
+    }
+    const t = r.tiling;
+    const long = Math.max(t.W, t.H);
+    const short = Math.min(t.W, t.H);
+    let maxSize = 0;
+    for (const sq of t.squares) if (sq.s > maxSize) maxSize = sq.s;
+    if ((o.maxSide !== undefined && maxSize > o.maxSide) ||
+      (o.aspectMin !== undefined && long / short < o.aspectMin) ||
+      (o.aspectMax !== undefined && long / short > o.aspectMax) ||
+      (o.squaresOnly === true && t.W !== t.H)) { s.rejectedFilter++; continue; }
+    const cls = classifyTiling(t);
+    if (!cls.simple || !cls.perfect) { s.rejectedNotSimplePerfect++; continue; }
+    const ft = describeTiling(t, { method: 'random', seed: o.seed, try: s.tries, order, pole: [p, q] }, cls);
+    if (!ft) throw new Error('a solved random network did not verify');
+    if (seen.has(ft.key) || o.isKnown?.(ft.key) === true) { s.rejectedKnown++; continue; }
+    seen.add(ft.key);
+    s.found++;
+    o.onFound?.(ft);
+  }
+  o.onProgress?.({ done: s.found, total: o.count, tries: s.tries });
+  s.ms = Date.now() - t0;
+  return s;
+}
