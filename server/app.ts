@@ -1,0 +1,49 @@
+import { toNodeHandler } from 'better-auth/node';
+import express, { type Express } from 'express';
+import { clientIpHeader } from './auth/auth';
+import type { AppDeps } from './deps';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import { createApiRouter, type ApiRouter } from './http/route';
+import { areaRoutes } from './routes/index';
+
+export type CreateAppOptions = {
+  /** serve the client (Vite middleware in dev, dist/client in production); after the API 404 */
+  mountClient?: (app: Express) => void;
+  /** JSON body limit (default 1mb) */
+  jsonLimit?: string;
+};
+
+/** Build the Express app from its dependencies. No listening here (see server/index.ts). */
+export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Express & { api: ApiRouter } {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', false);
+
+  // better-auth's rate limiter keys on this header; any client-sent value is overwritten.
+  app.use((req, _res, next) => {
+    req.headers[clientIpHeader] = req.socket.remoteAddress ?? 'unknown';
+    next();
+  });
+  app.use('/api', (_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    next();
+  });
+
+  // better-auth reads its own body: mount it BEFORE express.json().
+  app.all('/api/auth/*splat', toNodeHandler(deps.auth));
+
+  // The payments webhook is verified over its raw bytes: keep them (express.json then skips it).
+  app.use('/api/payments/webhook', express.raw({ type: '*/*', limit: '512kb' }));
+  app.use(express.json({ limit: options.jsonLimit ?? '1mb' }));
+
+  const api = createApiRouter(deps);
+  for (const register of areaRoutes) register(api, deps);
+  app.use(api.express);
+  app.use('/api', apiNotFound());
+
+  options.mountClient?.(app);
+
+  app.use(errorHandler(deps.log));
+  return Object.assign(app, { api });
+}

@@ -1,0 +1,43 @@
+import type { Role } from '../../shared/contracts/common';
+
+// THE table of which role may call what. Every route registered through
+// server/http/route.ts must have an entry here (`METHOD /path` exactly as registered),
+// or the app refuses to start. 'public' = no session needed; 'signed-in' = any role.
+// An admin may do everything an editor may (see `isAllowed`).
+// Areas: add your lines in your own block, keep them sorted by path.
+
+export type Access = 'public' | 'signed-in' | readonly Role[];
+
+export const permissions: Record<string, Access> = {
+  // foundation
+  'GET /api/health': 'public',
+  'GET /api/public/config': 'public',
+  'GET /api/openapi.json': 'public',
+  'GET /api/me': 'signed-in',
+  'POST /api/invitations': ['admin'],
+  'GET /api/invitations/:token': 'public',
+  'POST /api/invitations/:token/accept': 'public',
+  'GET /api/admin/users': ['admin'],
+  'PATCH /api/admin/users/:id': ['admin'],
+  'GET /api/mailbox': ['admin'],
+  'GET /api/mailbox/:id': ['admin'],
+  // payouts and earnings (setters' fees)
+  'GET /api/earnings': ['setter'],
+  'POST /api/earnings/payout-details': ['setter'],
+  'GET /api/earnings/statements/:month': ['setter'],
+  'GET /api/earnings/statements/:month.csv': ['setter'],
+  'POST /api/earnings/statements/:month/send': ['setter'],
+  'POST /api/ledger/corrections': ['editor'],
+  'POST /api/payments/webhook': 'public',
+  'GET /api/payouts': ['editor'],
+  'POST /api/payouts/:id/retry': ['editor'],
+  'POST /api/payouts/runs': ['editor'],
+};
+
+export function isAllowed(access: Access, role: Role | null): boolean {
+  if (access === 'public') return true;
+  if (role === null) return false;
+  if (access === 'signed-in') return true;
+  if (access.includes(role)) return true;
+  return role === 'admin' && access.includes('editor');
+}

@@ -1,0 +1,118 @@
+import type { Express } from 'express';
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { createServer, type Server } from 'node:http';
+import { isAbsolute, join, resolve } from 'node:path';
+import { appRoot } from './app-root';
+import { createApp } from './app';
+import { buildDeps } from './compose';
+import { closeDatabase, openDatabase } from './db/client';
+import { demoAccounts, demoPassword } from './demo/accounts';
+import { seedDemo } from './demo/seed';
+import { loadEnv, type Env } from './env';
+import { createLogger } from './log';
+import { startFakeSmtp } from './mail/fake-smtp';
+import { loadMailTemplates } from './mail/templates';
+import { localFakes, type LocalFakeHandle } from './services/local-fakes';
+
+// Start-up shared by server/index.ts (production) and server/dev.ts (Vite middleware).
+
+export function resolveDataDir(env: Env): string {
+  return isAbsolute(env.DATA_DIR) ? env.DATA_DIR : resolve(appRoot(), env.DATA_DIR);
+}
+
+/** AUTH_SECRET, or a secret generated once and kept in DATA_DIR/auth-secret. */
+export function resolveAuthSecret(env: Env, dataDir: string): string {
+  if (env.AUTH_SECRET) return env.AUTH_SECRET;
+  const file = join(dataDir, 'auth-secret');
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  const secret = randomBytes(32).toString('base64url');
+  writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
+}
+
+export type StartOptions = {
+  source?: Record<string, string | undefined>;
+  /** prepare client serving once the HTTP server exists (Vite needs it for its websocket) */
+  prepareClient?: (httpServer: Server) => Promise<(app: Express) => void>;
+};
+
+export async function startServer(options: StartOptions = {}) {
+  const t0 = Date.now();
+  const source = options.source ?? process.env;
+  let env = loadEnv(source);
+  const log = createLogger(env.LOG_LEVEL);
+  const dataDir = resolveDataDir(env);
+  mkdirSync(dataDir, { recursive: true });
+  const dbFile = join(dataDir, 'squarewright.db');
+  const isNew = !existsSync(dbFile);
+  const demo = env.DEMO ?? isNew;
+  const secret = resolveAuthSecret(env, dataDir);
+  loadMailTemplates();
+  const db = openDatabase(dbFile);
+
+  const stops: (() => Promise<void>)[] = [];
+  let smtp: { url: string; localFake: boolean };
+  if (env.SMTP_URL) {
+    smtp = { url: env.SMTP_URL, localFake: false };
+  } else {
+    const fake = await startFakeSmtp({ db });
+    stops.push(() => fake.close());
+    smtp = { url: fake.url, localFake: true };
+  }
+  const started: { name: string; handle: LocalFakeHandle }[] = [];
+  for (const fake of localFakes) {
+    if (!fake.shouldStart(env)) continue;
+    const handle = await fake.start({ env, db, log });
+    started.push({ name: fake.name, handle });
+    stops.push(() => handle.stop());
+  }
+  const overrides = Object.assign({}, ...started.map((s) => s.handle.envOverrides ?? {})) as Record<string, string>;
+  if (Object.keys(overrides).length > 0) env = loadEnv({ ...source, ...overrides });
+
+  const deps = buildDeps({ env, db, demo, secret, smtp, log });
+  if (isNew && demo) await seedDemo(deps);
+
+  const httpServer = createServer();
+  const mountClient = options.prepareClient ? await options.prepareClient(httpServer) : undefined;
+  const app = createApp(deps, mountClient ? { mountClient } : {});
+  httpServer.on('request', app);
+  await new Promise<void>((resolveListen, reject) => {
+    httpServer.once('error', reject);
+    httpServer.listen(env.PORT, env.HOST, () => resolveListen());
+  });
+  deps.mail.start();
+
+  const lines = [
+    `Squarewright ${isNew ? '(new database) ' : ''}is running at ${env.PUBLIC_URL}  (listening on ${env.HOST}:${env.PORT}, ${Date.now() - t0} ms)`,
+    `  data: ${dbFile}`,
+    `  mail: ${smtp.localFake ? `local fake SMTP at ${smtp.url} (read it in Mailbox (local), signed in as admin)` : 'SMTP_URL'}`,
+    ...started.map((s) => `  ${s.name}: local fake at ${s.handle.url}`),
+  ];
+  if (demo) {
+    lines.push(`  demo sign-ins (password ${demoPassword}):`);
+    for (const a of demoAccounts) lines.push(`    ${a.role.padEnd(8)} ${a.email}`);
+  }
+  console.log(lines.join('\n'));
+
+  let closing: Promise<void> | undefined;
+  const close = () =>
+    (closing ??= (async () => {
+      await new Promise<void>((r) => {
+        httpServer.close(() => r());
+        httpServer.closeAllConnections();
+      });
+      await deps.mail.stop();
+      for (const stop of stops.reverse()) await stop().catch(() => undefined);
+      closeDatabase(db);
+    })());
+  return { app, deps, httpServer, close, env };
+}
+
+export function exitOnSignals(close: () => Promise<void>) {
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.once(signal, () => {
+      close().finally(() => process.exit(0));
+    });
+  }
+}

@@ -1,0 +1,45 @@
+import { createAuth } from './auth/auth';
+import { systemClock, type Clock } from './clock';
+import type { Db } from './db/client';
+import type { AppDeps } from './deps';
+import type { Env } from './env';
+import { createLogger, type Logger } from './log';
+import { createMailSender, type MailSenderOptions } from './mail/outbox';
+import { createSmtpTransport } from './mail/transport';
+import { paymentsProviderFromEnv } from './payments/runtime';
+
+export type BuildDepsInput = {
+  env: Env;
+  db: Db;
+  demo: boolean;
+  secret: string;
+  smtp: { url: string; localFake: boolean };
+  clock?: Clock;
+  log?: Logger;
+  signInLimit?: { window: number; max: number };
+  mail?: Pick<MailSenderOptions, 'baseDelayMs' | 'maxDelayMs' | 'maxAttempts' | 'intervalMs'>;
+};
+
+/** Wire the dependencies createApp needs (used by server/index.ts, server/dev.ts and the test harness). */
+export function buildDeps(input: BuildDepsInput): AppDeps {
+  const clock = input.clock ?? systemClock;
+  const log = input.log ?? createLogger(input.env.LOG_LEVEL);
+  const sender = createMailSender({
+    db: input.db,
+    transport: createSmtpTransport(input.smtp),
+    from: input.env.MAIL_FROM,
+    clock,
+    log,
+    ...input.mail,
+  });
+  const mail = Object.assign(sender, { transport: input.smtp.localFake ? ('local-fake' as const) : ('smtp' as const) });
+  const auth = createAuth({
+    db: input.db,
+    env: input.env,
+    secret: input.secret,
+    clock,
+    onMailQueued: () => mail.kick(),
+    ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
+  });
+  return { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, payments: paymentsProviderFromEnv(input.env) };
+}

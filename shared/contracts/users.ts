@@ -1,0 +1,42 @@
+import { z } from 'zod';
+import { isoDateTimeSchema, roleSchema } from './common';
+
+// Admin user management and the Mailbox (local).
+
+export const adminUserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  active: z.boolean(),
+  createdAt: isoDateTimeSchema,
+});
+export type AdminUser = z.infer<typeof adminUserSchema>;
+
+/** GET /api/admin/users */
+export const adminUserListResponseSchema = z.object({ users: z.array(adminUserSchema) });
+
+/** PATCH /api/admin/users/:id */
+export const updateUserBodySchema = z
+  .object({ role: roleSchema.optional(), active: z.boolean().optional() })
+  .refine((v) => v.role !== undefined || v.active !== undefined, 'give role or active');
+export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
+export const updateUserResponseSchema = z.object({ user: adminUserSchema });
+
+export const mailboxSummarySchema = z.object({
+  id: z.number().int(),
+  from: z.string(),
+  to: z.string(),
+  subject: z.string(),
+  receivedAt: isoDateTimeSchema,
+});
+export const mailboxMessageSchema = mailboxSummarySchema.extend({
+  text: z.string(),
+  html: z.string().nullable(),
+});
+export type MailboxMessage = z.infer<typeof mailboxMessageSchema>;
+
+/** GET /api/mailbox (admin) */
+export const mailboxListResponseSchema = z.object({ messages: z.array(mailboxSummarySchema) });
+/** GET /api/mailbox/:id (admin) */
+export const mailboxMessageResponseSchema = z.object({ message: mailboxMessageSchema });
