@@ -141,6 +141,7 @@ function piecesDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>, 
   let rowH = 0;
   loose.forEach((s, i) => {
     const side = s * k;
+    noteSquare(ctx, side);
     if (x > 0 && x + side > box.widthPt) {
       x = 0;
       y += rowH + gap;

@@ -1,6 +1,6 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { printAppRoot } from './app-root';
+import { appRoot as printAppRoot } from '../app-root';
 
 // The print families and their files in fonts/ (TTF; see fonts/README.md for licences).
 export const PRINT_FONTS = {

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describeTemplateIssues, pageTemplateSchema, type PageTemplate } from '../../shared/contracts/templates';
-import { printAppRoot } from './app-root';
+import { appRoot as printAppRoot } from '../app-root';
 
 /** A page template file that cannot be used; the message names the file and each field. */
 export class TemplateFileError extends Error {
