@@ -32,6 +32,21 @@ export const permissions: Record<string, Access> = {
   'GET /api/payouts': ['editor'],
   'POST /api/payouts/:id/retry': ['editor'],
   'POST /api/payouts/runs': ['editor'],
+  // intake and stock (setters submit, editors review; printers see none of it)
+  'GET /api/stock': ['editor'],
+  'GET /api/stock/:id': ['editor'],
+  'GET /api/stock/:id/image.png': ['editor'],
+  'GET /api/stock/export.bkp': ['editor'],
+  'GET /api/stock/export.csv': ['editor'],
+  'GET /api/stock/summary': ['editor'],
+  'GET /api/submissions': ['setter', 'editor'],
+  'POST /api/submissions': ['setter'],
+  'GET /api/submissions/:id': ['setter', 'editor'],
+  'POST /api/submissions/:id/accept': ['editor'],
+  'POST /api/submissions/:id/reject': ['editor'],
+  'POST /api/submissions/bulk': ['editor'],
+  'POST /api/submissions/upload': ['setter'],
+  'POST /api/tilings/check': ['setter', 'editor'],
 };
 
 export function isAllowed(access: Access, role: Role | null): boolean {

@@ -2,9 +2,17 @@ import type { AppDeps } from '../deps';
 import type { ApiRouter } from '../http/route';
 import { registerAccountRoutes } from './accounts';
 import { registerFoundationRoutes } from './foundation';
+import { registerMoneyRoutes } from './payouts';
+import { registerStockRoutes } from './stock';
+import { registerSubmissionRoutes } from './submissions';
+import { registerTilingRoutes } from './tilings';
 
 // Every area's router, one line each (add yours). Each registers with route().
 export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerFoundationRoutes,
   registerAccountRoutes,
+  registerMoneyRoutes,
+  registerTilingRoutes,
+  registerSubmissionRoutes,
+  registerStockRoutes,
 ];

@@ -1,0 +1,246 @@
+import { and, asc, count, desc, eq, gt, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { verifyTiling, type Tiling } from '../../shared/tiling/index';
+import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../shared/contracts/stock';
+import { stockFilterSchema } from '../../shared/contracts/stock';
+import type { z } from 'zod';
+import type { DbOrTx } from '../db/client';
+import { stock } from '../db/schema/stock';
+import { submission } from '../db/schema/submissions';
+import { NotFound, Unprocessable } from '../http/errors';
+import { analyseTiling, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-check';
+
+// The stock of verified tilings, one row per canonical key. addToStock is the one way in
+// (review, foundry, demo seed all call it).
+
+export interface AddToStockInput {
+  tiling: Tiling;
+  provenance: Provenance;
+  setterId?: string | null;
+  params?: Record<string, unknown> | null;
+  acceptedAt?: Date | null;
+}
+
+export interface AddToStockResult {
+  id: number;
+  /** false when the tiling (up to symmetry) was already in the stock: nothing changed */
+  created: boolean;
+  canonicalKey: string;
+}
+
+/**
+ * Put a tiling into the stock inside the caller's transaction. Idempotent by canonical key:
+ * adding a tiling that is already there (in any orientation) returns the existing row.
+ * The tiling is re-verified; an invalid one is refused with 422.
+ */
+export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult {
+  const v = verifyTiling(input.tiling);
+  if (!v.ok) throw new Unprocessable(`not a valid tiling: ${v.message}`, v.square === undefined ? undefined : { square: v.square });
+  const a = analyseTiling(input.tiling);
+  const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, a.canonicalKey)).get();
+  if (existing) return { id: existing.id, created: false, canonicalKey: a.canonicalKey };
+  const c = a.classification;
+  const row = tx
+    .insert(stock)
+    .values({
+      canonicalKey: a.canonicalKey,
+      canonicalCode: a.canonicalCode,
+      squaresJson: squaresToJson(a.canonical),
+      width: a.canonical.W,
+      height: a.canonical.H,
+      order: c.order,
+      square: c.square,
+      perfect: c.perfect,
+      simple: c.simple,
+      provenance: input.provenance,
+      setterId: input.setterId ?? null,
+      paramsJson: input.params ? JSON.stringify(input.params) : null,
+      acceptedAt: input.acceptedAt ?? (input.provenance === 'setter' ? new Date() : null),
+    })
+    .returning({ id: stock.id })
+    .get();
+  return { id: row.id, created: true, canonicalKey: a.canonicalKey };
+}
+
+/** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */
+export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
+  const r = tx
+    .update(stock)
+    .set({ useCount: sql`max(0, ${stock.useCount} + ${delta})` })
+    .where(eq(stock.id, stockId))
+    .run();
+  if (r.changes === 0) throw new NotFound(`stock tiling ${stockId} does not exist`);
+}
+
+/** The id of the stock row with this canonical key, if any. */
+export function findStockByKey(db: DbOrTx, key: string): number | null {
+  return db.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, key)).get()?.id ?? null;
+}
+
+/**
+ * Where stock tilings were used: the puzzle and edition areas plug in here (setStockUsage)
+ * once they exist; until then the history lists are empty.
+ */
+export interface StockUsage {
+  puzzlesFor(db: DbOrTx, stockId: number): StockDetail['history']['puzzles'];
+  editionsFor(db: DbOrTx, stockId: number): StockDetail['history']['editions'];
+  gradeCounts(db: DbOrTx): StockSummary['byGrade'];
+}
+const noUsage: StockUsage = { puzzlesFor: () => [], editionsFor: () => [], gradeCounts: () => [] };
+let usage: StockUsage = noUsage;
+export function setStockUsage(u: StockUsage | null): void {
+  usage = u ?? noUsage;
+}
+
+type StockFilter = z.infer<typeof stockFilterSchema>;
+
+function whereOf(f: StockFilter): SQL | undefined {
+  const w: SQL[] = [];
+  if (f.orderMin !== undefined) w.push(gte(stock.order, f.orderMin));
+  if (f.orderMax !== undefined) w.push(lte(stock.order, f.orderMax));
+  if (f.widthMin !== undefined) w.push(gte(stock.width, f.widthMin));
+  if (f.widthMax !== undefined) w.push(lte(stock.width, f.widthMax));
+  if (f.heightMin !== undefined) w.push(gte(stock.height, f.heightMin));
+  if (f.heightMax !== undefined) w.push(lte(stock.height, f.heightMax));
+  if (f.square !== undefined) w.push(eq(stock.square, f.square));
+  if (f.perfect !== undefined) w.push(eq(stock.perfect, f.perfect));
+  if (f.simple !== undefined) w.push(eq(stock.simple, f.simple));
+  if (f.provenance !== undefined) w.push(eq(stock.provenance, f.provenance));
+  if (f.used === 'used') w.push(gt(stock.useCount, 0));
+  if (f.used === 'unused') w.push(eq(stock.useCount, 0));
+  if (f.setterId !== undefined) w.push(eq(stock.setterId, f.setterId));
+  return w.length ? and(...w) : undefined;
+}
+
+const itemColumns = {
+  id: stock.id,
+  canonicalKey: stock.canonicalKey,
+  canonicalCode: stock.canonicalCode,
+  width: stock.width,
+  height: stock.height,
+  order: stock.order,
+  square: stock.square,
+  perfect: stock.perfect,
+  simple: stock.simple,
+  provenance: stock.provenance,
+  setterId: stock.setterId,
+  useCount: stock.useCount,
+  createdAt: stock.createdAt,
+  acceptedAt: stock.acceptedAt,
+};
+
+type ItemRow = { createdAt: Date; acceptedAt: Date | null } & Omit<StockItem, 'createdAt' | 'acceptedAt'>;
+function toItem(r: ItemRow): StockItem {
+  return { ...r, createdAt: r.createdAt.toISOString(), acceptedAt: r.acceptedAt ? r.acceptedAt.toISOString() : null };
+}
+
+const sortColumns = {
+  createdAt: stock.createdAt,
+  order: stock.order,
+  width: stock.width,
+  height: stock.height,
+  id: stock.id,
+} as const;
+
+export function listStock(db: DbOrTx, q: StockListQuery): StockList {
+  const where = whereOf(q);
+  const col = sortColumns[q.sort.key];
+  const dir = q.sort.desc ? desc : asc;
+  const rows = db
+    .select(itemColumns)
+    .from(stock)
+    .where(where)
+    .orderBy(dir(col), dir(stock.id))
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize)
+    .all();
+  const total = db.select({ n: count() }).from(stock).where(where).get()?.n ?? 0;
+  return { items: rows.map(toItem), total, page: q.page, pageSize: q.pageSize };
+}
+
+export function stockTiling(db: DbOrTx, id: number): { tiling: Tiling; canonicalKey: string } {
+  const r = db
+    .select({ width: stock.width, height: stock.height, squaresJson: stock.squaresJson, canonicalKey: stock.canonicalKey })
+    .from(stock)
+    .where(eq(stock.id, id))
+    .get();
+  if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
+  return { tiling: tilingFromJson(r.width, r.height, r.squaresJson), canonicalKey: r.canonicalKey };
+}
+
+export function getStockDetail(db: DbOrTx, id: number): StockDetail {
+  const r = db
+    .select({ ...itemColumns, squaresJson: stock.squaresJson, paramsJson: stock.paramsJson })
+    .from(stock)
+    .where(eq(stock.id, id))
+    .get();
+  if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
+  const { squaresJson, paramsJson, ...item } = r;
+  const tiling = tilingFromJson(r.width, r.height, squaresJson);
+  const a = analyseTiling(tiling);
+  const subs = db
+    .select({ id: submission.id, createdAt: submission.createdAt, reviewedAt: submission.reviewedAt, status: submission.status })
+    .from(submission)
+    .where(and(eq(submission.stockId, id), eq(submission.status, 'accepted')))
+    .orderBy(asc(submission.createdAt))
+    .all();
+  const events: StockDetail['history']['events'] = [];
+  if (subs.length === 0) events.push({ kind: 'added', at: r.createdAt.toISOString(), note: `added by ${r.provenance}` });
+  for (const s of subs) {
+    events.push({ kind: 'submitted', at: s.createdAt.toISOString(), submissionId: s.id });
+    if (s.reviewedAt) events.push({ kind: 'accepted', at: s.reviewedAt.toISOString(), submissionId: s.id });
+  }
+  return {
+    ...toItem(item),
+    bouwkamp: a.bouwkamp,
+    params: paramsJson ? (JSON.parse(paramsJson) as Record<string, unknown>) : null,
+    tiling,
+    smith: smithDrawingOf(tiling),
+    classification: a.classification,
+    history: { events, puzzles: usage.puzzlesFor(db, id), editions: usage.editionsFor(db, id) },
+  };
+}
+
+export function stockSummary(db: DbOrTx): StockSummary {
+  const byOrder = db
+    .select({ order: stock.order, count: count() })
+    .from(stock)
+    .groupBy(stock.order)
+    .orderBy(asc(stock.order))
+    .all();
+  const total = byOrder.reduce((s, r) => s + r.count, 0);
+  return { total, byOrder, byGrade: usage.gradeCounts(db) };
+}
+
+export interface ExportRow extends StockItem {
+  squaresJson: string;
+}
+
+/** The filtered selection for export, newest first, at most `limit` rows. */
+export function exportStock(db: DbOrTx, f: StockFilter, limit: number): StockItem[] {
+  return db
+    .select(itemColumns)
+    .from(stock)
+    .where(whereOf(f))
+    .orderBy(desc(stock.createdAt), desc(stock.id))
+    .limit(limit)
+    .all()
+    .map(toItem);
+}
+
+function csvCell(v: unknown): string {
+  const s = v === null || v === undefined ? '' : String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replaceAll('"', '""')}"` : s;
+}
+
+export function stockCsv(items: StockItem[]): string {
+  const cols = ['id', 'canonicalKey', 'canonicalCode', 'width', 'height', 'order', 'square', 'perfect', 'simple', 'provenance', 'useCount', 'createdAt', 'acceptedAt'] as const;
+  const lines = [cols.join(',')];
+  for (const it of items) lines.push(cols.map((c) => csvCell(it[c])).join(','));
+  return lines.join('\r\n') + '\r\n';
+}
+
+/** One canonical Bouwkamp code a line; `#` lines are comments (our upload reads this file back). */
+export function stockCodeFile(items: StockItem[], now: Date): string {
+  const head = [`# Squarewright stock export, ${items.length} tilings, ${now.toISOString()}`, '# one canonical Bouwkamp code per line'];
+  return [...head, ...items.map((i) => i.canonicalCode)].join('\n') + '\n';
+}
