@@ -35,6 +35,12 @@ export const envSchema = z.object({
     z.string().min(32, 'must be at least 32 characters').optional(),
   ),
   LOG_LEVEL: z.preprocess(emptyToUndefined, z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info')),
+  /** payments: the provider's secret key; unset = the local fake provider (server/fakes/payments-fake.ts) */
+  PAYMENTS_SECRET_KEY: z.preprocess(emptyToUndefined, z.string().regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]+$/, 'must be a provider secret key (sk_test_..., sk_live_... or rk_...)').optional()),
+  /** payments: the webhook signing secret (whsec_...); required with PAYMENTS_SECRET_KEY, set by the local fake otherwise */
+  PAYMENTS_WEBHOOK_SECRET: z.preprocess(emptyToUndefined, z.string().min(16, 'must be the webhook signing secret (whsec_...)').optional()),
+  /** payments: API base URL of a local fake provider (set by the fake itself; not for the real provider) */
+  PAYMENTS_API_URL: z.preprocess(emptyToUndefined, z.url({ error: 'must be an http URL like http://127.0.0.1:41234' }).optional()),
 });
 
 export type EnvInput = z.input<typeof envSchema>;
