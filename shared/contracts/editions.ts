@@ -48,3 +48,230 @@ export function richTextToPlain(node: RichTextNode): string {
   const block = ['paragraph', 'heading', 'listItem'].includes(node.type);
   return block ? `${inner.join('')}\n` : inner.join('');
 }
+
+// ---- Editions ----------------------------------------------------------------------------
+
+export const editionStates = ['draft', 'in_proof', 'approved', 'published'] as const;
+export const editionStateSchema = z.enum(editionStates);
+export type EditionState = z.infer<typeof editionStateSchema>;
+
+/** Words for the state badges (text, never colour alone). */
+export const editionStateLabels: Record<EditionState, string> = {
+  draft: 'Draft',
+  in_proof: 'In proof',
+  approved: 'Approved',
+  published: 'Published',
+};
+
+/** A calendar date, YYYY-MM-DD (and a real one). */
+export const editionDateSchema = z
+  .string({ error: 'date must be a string YYYY-MM-DD' })
+  .regex(/^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, 'date must be YYYY-MM-DD')
+  .refine((v) => new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), 'date does not exist in the calendar');
+
+export const MAX_SLOTS = 60;
+
+export const slotInputSchema = z
+  .object({
+    puzzleId: z.string({ error: 'puzzleId is required' }).min(1, 'puzzleId must not be empty').max(100),
+    instructions: richTextDocSchema.default({ type: 'doc', content: [] }),
+  })
+  .strict();
+export type SlotInput = z.infer<typeof slotInputSchema>;
+
+const slotsSchema = z
+  .array(slotInputSchema)
+  .max(MAX_SLOTS, `an edition holds at most ${MAX_SLOTS} slots`)
+  .superRefine((slots, ctx) => {
+    const seen = new Map<string, number>();
+    slots.forEach((s, i) => {
+      const first = seen.get(s.puzzleId);
+      if (first !== undefined) ctx.addIssue({ code: 'custom', path: [i, 'puzzleId'], message: `puzzle ${s.puzzleId} is already in slot ${first + 1}` });
+      else seen.set(s.puzzleId, i);
+    });
+  });
+
+const editionNumberSchema = z.number({ error: 'number must be a whole number' }).int('number must be a whole number').min(1, 'number must be at least 1').max(1_000_000);
+
+export const editionCreateSchema = z
+  .object({
+    publicationId: z.string({ error: 'publicationId is required' }).min(1).max(100),
+    number: editionNumberSchema,
+    date: editionDateSchema,
+    introduction: richTextDocSchema.optional(),
+  })
+  .strict();
+export type EditionCreate = z.infer<typeof editionCreateSchema>;
+
+/** Changes to a draft; `slots` replaces the whole list (add, remove and reorder in one). */
+export const editionPatchSchema = z
+  .object({
+    number: editionNumberSchema.optional(),
+    date: editionDateSchema.optional(),
+    introduction: richTextDocSchema.optional(),
+    slots: slotsSchema.optional(),
+  })
+  .strict()
+  .refine((p) => Object.keys(p).length > 0, 'send at least one field to change');
+export type EditionPatch = z.infer<typeof editionPatchSchema>;
+
+export const editionIdParamsSchema = z.object({ id: z.string().min(1).max(100) });
+export const proofParamsSchema = z.object({
+  id: z.string().min(1).max(100),
+  version: z.coerce.number({ error: 'version must be a whole number' }).int('version must be a whole number').min(1, 'version must be at least 1'),
+});
+export const proofFileParamsSchema = z.object({
+  id: z.string().min(1).max(100),
+  file: z.string().regex(/^[1-9]\d{0,5}\.pdf$/, 'the file is <version>.pdf, for example 1.pdf'),
+});
+
+export const returnProofSchema = z
+  .object({ notes: z.string({ error: 'notes are required' }).trim().min(1, 'say what needs changing').max(4000, 'notes may be at most 4000 characters') })
+  .strict();
+export type ReturnProof = z.infer<typeof returnProofSchema>;
+
+export const editionListQuerySchema = z.object({
+  month: z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'month must be YYYY-MM').optional(),
+  publicationId: z.string().min(1).max(100).optional(),
+  state: editionStateSchema.optional(),
+});
+export type EditionListQuery = z.infer<typeof editionListQuerySchema>;
+
+export const preflightSchema = z.object({
+  ok: z.boolean(),
+  templateId: z.string(),
+  pages: z.number().int(),
+  trimMm: z.object({ width: z.number(), height: z.number() }),
+  bleedMm: z.number(),
+  pageSizePt: z.object({ width: z.number(), height: z.number() }),
+  fontsRegistered: z.array(z.string()),
+  embeddedFontFiles: z.number().int(),
+  fontsEmbedded: z.boolean(),
+  smallestSquareMm: z.number().nullable(),
+  smallestDigitPt: z.number().nullable(),
+  omittedLabels: z.array(z.object({ slot: z.number().int(), where: z.enum(['puzzle', 'solution']), size: z.number().int() })),
+  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
+});
+export type PreflightReport = z.infer<typeof preflightSchema>;
+
+export const proofStatusSchema = z.enum(['pending', 'approved', 'returned', 'superseded']);
+export type ProofStatus = z.infer<typeof proofStatusSchema>;
+
+export const proofSchema = z.object({
+  version: z.number().int(),
+  sha256: z.string().regex(/^[0-9a-f]{64}$/),
+  bytes: z.number().int(),
+  pages: z.number().int(),
+  status: proofStatusSchema,
+  notes: z.string().nullable(),
+  createdAt: z.string(),
+  createdByName: z.string().nullable(),
+  decidedAt: z.string().nullable(),
+  decidedByName: z.string().nullable(),
+  preflight: preflightSchema,
+});
+export type Proof = z.infer<typeof proofSchema>;
+
+export const pressFileSchema = z.object({
+  version: z.number().int(),
+  sha256: z.string().regex(/^[0-9a-f]{64}$/),
+  bytes: z.number().int(),
+  pages: z.number().int(),
+  createdAt: z.string(),
+});
+export type PressFile = z.infer<typeof pressFileSchema>;
+
+export const slotPuzzleSchema = z.object({
+  kind: z.enum(['assembly', 'deduction']),
+  title: z.string(),
+  grade: z.number().int(),
+  size: z.string(),
+  certificateCurrent: z.boolean(),
+});
+
+export const slotSchema = z.object({
+  position: z.number().int().min(1),
+  puzzleId: z.string(),
+  instructions: richTextDocSchema,
+  /** null when the puzzle cannot be found (deleted, or the puzzle store is not wired) */
+  puzzle: slotPuzzleSchema.nullable(),
+});
+export type Slot = z.infer<typeof slotSchema>;
+
+/** An edition as the desk (editor, admin) sees it. */
+export const editionSchema = z.object({
+  id: z.string(),
+  publicationId: z.string(),
+  publicationTitle: z.string(),
+  templateId: z.string(),
+  number: z.number().int(),
+  date: z.string(),
+  state: editionStateSchema,
+  introduction: richTextDocSchema,
+  slots: z.array(slotSchema),
+  returnNotes: z.string().nullable(),
+  proofs: z.array(proofSchema),
+  pressFile: pressFileSchema.nullable(),
+  publishedAt: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Edition = z.infer<typeof editionSchema>;
+
+/** An edition as a printer sees it: the files and their history, nothing of the stock, setters or fees. */
+export const printerEditionSchema = z.object({
+  id: z.string(),
+  publicationTitle: z.string(),
+  templateId: z.string(),
+  number: z.number().int(),
+  date: z.string(),
+  state: editionStateSchema,
+  proofs: z.array(proofSchema),
+  pressFile: pressFileSchema.nullable(),
+});
+export type PrinterEdition = z.infer<typeof printerEditionSchema>;
+
+export const editionSummarySchema = z.object({
+  id: z.string(),
+  publicationId: z.string(),
+  publicationTitle: z.string(),
+  number: z.number().int(),
+  date: z.string(),
+  state: editionStateSchema,
+  slotCount: z.number().int(),
+  latestProofVersion: z.number().int().nullable(),
+  latestProofAt: z.string().nullable(),
+  latestProofPages: z.number().int().nullable(),
+  latestProofStatus: proofStatusSchema.nullable(),
+  latestPreflightOk: z.boolean().nullable(),
+  latestWarnings: z.number().int().nullable(),
+  returnNotes: z.string().nullable(),
+  hasPressFile: z.boolean(),
+});
+export type EditionSummary = z.infer<typeof editionSummarySchema>;
+
+export const editionListSchema = z.object({ items: z.array(editionSummarySchema) });
+export type EditionList = z.infer<typeof editionListSchema>;
+
+export const editionCheckSchema = z.object({
+  code: z.enum(['has-slots', 'certificate', 'reuse', 'solution-once', 'fits-template', 'legibility', 'puzzle-found']),
+  ok: z.boolean(),
+  message: z.string(),
+  slot: z.number().int().optional(),
+});
+export type EditionCheck = z.infer<typeof editionCheckSchema>;
+
+export const editionChecksSchema = z.object({ ok: z.boolean(), checks: z.array(editionCheckSchema), preflight: preflightSchema.nullable() });
+export type EditionChecks = z.infer<typeof editionChecksSchema>;
+
+/** Which moves the server allows (also used by the client to show only possible actions). */
+export const editionTransitions: Record<EditionState, EditionState[]> = {
+  draft: ['in_proof'],
+  in_proof: ['approved', 'draft'],
+  approved: ['published'],
+  published: [],
+};
+
+export function canMove(from: EditionState, to: EditionState): boolean {
+  return editionTransitions[from].includes(to);
+}

@@ -6,3 +6,5 @@ export * from './stock';
 export * from './submissions';
 export * from './jobs';
 export * from './foundry';
+export * from './publications';
+export * from './editions';
