@@ -18,12 +18,7 @@ export function registerEarningsRoutes(router: ApiRouter, deps: AppDeps) {
     return earningsOf(deps.db, user.id);
   });
 
-  route(
-    router,
-    { method: 'GET', path: '/api/earnings/statements/:month', summary: 'My statement for one month', tags: ['earnings'], params: monthParams, response: statementSchema },
-    ({ params, user }) => moneyErrors(() => buildStatement(deps.db, user.id, params.month)),
-  );
-
+  // The .csv route first: '/:month' would otherwise take '2026-11.csv' as a month.
   route(
     router,
     { method: 'GET', path: '/api/earnings/statements/:month.csv', summary: 'My statement for one month as CSV', tags: ['earnings'], params: monthParams, produces: 'text/csv' },
@@ -33,6 +28,12 @@ export function registerEarningsRoutes(router: ApiRouter, deps: AppDeps) {
       res.setHeader('Content-Disposition', `attachment; filename="squarewright-statement-${params.month}.csv"`);
       res.status(200).send(csv);
     },
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/earnings/statements/:month', summary: 'My statement for one month', tags: ['earnings'], params: monthParams, response: statementSchema },
+    ({ params, user }) => moneyErrors(() => buildStatement(deps.db, user.id, params.month)),
   );
 
   route(
