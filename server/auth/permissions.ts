@@ -47,6 +47,12 @@ export const permissions: Record<string, Access> = {
   'POST /api/submissions/bulk': ['editor'],
   'POST /api/submissions/upload': ['setter'],
   'POST /api/tilings/check': ['setter', 'editor'],
+  // foundry (editors and admins only)
+  'GET /api/foundry/runs': ['editor'],
+  'POST /api/foundry/runs': ['editor'],
+  'GET /api/foundry/runs/:id': ['editor'],
+  'POST /api/foundry/runs/:id/cancel': ['editor'],
+  'GET /api/foundry/runs/:id/results': ['editor'],
 };
 
 export function isAllowed(access: Access, role: Role | null): boolean {

@@ -2,6 +2,7 @@ import type { AppDeps } from '../deps';
 import type { ApiRouter } from '../http/route';
 import { registerAccountRoutes } from './accounts';
 import { registerFoundationRoutes } from './foundation';
+import { registerFoundryRoutes } from './foundry';
 import { registerMoneyRoutes } from './payouts';
 import { registerStockRoutes } from './stock';
 import { registerSubmissionRoutes } from './submissions';
@@ -15,4 +16,5 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerTilingRoutes,
   registerSubmissionRoutes,
   registerStockRoutes,
+  registerFoundryRoutes,
 ];
