@@ -53,10 +53,12 @@ export async function startFakeSmtp(options: { db: Db; port?: number; host?: str
   });
   server.on('error', () => undefined);
   const port = (server.server.address() as AddressInfo).port;
+  let closed: Promise<void> | undefined;
   return {
     host,
     port,
     url: `smtp://${host}:${port}`,
-    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+    // idempotent: tests close it to simulate a mail server that is down
+    close: () => (closed ??= new Promise<void>((resolve) => server.close(() => resolve()))),
   };
 }
