@@ -50,6 +50,8 @@ export type RouteSpec<
 };
 
 type Infer<T> = T extends z.ZodType ? z.output<T> : undefined;
+/** what a handler returns: the response schema's input, or anything JSON when there is none */
+type Answer<T> = T extends z.ZodType ? z.input<T> : unknown;
 
 export type RouteContext<P, Q, B> = {
   req: Request;
@@ -105,7 +107,7 @@ export function route<
 >(
   router: ApiRouter,
   spec: RouteSpec<P, Q, B, R>,
-  handler: RouteHandler<Infer<P>, Infer<Q>, Infer<B>, Infer<R>>,
+  handler: RouteHandler<Infer<P>, Infer<Q>, Infer<B>, Answer<R>>,
 ): void {
   const key = `${spec.method} ${spec.path}`;
   const access: Access | undefined = permissions[key];
