@@ -287,7 +287,8 @@ export class JobRunner {
         const s = stopped === 'budget' && summary !== null && typeof summary === 'object' ? { ...summary, budgetExceeded: true } : summary;
         tx.update(job)
           .set({ state, summary: s === null || s === undefined ? null : JSON.stringify(s), error, finishedAt: new Date() })
-          .where(eq(job.id, a.id))
+          // never overwrite a job another process already marked interrupted
+          .where(and(eq(job.id, a.id), eq(job.state, 'running')))
           .run();
       });
     }
