@@ -11,8 +11,9 @@ export default defineConfig(({ isSsrBuild }) => ({
         target: 'node20',
         emptyOutDir: true,
         rollupOptions: {
-          // Extra server entries (worker threads) are listed here by the job runner.
-          input: { index: 'server/index.ts' },
+          // Extra server entries (worker threads) are listed here by the job runner. The build runs
+          // `vite build --ssr` without an entry argument, which would override this list.
+          input: { index: 'server/index.ts', 'job-worker': 'server/jobs/worker-entry.ts' },
           output: { entryFileNames: '[name].js', format: 'es' },
         },
       }
