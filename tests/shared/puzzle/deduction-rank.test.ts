@@ -8,7 +8,7 @@ import { mulberry32 } from '../../../shared/puzzle/prng';
 import { catalogue } from './catalogue';
 
 // mathjs with exact fractions is the outside oracle for the linear algebra
-const math = create(all, { number: 'Fraction' });
+const math = create(all ?? {}, { number: 'Fraction' });
 const det = (rows: number[][]) => Number(math.det(math.matrix(rows.map((r) => r.map((v) => math.fraction(v))))).valueOf());
 
 function fullRankByMathjs(rows: number[][]): boolean {
