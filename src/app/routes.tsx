@@ -25,7 +25,8 @@ export const appRoutes: readonly AppRoute[] = [
   { path: 'stock', title: 'Stock', roles: editors, summary: 'Every verified tiling, with filters, provenance and reuse history.' },
   { path: 'puzzles', title: 'Puzzles', roles: editors, summary: 'Assembly and Deduction puzzles with their certificates.' },
   { path: 'editions', title: 'Editions', roles: editors, summary: 'Dated editions: slots, introduction, checks and proofs.' },
-  { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.' },
+  { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.', page: lazyPage(() => import('../features/foundry/components/foundry-page'), 'FoundryPage') },
+  { path: 'foundry/runs/:id', title: 'Foundry run', roles: editors, page: lazyPage(() => import('../features/foundry/components/run-results-page'), 'RunResultsPage') },
   { path: 'payouts', title: 'Payouts', roles: editors, summary: 'What each setter is owed, and payout runs.' },
   // printer
   { path: 'proofs', title: 'Proofs', roles: printers, summary: 'Editions sent to proof: download, approve or return with notes.' },

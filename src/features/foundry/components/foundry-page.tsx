@@ -1,0 +1,104 @@
+import { Link } from 'react-router-dom';
+import type { Run, RunState } from '../../../../shared/contracts/foundry';
+import { Alert } from '../../../components/alert';
+import { Button } from '../../../components/button';
+import { EmptyState } from '../../../components/empty-state';
+import { Loading, Page } from '../../../components/page';
+import { StatusBadge } from '../../../components/status-badge';
+import { errorMessage } from '../../../lib/api-client';
+import { formatDateTime } from '../../../lib/format';
+import { useCancelRun } from '../api/cancel-run';
+import { isActive, useRuns } from '../api/list-runs';
+import { RunForm } from './run-form';
+import { RunProgress } from './run-progress';
+
+const stateTone: Record<RunState, 'info' | 'success' | 'warning' | 'danger' | 'neutral'> = {
+  queued: 'neutral',
+  running: 'info',
+  done: 'success',
+  cancelled: 'neutral',
+  failed: 'danger',
+  interrupted: 'warning',
+};
+const stateLabel: Record<RunState, string> = {
+  queued: 'Queued',
+  running: 'Running',
+  done: 'Done',
+  cancelled: 'Cancelled',
+  failed: 'Failed',
+  interrupted: 'Interrupted',
+};
+
+/** /foundry: start runs and watch them. */
+export function FoundryPage() {
+  const runs = useRuns();
+  const cancel = useCancelRun();
+  return (
+    <Page
+      title="Foundry"
+      description="Mint new tilings from 3-connected planar networks: every tiling of an order, random ones with filters, or squared squares joined from stock pairs. Results go into the stock with provenance foundry."
+    >
+      <RunForm />
+      <section aria-labelledby="runs-heading" className="flex flex-col gap-3">
+        <h2 id="runs-heading" className="text-lg font-semibold text-ink">Runs</h2>
+        {cancel.error ? <Alert tone="danger" title="Could not cancel">{errorMessage(cancel.error)}</Alert> : null}
+        {runs.isPending ? (
+          <Loading />
+        ) : runs.error ? (
+          <Alert tone="danger" title="Could not load the runs">{errorMessage(runs.error)}</Alert>
+        ) : runs.data.length === 0 ? (
+          <EmptyState title="No runs yet" />
+        ) : (
+          <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
+            <table className="w-full border-collapse text-sm">
+              <caption className="sr-only">Foundry runs</caption>
+              <thead className="bg-paper-deep text-left">
+                <tr>
+                  {['Run', 'State', 'Found', 'New in stock', 'Started', ''].map((h, i) => (
+                    <th key={i} scope="col" className="border-b border-rule px-3 py-2 font-semibold">
+                      {h || <span className="sr-only">Actions</span>}
+                    </th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                {runs.data.map((run) => (
+                  <RunRow key={run.id} run={run} cancelling={cancel.isPending && cancel.variables === run.id} onCancel={() => cancel.mutate(run.id)} />
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+    </Page>
+  );
+}
+
+function RunRow({ run, cancelling, onCancel }: { run: Run; cancelling: boolean; onCancel: () => void }) {
+  return (
+    <tr className="border-b border-rule align-top last:border-b-0" aria-label={`Run ${run.id}`}>
+      <td className="min-w-72 px-3 py-2">
+        <RunProgress run={run} />
+        {run.error ? <p className="mt-1 text-xs text-danger">{run.error}</p> : null}
+      </td>
+      <td className="px-3 py-2">
+        <StatusBadge tone={stateTone[run.state]}>{stateLabel[run.state]}</StatusBadge>
+      </td>
+      <td className="px-3 py-2 tabular-nums">{run.found.toLocaleString('en-GB')}</td>
+      <td className="px-3 py-2 tabular-nums">{run.addedToStock.toLocaleString('en-GB')}</td>
+      <td className="px-3 py-2 tabular-nums text-ink-muted">{formatDateTime(run.startedAt ?? run.createdAt)}</td>
+      <td className="px-3 py-2 text-right">
+        <div className="flex justify-end gap-2">
+          <Link className="text-accent-strong underline" to={`/foundry/runs/${run.id}`}>
+            Results
+          </Link>
+          {isActive(run) ? (
+            <Button size="sm" variant="danger" busy={cancelling} onClick={onCancel}>
+              Cancel
+            </Button>
+          ) : null}
+        </div>
+      </td>
+    </tr>
+  );
+}

@@ -1,0 +1,63 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { Alert } from '../../../components/alert';
+import { Button } from '../../../components/button';
+import { EmptyState } from '../../../components/empty-state';
+import { Card, Loading, Page } from '../../../components/page';
+import { errorMessage } from '../../../lib/api-client';
+import { isActive } from '../api/list-runs';
+import { useRun, useRunResults } from '../api/run-results';
+import { describeRun, RunProgress } from './run-progress';
+
+/** /foundry/runs/:id: one run's progress and the tilings it found. */
+export function RunResultsPage() {
+  const { id = '' } = useParams();
+  const [page, setPage] = useState(1);
+  const run = useRun(id);
+  const results = useRunResults(id, page, run.data ? isActive(run.data) : false);
+  return (
+    <Page title="Foundry run" description={run.data ? describeRun(run.data) : undefined} actions={<Link className="text-accent-strong underline" to="/foundry">All runs</Link>}>
+      {run.isPending ? <Loading /> : run.error ? <Alert tone="danger" title="Could not load the run">{errorMessage(run.error)}</Alert> : (
+        <Card>
+          <RunProgress run={run.data} />
+          {run.data.error ? <p className="text-sm text-danger">{run.data.error}</p> : null}
+        </Card>
+      )}
+      {results.isPending ? <Loading /> : results.error ? <Alert tone="danger" title="Could not load the results">{errorMessage(results.error)}</Alert> : results.data.total === 0 ? (
+        <EmptyState title="Nothing found yet" />
+      ) : (
+        <div className="flex flex-col gap-3">
+          <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
+            <table className="w-full border-collapse text-sm">
+              <caption className="sr-only">Tilings found by this run</caption>
+              <thead className="bg-paper-deep text-left">
+                <tr>
+                  {['Order', 'Size', 'Class', 'Largest square', 'Bouwkamp code', 'Stock'].map((h) => (
+                    <th key={h} scope="col" className="border-b border-rule px-3 py-2 font-semibold">{h}</th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                {results.data.items.map((r) => (
+                  <tr key={r.canonicalKey} className="border-b border-rule last:border-b-0">
+                    <td className="px-3 py-2 tabular-nums">{r.order}</td>
+                    <td className="px-3 py-2 tabular-nums">{r.width} × {r.height}</td>
+                    <td className="px-3 py-2">{[r.simple ? 'simple' : 'compound', r.perfect ? 'perfect' : 'imperfect', r.square ? 'square' : ''].filter(Boolean).join(', ')}</td>
+                    <td className="px-3 py-2 tabular-nums">{r.maxSize}</td>
+                    <td className="max-w-md px-3 py-2"><code className="break-all text-xs text-ink-soft">{r.code}</code></td>
+                    <td className="px-3 py-2">{r.stockId !== null ? <Link className="text-accent-strong underline" to={`/stock/${r.stockId}`}>#{r.stockId}</Link> : '—'}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <div className="flex items-center gap-3 text-sm">
+            <Button size="sm" disabled={page <= 1} onClick={() => setPage(page - 1)}>Previous</Button>
+            <span className="tabular-nums text-ink-muted">Page {page} of {Math.max(1, Math.ceil(results.data.total / 100))} · {results.data.total} tilings</span>
+            <Button size="sm" disabled={page * 100 >= results.data.total} onClick={() => setPage(page + 1)}>Next</Button>
+          </div>
+        </div>
+      )}
+    </Page>
+  );
+}
