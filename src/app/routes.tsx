@@ -19,7 +19,7 @@ export const appRoutes: readonly AppRoute[] = [
   // setter
   { path: 'submit', title: 'Submit', roles: setters, summary: 'Send in a tiling: paste a code, upload a file or sketch a network.' },
   { path: 'submissions', title: 'My submissions', roles: setters, summary: 'Your submissions with their state and the editor’s notes.' },
-  { path: 'earnings', title: 'Earnings', roles: setters, summary: 'Fees for your printed puzzles, monthly statements and payouts.' },
+  { path: 'earnings', title: 'Earnings', roles: setters, page: lazyPage(() => import('../features/earnings/components/earnings-page'), 'EarningsPage') },
   // editor (and admin)
   { path: 'review', title: 'Review queue', roles: editors, summary: 'Submissions waiting for review: accept into the stock or reject with a note.' },
   { path: 'stock', title: 'Stock', roles: editors, summary: 'Every verified tiling, with filters, provenance and reuse history.' },
@@ -27,7 +27,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: 'editions', title: 'Editions', roles: editors, summary: 'Dated editions: slots, introduction, checks and proofs.' },
   { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.', page: lazyPage(() => import('../features/foundry/components/foundry-page'), 'FoundryPage') },
   { path: 'foundry/runs/:id', title: 'Foundry run', roles: editors, page: lazyPage(() => import('../features/foundry/components/run-results-page'), 'RunResultsPage') },
-  { path: 'payouts', title: 'Payouts', roles: editors, summary: 'What each setter is owed, and payout runs.' },
+  { path: 'payouts', title: 'Payouts', roles: editors, page: lazyPage(() => import('../features/payouts/components/payouts-page'), 'PayoutsPage') },
   // printer
   { path: 'proofs', title: 'Proofs', roles: printers, summary: 'Editions sent to proof: download, approve or return with notes.' },
   { path: 'press-files', title: 'Press files', roles: printers, summary: 'Approved editions, ready for the press.' },

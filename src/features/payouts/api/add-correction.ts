@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { ledgerCorrectionResponseSchema, type LedgerCorrectionInput, type LedgerEntry } from '../../../../shared/contracts/ledger';
+import { apiRequest } from '../../../lib/api-client';
+import { payoutsKeys } from './get-payouts';
+
+/** POST /api/ledger/corrections (editor): a new entry with a reason; entries are never edited. */
+export async function addCorrection(input: LedgerCorrectionInput): Promise<LedgerEntry> {
+  const res = await apiRequest('/api/ledger/corrections', { method: 'POST', body: input, schema: ledgerCorrectionResponseSchema });
+  return res.entry;
+}
+
+export function useAddCorrection() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: addCorrection,
+    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
+  });
+}

@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { createPayoutRunResponseSchema, type CreatePayoutRunInput, type CreatePayoutRunResponse } from '../../../../shared/contracts/payouts';
+import { apiRequest } from '../../../lib/api-client';
+import { payoutsKeys } from './get-payouts';
+
+/** POST /api/payouts/runs (editor). The same requestKey never pays twice. */
+export function createPayoutRun(input: CreatePayoutRunInput): Promise<CreatePayoutRunResponse> {
+  return apiRequest('/api/payouts/runs', { method: 'POST', body: input, schema: createPayoutRunResponseSchema });
+}
+
+export function useCreatePayoutRun() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createPayoutRun,
+    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
+  });
+}

@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { payoutResponseSchema, type Payout } from '../../../../shared/contracts/payouts';
+import { apiRequest } from '../../../lib/api-client';
+import { payoutsKeys } from './get-payouts';
+
+/** POST /api/payouts/:id/retry (editor): a failed payout, as a new attempt. */
+export async function retryPayout(id: string): Promise<Payout> {
+  const res = await apiRequest(`/api/payouts/${encodeURIComponent(id)}/retry`, { method: 'POST', schema: payoutResponseSchema });
+  return res.payout;
+}
+
+export function useRetryPayout() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: retryPayout,
+    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
+  });
+}
