@@ -65,7 +65,8 @@ export function createAuth(options: AuthOptions) {
     baseURL: env.PUBLIC_URL,
     basePath: '/api/auth',
     secret: options.secret,
-    trustedOrigins: [env.PUBLIC_URL],
+    // the public URL, and the same port on the loopback names (localhost vs 127.0.0.1)
+    trustedOrigins: [...new Set([env.PUBLIC_URL, `http://localhost:${env.PORT}`, `http://127.0.0.1:${env.PORT}`])],
     telemetry: { enabled: false },
     database: drizzleAdapter(db, { provider: 'sqlite', schema: { user, session, account, verification } }),
     emailAndPassword: {
@@ -107,6 +108,9 @@ export function createAuth(options: AuthOptions) {
       customStorage: memoryRateStore(),
     },
     advanced: {
+      // explicit, so tests (NODE_ENV=test turns the check off by default) see production behaviour
+      disableOriginCheck: false,
+      disableCSRFCheck: false,
       ipAddress: { ipAddressHeaders: [clientIpHeader] },
       useSecureCookies: env.PUBLIC_URL.startsWith('https://'),
       defaultCookieAttributes: { httpOnly: true, sameSite: 'lax' },

@@ -85,6 +85,16 @@ describe('invitations', () => {
   });
 });
 
+describe('cross-site requests', () => {
+  it('a session request with a cookie from a foreign origin is refused; our own origin is accepted', async () => {
+    const agent = await t.signInAs('editor');
+    await agent.post('/api/auth/sign-out').set('Origin', 'http://evil.example.test').send({}).expect(403);
+    await agent.get('/api/me').expect(200);
+    await agent.post('/api/auth/sign-out').set('Origin', 'http://127.0.0.1:3000').send({}).expect(200);
+    await agent.get('/api/me').expect(401);
+  });
+});
+
 describe('password reset', () => {
   it('the reset mail arrives and its link sets a new password', async () => {
     await t.createUser('setter', { email: 'forgetful@example.test' });
