@@ -5,6 +5,7 @@ import type { Env } from './env';
 import type { Logger } from './log';
 import type { MailSender } from './mail/outbox';
 import type { PaymentsProvider } from './payments/provider';
+import type { PuzzleSource } from './services/editions';
 
 /**
  * What the app is built from (createApp(deps)). Areas that need more (a payments
@@ -21,4 +22,6 @@ export type AppDeps = {
   log: Logger;
   /** payments provider (real, or the local fake); null when not configured */
   payments?: PaymentsProvider | null;
+  /** print's view of the puzzle store (the puzzle area wires it); without it no puzzle can be slotted */
+  puzzlesForPrint?: PuzzleSource;
 };

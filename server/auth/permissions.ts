@@ -53,6 +53,24 @@ export const permissions: Record<string, Access> = {
   'GET /api/foundry/runs/:id': ['editor'],
   'POST /api/foundry/runs/:id/cancel': ['editor'],
   'GET /api/foundry/runs/:id/results': ['editor'],
+  // print: publications, page templates, editions and the proof round
+  'GET /api/editions': ['editor', 'printer'],
+  'POST /api/editions': ['editor'],
+  'GET /api/editions/:id': ['editor', 'printer'],
+  'PATCH /api/editions/:id': ['editor'],
+  'GET /api/editions/:id/checks': ['editor'],
+  'GET /api/editions/:id/press.pdf': ['editor', 'printer'],
+  'GET /api/editions/:id/preview.pdf': ['editor'],
+  'POST /api/editions/:id/proofs': ['editor'],
+  'GET /api/editions/:id/proofs/:version.pdf': ['editor', 'printer'],
+  'POST /api/editions/:id/proofs/:version/approve': ['printer'],
+  'POST /api/editions/:id/proofs/:version/return': ['printer'],
+  'POST /api/editions/:id/publish': ['editor'],
+  'GET /api/publications': ['editor'],
+  'POST /api/publications': ['admin'],
+  'PATCH /api/publications/:id': ['admin'],
+  'GET /api/templates': ['editor'],
+  'GET /api/templates/:id/sample.pdf': ['editor'],
 };
 
 export function isAllowed(access: Access, role: Role | null): boolean {

@@ -7,6 +7,9 @@ import { registerMoneyRoutes } from './payouts';
 import { registerStockRoutes } from './stock';
 import { registerSubmissionRoutes } from './submissions';
 import { registerTilingRoutes } from './tilings';
+import { registerEditionRoutes } from './editions';
+import { registerPublicationRoutes } from './publications';
+import { registerTemplateRoutes } from './templates';
 
 // Every area's router, one line each (add yours). Each registers with route().
 export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
@@ -17,4 +20,7 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerSubmissionRoutes,
   registerStockRoutes,
   registerFoundryRoutes,
+  registerTemplateRoutes,
+  registerPublicationRoutes,
+  registerEditionRoutes,
 ];

@@ -1,0 +1,252 @@
+import { createHash } from 'node:crypto';
+import { existsSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { plainRichText } from '../../../shared/contracts/editions';
+import type { PuzzleForPrint, PuzzleSource } from '../../../server/services/editions';
+import { createTestApp, type TestApp } from '../helpers/test-app';
+import { notToScale, TILING_33x32, TILING_69x61 } from './fixtures/sample-edition';
+import { hasPoppler, pdftotext, writeTemp } from './poppler';
+
+// The print API end to end on a fresh database: publications, editions, the state
+// machine, the proof round with stored, hashed files and mails, and who may see what.
+
+let t: TestApp;
+let admin: TestAgent;
+let editor: TestAgent;
+let printer: TestAgent;
+let setter: TestAgent;
+let setterId: string;
+const puzzles = new Map<string, PuzzleForPrint>();
+
+function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+}
+
+function stubPuzzle(id: string, tiling: typeof TILING_33x32, kind: 'assembly' | 'deduction', current = true): PuzzleForPrint {
+  const largest = [...tiling.squares].sort((a, b) => b.s - a.s)[0]!;
+  return {
+    id,
+    kind,
+    title: `${kind} ${id}`,
+    grade: 2,
+    tilingKey: `${tiling.W}x${tiling.H}:${tiling.squares.map((q) => q.s).join(',')}`,
+    setterId,
+    certificate: { current, summary: 'stub certificate' },
+    assembly: kind === 'assembly' ? { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [{ size: largest.s, x: largest.x, y: largest.y }] } : undefined,
+    deduction: kind === 'deduction' ? { layout: notToScale(tiling), givens: [0, 1, 4].map((i) => ({ rect: i, size: tiling.squares[i]!.s })) } : undefined,
+    solution: { tiling, steps: kind === 'deduction' ? ['18 + 15 = 33.'] : undefined },
+  };
+}
+
+const source: PuzzleSource = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null };
+
+beforeAll(async () => {
+  t = await createTestApp();
+  t.deps.puzzlesForPrint = source;
+  admin = await t.signInAs('admin');
+  editor = await t.signInAs('editor');
+  printer = await t.signInAs('printer');
+  setter = await t.signInAs('setter');
+  setterId = await t.createUser('setter');
+  puzzles.set('pz-a', stubPuzzle('pz-a', TILING_69x61, 'assembly'));
+  puzzles.set('pz-d', stubPuzzle('pz-d', TILING_33x32, 'deduction'));
+  puzzles.set('pz-same-tiling', stubPuzzle('pz-same-tiling', TILING_33x32, 'assembly'));
+  puzzles.set('pz-stale', stubPuzzle('pz-stale', TILING_69x61, 'deduction', false));
+});
+afterAll(() => t.close());
+
+const pubBody = {
+  title: 'The Saturday Quadrant',
+  publisher: 'Larkspur & Quill Press',
+  templateId: 'newspaper-column',
+  cadence: 'weekly',
+  solutionRule: 'same_edition',
+  reuseWindowDays: 90,
+  currency: 'GBP',
+  feeAssemblyMinor: 4500,
+  feeDeductionMinor: 6000,
+};
+
+describe('publications', () => {
+  it('lets an admin create and change one, and refuses an unknown template by field', async () => {
+    const created = await admin.post('/api/publications').send(pubBody).expect(201);
+    expect(created.body).toMatchObject({ title: 'The Saturday Quadrant', templateId: 'newspaper-column' });
+    const bad = await admin.post('/api/publications').send({ ...pubBody, title: 'Other', templateId: 'tabloid' }).expect(422);
+    expect(bad.body.error.details).toEqual([{ path: 'body.templateId', message: expect.stringMatching(/a4, newspaper-column, us-letter/) }]);
+    const neg = await admin.post('/api/publications').send({ ...pubBody, title: 'Other', feeAssemblyMinor: -1 }).expect(400);
+    expect(JSON.stringify(neg.body.error.details)).toMatch(/body\.feeAssemblyMinor/);
+    await admin.post('/api/publications').send(pubBody).expect(409);
+    const patched = await admin.patch(`/api/publications/${created.body.id}`).send({ reuseWindowDays: 120 }).expect(200);
+    expect(patched.body.reuseWindowDays).toBe(120);
+  });
+
+  it('is for admins to change, editors to read, and nobody else', async () => {
+    await editor.post('/api/publications').send({ ...pubBody, title: 'X' }).expect(403);
+    await editor.get('/api/publications').expect(200);
+    await printer.get('/api/publications').expect(403);
+    await setter.get('/api/publications').expect(403);
+    await request(t.app).get('/api/publications').expect(401);
+  });
+});
+
+describe('the edition round', () => {
+  let pubId: string;
+  let edId: string;
+
+  beforeAll(async () => {
+    pubId = (await editor.get('/api/publications')).body.items[0].id;
+  });
+
+  it('creates a draft and refuses a duplicate number', async () => {
+    const res = await editor.post('/api/editions').send({ publicationId: pubId, number: 41, date: '2026-12-05', introduction: plainRichText('Welcome.') }).expect(201);
+    expect(res.body).toMatchObject({ state: 'draft', number: 41, slots: [], proofs: [] });
+    edId = res.body.id;
+    await editor.post('/api/editions').send({ publicationId: pubId, number: 41, date: '2026-12-12' }).expect(409);
+    await editor.post('/api/editions').send({ publicationId: pubId, number: 42, date: '2026-02-30' }).expect(400);
+  });
+
+  it('refuses a proof of an empty edition, and slots naming unknown puzzles', async () => {
+    const res = await editor.post(`/api/editions/${edId}/proofs`).expect(422);
+    expect(JSON.stringify(res.body.error.details)).toMatch(/no puzzles yet/);
+    const bad = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'nope' }] }).expect(422);
+    expect(bad.body.error.details).toEqual([{ path: 'body.slots.0.puzzleId', message: 'no puzzle nope' }]);
+    const dup = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-a' }] }).expect(400);
+    expect(JSON.stringify(dup.body.error.details)).toMatch(/body\.slots\.1\.puzzleId/);
+  });
+
+  it('runs the checks: a stale certificate and a repeated tiling fail', async () => {
+    await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-d' }, { puzzleId: 'pz-same-tiling' }, { puzzleId: 'pz-stale' }] }).expect(200);
+    const checks = (await editor.get(`/api/editions/${edId}/checks`).expect(200)).body;
+    expect(checks.ok).toBe(false);
+    const failed = checks.checks.filter((c: { ok: boolean }) => !c.ok).map((c: { code: string; slot?: number }) => `${c.code}:${c.slot ?? ''}`);
+    expect(failed).toContain('certificate:3');
+    expect(failed).toContain('reuse:2');
+    await editor.post(`/api/editions/${edId}/proofs`).expect(422);
+  });
+
+  it('reorders slots, then sends proof 1: stored, hashed, printers mailed', async () => {
+    const res = await editor
+      .patch(`/api/editions/${edId}`)
+      .send({ slots: [{ puzzleId: 'pz-d', instructions: plainRichText('Find every size.') }, { puzzleId: 'pz-a' }] })
+      .expect(200);
+    expect(res.body.slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual(['pz-d', 'pz-a']);
+    const reordered = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-d', instructions: plainRichText('Find every size.') }] }).expect(200);
+    expect(reordered.body.slots.map((s: { position: number; puzzleId: string }) => `${s.position}:${s.puzzleId}`)).toEqual(['1:pz-a', '2:pz-d']);
+    const checks = (await editor.get(`/api/editions/${edId}/checks`).expect(200)).body;
+    expect(checks.ok, JSON.stringify(checks.checks)).toBe(true);
+
+    const sent = await editor.post(`/api/editions/${edId}/proofs`).expect(201);
+    expect(sent.body.state).toBe('in_proof');
+    expect(sent.body.proofs).toHaveLength(1);
+    const proof = sent.body.proofs[0];
+    expect(proof).toMatchObject({ version: 1, status: 'pending' });
+    const dir = join(t.deps.env.DATA_DIR, 'proofs', edId);
+    expect(readdirSync(dir).filter((f) => f.endsWith('.tmp'))).toEqual([]);
+    expect(existsSync(join(dir, 'proof-v1.pdf'))).toBe(true);
+
+    const file = await printer.get(`/api/editions/${edId}/proofs/1.pdf`).buffer(true).parse(binary).expect(200);
+    expect(file.headers['content-type']).toMatch(/application\/pdf/);
+    // the stored hash is the SHA-256 (FIPS 180-4, via Node's crypto) of the served bytes
+    expect(createHash('sha256').update(file.body as Buffer).digest('hex')).toBe(proof.sha256);
+    if (hasPoppler) expect(pdftotext(writeTemp(file.body as Buffer))).toMatch(/PROOF v1/);
+
+    const mail = await t.mailbox.waitFor({ to: 'printer@test.squarewright.test', subject: 'Proof 1 ready' });
+    expect(mail.text).toContain(proof.sha256);
+    expect(mail.text).toContain('check every page of a proof before it goes to press');
+  });
+
+  it('refuses illegal moves with 409', async () => {
+    await editor.patch(`/api/editions/${edId}`).send({ number: 43 }).expect(409);
+    await editor.post(`/api/editions/${edId}/proofs`).expect(409);
+    await editor.post(`/api/editions/${edId}/publish`).expect(409);
+    await printer.post(`/api/editions/${edId}/proofs/2/approve`).expect(404);
+  });
+
+  it('lets the printer return it with notes: back to draft, editor mailed', async () => {
+    await editor.post(`/api/editions/${edId}/proofs/1/return`).send({ notes: 'x' }).expect(403);
+    await printer.post(`/api/editions/${edId}/proofs/1/return`).send({ notes: '   ' }).expect(400);
+    const res = await printer.post(`/api/editions/${edId}/proofs/1/return`).send({ notes: 'Puzzle 2 drawing sits too close to the fold.' }).expect(200);
+    expect(res.body.state).toBe('draft');
+    expect(res.body).not.toHaveProperty('slots');
+    const mail = await t.mailbox.waitFor({ to: 'editor@test.squarewright.test', subject: 'Proof 1 returned' });
+    expect(mail.text).toContain('too close to the fold');
+    const ed = (await editor.get(`/api/editions/${edId}`).expect(200)).body;
+    expect(ed.returnNotes).toContain('fold');
+    expect(ed.proofs[0]).toMatchObject({ status: 'returned', notes: 'Puzzle 2 drawing sits too close to the fold.' });
+    await printer.post(`/api/editions/${edId}/proofs/1/approve`).expect(409);
+  });
+
+  it('resends as proof 2; the printer approves; the press file has no stamp and its own hash', async () => {
+    await editor.patch(`/api/editions/${edId}`).send({ introduction: plainRichText('Welcome back.') }).expect(200);
+    const sent = await editor.post(`/api/editions/${edId}/proofs`).expect(201);
+    expect(sent.body.proofs.map((p: { version: number; status: string }) => `${p.version}:${p.status}`)).toEqual(['1:returned', '2:pending']);
+    const ok = await printer.post(`/api/editions/${edId}/proofs/2/approve`).expect(200);
+    expect(ok.body.state).toBe('approved');
+    expect(ok.body.pressFile).toMatchObject({ version: 2 });
+    const press = await printer.get(`/api/editions/${edId}/press.pdf`).buffer(true).parse(binary).expect(200);
+    expect(createHash('sha256').update(press.body as Buffer).digest('hex')).toBe(ok.body.pressFile.sha256);
+    if (hasPoppler) {
+      const text = pdftotext(writeTemp(press.body as Buffer));
+      expect(text).not.toMatch(/PROOF/);
+      expect(text).toContain('Welcome back.');
+    }
+    await t.mailbox.waitFor({ to: 'editor@test.squarewright.test', subject: 'Proof 2 approved' });
+  });
+
+  it('publishes and records a fee per printed puzzle at the publication rate', async () => {
+    await printer.post(`/api/editions/${edId}/publish`).expect(403);
+    const res = await editor.post(`/api/editions/${edId}/publish`).expect(200);
+    expect(res.body.state).toBe('published');
+    const { ledgerEntry } = await import('../../../server/db/schema/ledger');
+    const rows = t.db.select({ puzzleId: ledgerEntry.puzzleId, amount: ledgerEntry.amountMinor, currency: ledgerEntry.currency, setterId: ledgerEntry.setterId }).from(ledgerEntry).all();
+    expect(rows.sort((a, b) => String(a.puzzleId).localeCompare(String(b.puzzleId)))).toEqual([
+      { puzzleId: 'pz-a', amount: 4500, currency: 'GBP', setterId },
+      { puzzleId: 'pz-d', amount: 6000, currency: 'GBP', setterId },
+    ]);
+    await editor.post(`/api/editions/${edId}/publish`).expect(409);
+  });
+
+  it('guards the solution-once rule and the reuse window across editions', async () => {
+    const next = await editor.post('/api/editions').send({ publicationId: pubId, number: 42, date: '2026-12-12' }).expect(201);
+    await editor.patch(`/api/editions/${next.body.id}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-same-tiling' }] }).expect(200);
+    const checks = (await editor.get(`/api/editions/${next.body.id}/checks`).expect(200)).body;
+    const failed = checks.checks.filter((c: { ok: boolean }) => !c.ok).map((c: { code: string }) => c.code);
+    expect(failed).toContain('solution-once'); // pz-a is in No. 41
+    expect(failed).toContain('reuse'); // the 33 x 32 tiling was in No. 41, 7 days before
+  });
+});
+
+describe('roles, route by route', () => {
+  it('keeps drafts from printers and everything from setters, including direct file URLs', async () => {
+    const pubId = (await editor.get('/api/publications')).body.items[0].id;
+    const draft = await editor.post('/api/editions').send({ publicationId: pubId, number: 90, date: '2027-01-02' }).expect(201);
+    const list = (await printer.get('/api/editions').expect(200)).body.items.map((e: { number: number }) => e.number);
+    expect(list).toContain(41);
+    expect(list).not.toContain(90);
+    await printer.get(`/api/editions/${draft.body.id}`).expect(404);
+    await printer.get(`/api/editions/${draft.body.id}/proofs/1.pdf`).expect(404);
+    await printer.get(`/api/editions/${draft.body.id}/checks`).expect(403);
+    await printer.get(`/api/editions/${draft.body.id}/preview.pdf`).expect(403);
+    await printer.patch(`/api/editions/${draft.body.id}`).send({ number: 91 }).expect(403);
+    await printer.get('/api/stock').expect(403);
+    await printer.get('/api/templates').expect(403);
+    for (const path of ['/api/editions', `/api/editions/${draft.body.id}`, `/api/editions/${draft.body.id}/proofs/1.pdf`, `/api/editions/${draft.body.id}/press.pdf`, '/api/templates']) {
+      await setter.get(path).expect(403);
+      await request(t.app).get(path).expect(401);
+    }
+  });
+
+  it('shows printers no setters, fees or puzzle ids', async () => {
+    const list = (await printer.get('/api/editions').expect(200)).body.items;
+    const id = list.find((e: { number: number }) => e.number === 41).id;
+    const body = JSON.stringify((await printer.get(`/api/editions/${id}`).expect(200)).body);
+    expect(body).not.toContain(setterId);
+    expect(body).not.toContain('pz-a');
+    expect(body).not.toMatch(/fee/i);
+  });
+});
