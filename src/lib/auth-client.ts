@@ -6,4 +6,7 @@ import { createAuthClient } from 'better-auth/react';
  */
 export const authClient = createAuthClient({
   baseURL: typeof window === 'undefined' ? 'http://localhost' : window.location.origin,
+  // Look fetch up at call time (not at import), so one fetch serves the whole app and
+  // tests can stub it.
+  fetchOptions: { customFetchImpl: (input, init) => fetch(input, init) },
 });
