@@ -391,10 +391,11 @@ Nothing is collected here: submitting attaches a test bank account ending 6789 t
       void api.settleAll().then(() => sendJson(res, 200, JSON.stringify({ settled: true })));
       return true;
     }
-    if (method === 'POST' && (m = path.match(/^\/__fake\/accounts\/([\w]+)\/(fail-payouts|fail-transfers|clear-failures)$/))) {
+    if (method === 'POST' && (m = path.match(/^\/__fake\/accounts\/([\w]+)\/(fail-payouts|fail-transfers|clear-failures|complete-onboarding)$/))) {
       const id = m[1] ?? '';
       if (m[2] === 'fail-payouts') api.failPayoutsFor(id);
       else if (m[2] === 'fail-transfers') api.failTransfersFor(id);
+      else if (m[2] === 'complete-onboarding') api.completeOnboarding(id);
       else api.clearFailures(id);
       sendJson(res, 200, JSON.stringify({ ok: true }));
       return true;

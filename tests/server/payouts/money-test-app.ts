@@ -7,7 +7,7 @@ import { startPaymentsFake, type PaymentsFake } from '../../../server/fakes/paym
 import { payoutsDepsFrom } from '../../../server/payments/runtime';
 import { recordPublicationFees } from '../../../server/services/ledger';
 import type { PayoutsDeps } from '../../../server/services/payouts';
-import { createTestApp, type TestApp } from '../helpers/test-app';
+import { createTestApp, type CreateTestAppOptions, type TestApp } from '../helpers/test-app';
 
 // A test app wired to its own local fake provider, listening on a random port so the
 // fake's signed webhooks reach it. Payouts settle only when a test calls fake.settleAll().
@@ -27,9 +27,15 @@ export type MoneyTestApp = TestApp & {
 
 let editionCounter = 0;
 
-export async function createMoneyTestApp(): Promise<MoneyTestApp> {
-  const fake = await startPaymentsFake({ webhookSecret: testWebhookSecret, autoSettle: false });
-  const t = await createTestApp({ env: { PAYMENTS_API_URL: fake.url, PAYMENTS_WEBHOOK_SECRET: testWebhookSecret } });
+export async function createMoneyTestApp(options: { demo?: CreateTestAppOptions['demo']; settleDelayMs?: number } = {}): Promise<MoneyTestApp> {
+  const fake = await startPaymentsFake({
+    webhookSecret: testWebhookSecret,
+    ...(options.settleDelayMs !== undefined ? { settleDelayMs: options.settleDelayMs } : { autoSettle: false }),
+  });
+  const t = await createTestApp({
+    env: { PAYMENTS_API_URL: fake.url, PAYMENTS_WEBHOOK_SECRET: testWebhookSecret },
+    ...(options.demo !== undefined ? { demo: options.demo } : {}),
+  });
   const server = http.createServer(t.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
