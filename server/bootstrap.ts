@@ -8,7 +8,9 @@ import { createApp } from './app';
 import { buildDeps } from './compose';
 import { closeDatabase, openDatabase } from './db/client';
 import { demoAccounts, demoPassword } from './demo/accounts';
+import { markDemoSeeded, resolveDemoMode, wasDemoSeeded } from './demo/mode';
 import { seedDemo } from './demo/seed';
+import type { DemoSeeder } from './demo/seeders';
 import { loadEnv, type Env } from './env';
 import { createLogger } from './log';
 import { startFakeSmtp } from './mail/fake-smtp';
@@ -35,6 +37,10 @@ export type StartOptions = {
   source?: Record<string, string | undefined>;
   /** prepare client serving once the HTTP server exists (Vite needs it for its websocket) */
   prepareClient?: (httpServer: Server) => Promise<(app: Express) => void>;
+  /** demo seeders to run (default: the list in server/demo/seeders.ts) */
+  seeders?: DemoSeeder[];
+  /** print the start-up banner (default true) */
+  quiet?: boolean;
 };
 
 export async function startServer(options: StartOptions = {}) {
@@ -46,10 +52,10 @@ export async function startServer(options: StartOptions = {}) {
   mkdirSync(dataDir, { recursive: true });
   const dbFile = join(dataDir, 'squarewright.db');
   const isNew = !existsSync(dbFile);
-  const demo = env.DEMO ?? isNew;
   const secret = resolveAuthSecret(env, dataDir);
   loadMailTemplates();
   const db = openDatabase(dbFile);
+  const demo = resolveDemoMode(db, isNew, env.DEMO);
 
   const stops: (() => Promise<void>)[] = [];
   let smtp: { url: string; localFake: boolean };
@@ -71,7 +77,11 @@ export async function startServer(options: StartOptions = {}) {
   if (Object.keys(overrides).length > 0) env = loadEnv({ ...source, ...overrides });
 
   const deps = buildDeps({ env, db, demo, secret, smtp, log });
-  if (isNew && demo) await seedDemo(deps);
+  // once per database: a new one in demo mode, or an older one started with DEMO=1
+  if (demo && !wasDemoSeeded(db)) {
+    await seedDemo(deps, options.seeders);
+    markDemoSeeded(db);
+  }
 
   const httpServer = createServer();
   const mountClient = options.prepareClient ? await options.prepareClient(httpServer) : undefined;
@@ -93,7 +103,7 @@ export async function startServer(options: StartOptions = {}) {
     lines.push(`  demo sign-ins (password ${demoPassword}):`);
     for (const a of demoAccounts) lines.push(`    ${a.role.padEnd(8)} ${a.email}`);
   }
-  console.log(lines.join('\n'));
+  if (!options.quiet) console.log(lines.join('\n'));
 
   let closing: Promise<void> | undefined;
   const close = () =>
