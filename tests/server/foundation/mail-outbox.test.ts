@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mailOutbox } from '../../../server/db/schema/mail';
 import { startFakeSmtp, type FakeSmtp } from '../../../server/mail/fake-smtp';
 import { queueMail, retryDelayMs } from '../../../server/mail/outbox';
-import { parseMailTemplate, renderMail } from '../../../server/mail/templates';
+import { loadMailTemplates, parseMailTemplate, renderMail } from '../../../server/mail/templates';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 // The outbox promise (issue 2): mail is written in the same transaction as its event and a
@@ -64,6 +64,12 @@ describe('mail outbox', () => {
 });
 
 describe('mail templates', () => {
+  it('every template in templates/mail parses (as at start-up)', () => {
+    const all = loadMailTemplates();
+    expect([...all.keys()]).toEqual(expect.arrayContaining(['invitation', 'password-reset']));
+    expect(all.get('invitation')?.placeholders).toEqual(['expires', 'inviter', 'link', 'role']);
+  });
+
   it('reads the subject line and the placeholders', () => {
     const tpl = parseMailTemplate('x', 'Subject: Hi {{name}}\n\nDear {{ name }}, see {{link}}.\n');
     expect(tpl.subject).toBe('Hi {{name}}');
