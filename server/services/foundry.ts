@@ -18,7 +18,7 @@ export const FOUNDRY_KIND = 'foundry-run';
 /** Time budgets per run [common practice: bound every background job]. */
 const BUDGET_MS = { exhaustive: 30 * 60_000, random: 10 * 60_000, joining: 5 * 60_000 } as const;
 
-function storeItems(tx: Db, runId: string, params: RunRequest, items: unknown[]): void {
+export function storeItems(tx: Db, runId: string, params: RunRequest, items: unknown[]): void {
   for (const raw of items) {
     const it = raw as FoundryItem;
     const s = addToStock(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } });

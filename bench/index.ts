@@ -1,0 +1,2 @@
+// `npm run bench`: every area's benchmark, one import line each (each module runs on import).
+import './foundry';
