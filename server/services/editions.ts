@@ -54,7 +54,11 @@ export type PuzzleForPrint = {
   solution: { tiling: SolvedTiling; steps?: string[] | undefined };
 };
 
-export type PuzzleSource = { getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint | null };
+export type PuzzleSource = {
+  getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint | null;
+  /** ids of puzzles that could go into an edition (certificate current), newest first; used by the demo seeder */
+  listPrintablePuzzleIds?(db: DbOrTx): string[];
+};
 
 export const noPuzzleSource: PuzzleSource = { getPuzzleForPrint: () => null };
 

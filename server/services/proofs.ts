@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync 
 import { dirname, isAbsolute, join, resolve } from 'node:path';
 import { and, eq, isNull, or } from 'drizzle-orm';
 import type { SessionUser } from '../../shared/contracts/auth';
-import type { Edition } from '../../shared/contracts/editions';
+import { plainRichText, type Edition } from '../../shared/contracts/editions';
 import { appRoot } from '../app-root';
 import type { DbOrTx } from '../db/client';
 import { user as userTable } from '../db/schema/auth';
@@ -13,8 +13,8 @@ import { Conflict, NotFound, Unprocessable } from '../http/errors';
 import { queueMail } from '../mail/outbox';
 import { renderEditionPdf } from '../pdf/render-edition';
 import { recordPublicationFees } from './ledger';
-import { buildEditionDocument, getEditionRow, puzzleSource, requireState, runEditionChecks, toEdition, visibleToPrinter } from './editions';
-import { feeFor, getPublicationRow } from './publications';
+import { buildEditionDocument, createEdition, getEditionRow, puzzleSource, requireState, runEditionChecks, toEdition, updateEdition, visibleToPrinter } from './editions';
+import { feeFor, getPublicationRow, listPublications } from './publications';
 
 // The proof round: send to proof (render version n, store it hashed, mail the printers),
 // approve (the press file is the proof re-rendered without the stamp) or return with
@@ -108,7 +108,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
               pages: String(rendered.pages),
               preflight: rendered.preflight.ok ? `passed${warnings > 0 ? ` with ${warnings} warning(s)` : ''}` : 'FAILED',
               sha256: hash,
-              link: editionLink(deps, `/printer/proofs/${editionId}`),
+              link: editionLink(deps, `/proofs/${editionId}`),
             },
           },
           now,
@@ -234,4 +234,64 @@ export function publishEdition(deps: Deps, who: SessionUser, editionId: string):
     tx.update(edition).set({ state: 'published', publishedAt: now, publishedBy: who.id, updatedAt: now }).where(eq(edition.id, editionId)).run();
   });
   return toEdition(deps, getEditionRow(deps.db, editionId));
+}
+
+// ---- demo -------------------------------------------------------------------------------
+
+function demoUser(db: DbOrTx, email: string): SessionUser | null {
+  const u = db.select({ id: userTable.id, name: userTable.name, email: userTable.email, role: userTable.role }).from(userTable).where(eq(userTable.email, email)).get();
+  if (!u || (u.role !== 'editor' && u.role !== 'printer' && u.role !== 'admin' && u.role !== 'setter')) return null;
+  return { id: u.id, name: u.name, email: u.email, role: u.role };
+}
+
+function isoDay(d: Date): string {
+  return d.toISOString().slice(0, 10);
+}
+
+/** The Saturday on or after a date (UTC). */
+export function saturdayOnOrAfter(d: Date): Date {
+  const out = new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate()));
+  out.setUTCDate(out.getUTCDate() + ((6 - out.getUTCDay() + 7) % 7));
+  return out;
+}
+
+/**
+ * Demo editions of Larkspur & Quill Press: The Saturday Quadrant No. 40 (published),
+ * No. 41 (in proof), No. 42 (draft) and Squared Away Monthly No. 12 (draft). The round is
+ * driven through the real services when the puzzle store offers printable puzzles;
+ * otherwise the editions stay empty drafts.
+ */
+export async function seedDemoEditions(deps: AppDeps): Promise<void> {
+  const pubs = new Map(listPublications(deps.db).map((p) => [p.title, p]));
+  const quadrant = pubs.get('The Saturday Quadrant');
+  const monthly = pubs.get('Squared Away Monthly');
+  const editorUser = demoUser(deps.db, 'editor@demo.squarewright.test');
+  const printerUser = demoUser(deps.db, 'printer@demo.squarewright.test');
+  if (!quadrant || !monthly || !editorUser || !printerUser) return;
+  const next = saturdayOnOrAfter(deps.clock.now());
+  const day = (offset: number) => isoDay(new Date(next.getTime() + offset * 86_400_000));
+  const intro = (n: number) =>
+    plainRichText(`Welcome to No. ${n} of The Saturday Quadrant from Larkspur & Quill Press.`, 'Every rectangle below is cut into squares of whole-number sides. Solutions appear in next week\u2019s column.');
+  const e40 = createEdition(deps, editorUser, { publicationId: quadrant.id, number: 40, date: day(-7), introduction: intro(40) });
+  const e41 = createEdition(deps, editorUser, { publicationId: quadrant.id, number: 41, date: day(0), introduction: intro(41) });
+  createEdition(deps, editorUser, { publicationId: quadrant.id, number: 42, date: day(7), introduction: intro(42) });
+  const firstOfNext = new Date(Date.UTC(next.getUTCFullYear(), next.getUTCMonth() + 1, 1));
+  createEdition(deps, editorUser, { publicationId: monthly.id, number: 12, date: isoDay(firstOfNext), introduction: plainRichText('Squared Away Monthly: this month\u2019s squared rectangles, with full solutions at the back.') });
+
+  const ids = puzzleSource(deps).listPrintablePuzzleIds?.(deps.db) ?? [];
+  if (ids.length < 4) {
+    deps.log.info(`demo editions: ${ids.length} printable puzzle(s) found, so the demo editions stay drafts`);
+    return;
+  }
+  const instr = plainRichText('Use every piece once.');
+  try {
+    updateEdition(deps, e40.id, { slots: [{ puzzleId: ids[0]!, instructions: instr }, { puzzleId: ids[1]!, instructions: instr }] });
+    updateEdition(deps, e41.id, { slots: [{ puzzleId: ids[2]!, instructions: instr }, { puzzleId: ids[3]!, instructions: instr }] });
+    await sendToProof(deps, editorUser, e40.id);
+    await approveProof(deps, printerUser, e40.id, 1);
+    publishEdition(deps, editorUser, e40.id);
+    await sendToProof(deps, editorUser, e41.id);
+  } catch (e) {
+    deps.log.warn(`demo editions: the proof round stopped early: ${(e as Error).message}`);
+  }
 }

@@ -84,3 +84,35 @@ export function updatePublication(deps: Pick<AppDeps, 'db' | 'clock'>, id: strin
 export function feeFor(p: Pick<Row, 'feeAssemblyMinor' | 'feeDeductionMinor' | 'currency'>, kind: 'assembly' | 'deduction'): { amountMinor: number; currency: string } {
   return { amountMinor: kind === 'assembly' ? p.feeAssemblyMinor : p.feeDeductionMinor, currency: p.currency };
 }
+
+/** Demo data: the two publications of Larkspur & Quill Press (our fictional publisher). */
+export const demoPublications: PublicationInput[] = [
+  {
+    title: 'The Saturday Quadrant',
+    publisher: 'Larkspur & Quill Press',
+    templateId: 'newspaper-column',
+    cadence: 'weekly',
+    solutionRule: 'next_edition',
+    reuseWindowDays: 180,
+    currency: 'GBP',
+    feeAssemblyMinor: 4000,
+    feeDeductionMinor: 5500,
+  },
+  {
+    title: 'Squared Away Monthly',
+    publisher: 'Larkspur & Quill Press',
+    templateId: 'a4',
+    cadence: 'monthly',
+    solutionRule: 'same_edition',
+    reuseWindowDays: 365,
+    currency: 'GBP',
+    feeAssemblyMinor: 6000,
+    feeDeductionMinor: 7500,
+  },
+];
+
+export function seedDemoPublications(deps: Pick<AppDeps, 'db' | 'clock'>): void {
+  for (const p of demoPublications) {
+    if (!titleTaken(deps.db, p.title)) createPublication(deps, p);
+  }
+}
