@@ -1,5 +1,7 @@
 import type { AppDeps } from '../deps';
 import { seedDemoPayouts } from '../payments/demo-seed';
+import { seedDemoEditions } from '../services/proofs';
+import { seedDemoPublications } from '../services/publications';
 
 // Demo seeders of each area, run in this order on a new database in demo mode, after the
 // four demo accounts exist (find them by e-mail in demoAccounts, server/demo/accounts.ts).
@@ -7,6 +9,9 @@ import { seedDemoPayouts } from '../payments/demo-seed';
 export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> | void };
 
 export const seeders: DemoSeeder[] = [
+  { name: 'publications', seed: seedDemoPublications },
+  // editions after the puzzles seeder (it drives the proof round with printable puzzles)
+  { name: 'editions', seed: seedDemoEditions },
   // keep payouts last: it pays what earlier seeders' published editions earned
   { name: 'payouts', seed: seedDemoPayouts },
 ];
