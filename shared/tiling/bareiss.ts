@@ -134,3 +134,70 @@ export function bareissSolve(a: readonly (readonly number[])[], b: readonly numb
   if (r.sign < 0n) for (let i = 0; i < k; i++) X[i] = -X[i]!;
   return { det: r.det, x: X };
 }
+
+/**
+ * The same solve entirely in Numbers, or null as soon as some product might exceed 2^53
+ * (the caller then uses bareissSolve). Returns det(A) and det(A) * A^-1 b. Needs nonzero
+ * leading minors (true for a reduced Laplacian of a connected network); null otherwise.
+ */
+export function bareissSolveNumber(a: readonly (readonly number[])[], b: readonly number[]): { det: number; x: number[] } | null {
+  const k = a.length;
+  if (k === 0) return { det: 1, x: [] };
+  const cols = k + 1;
+  const m: number[][] = [];
+  let bound = 0;
+  for (let i = 0; i < k; i++) {
+    const r = a[i]!.slice();
+    r.push(b[i]!);
+    for (let j = 0; j < cols; j++) {
+      const v = Math.abs(r[j]!);
+      if (v > bound) bound = v;
+    }
+    m.push(r);
+  }
+  let prev = 1;
+  for (let step = 0; step < k - 1; step++) {
+    const prow = m[step]!;
+    const p = prow[step]!;
+    if (p === 0 || 2 * bound * bound >= SAFE) return null;
+    for (let i = step + 1; i < k; i++) {
+      const row = m[i]!;
+      const f = row[step]!;
+      if (f === 0) {
+        // (p * row[j] - 0) / prev: still exact, and keeps sparse rows cheap
+        for (let j = step + 1; j < cols; j++) {
+          const v = (p * row[j]!) / prev;
+          row[j] = v;
+          const av = v < 0 ? -v : v;
+          if (av > bound) bound = av;
+        }
+        continue;
+      }
+      for (let j = step + 1; j < cols; j++) {
+        const v = (p * row[j]! - f * prow[j]!) / prev;
+        row[j] = v;
+        const av = v < 0 ? -v : v;
+        if (av > bound) bound = av;
+      }
+    }
+    prev = p;
+  }
+  const D = m[k - 1]![k - 1]!;
+  if (D === 0) return null;
+  const X: number[] = [];
+  for (let i = k - 1; i >= 0; i--) {
+    const row = m[i]!;
+    let acc = D * row[k]!;
+    if (Math.abs(acc) >= SAFE) return null;
+    for (let j = i + 1; j < k; j++) {
+      const c = row[j]!;
+      if (c === 0) continue;
+      const prod = c * X[j]!;
+      if (Math.abs(prod) >= SAFE) return null;
+      acc -= prod;
+      if (Math.abs(acc) >= SAFE) return null;
+    }
+    X[i] = acc / row[i]!;
+  }
+  return { det: D, x: X };
+}

@@ -41,17 +41,17 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
   if (D / 2 > MAX_GRAPH_EDGES) return { ok: false, code: 'too-large', message: `the graph has ${D / 2} edges; at most ${MAX_GRAPH_EDGES} are accepted` };
   const tail = new Int32Array(D);
   const head = new Int32Array(D);
+  const stamp = new Int32Array(n).fill(-1);
   for (let v = 0; v < n; v++) {
     const list = g.adj[v]!;
-    const seen = new Set<number>();
     for (let i = 0; i < list.length; i++) {
       const u = list[i];
       if (typeof u !== 'number' || !Number.isInteger(u) || u < 0 || u >= n) {
         return { ok: false, code: 'not-plane', message: `adj[${v}][${i}] = ${String(u)} is not a vertex (0..${n - 1})` };
       }
       if (u === v) return { ok: false, code: 'not-plane', message: `vertex ${v} has a loop (adj[${v}][${i}] = ${v})` };
-      if (seen.has(u)) return { ok: false, code: 'not-plane', message: `vertex ${v} lists neighbour ${u} twice; parallel edges are not accepted` };
-      seen.add(u);
+      if (stamp[u] === v) return { ok: false, code: 'not-plane', message: `vertex ${v} lists neighbour ${u} twice; parallel edges are not accepted` };
+      stamp[u] = v;
       tail[first[v]! + i] = v;
       head[first[v]! + i] = u;
     }

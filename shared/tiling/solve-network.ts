@@ -6,10 +6,21 @@
 // tau(G / e) (matrix-tree theorem). Sizes are potential differences; x positions are face
 // potentials found by a walk over the faces; everything is divided by the gcd and re-verified.
 
-import { bareissSolve } from './bareiss';
+import { bareissSolve, bareissSolveNumber } from './bareiss';
 import { analysePlaneGraph } from './plane-graph';
 import { verifyTiling } from './verify';
 import type { PlaneGraph, SolveResult, Square } from './types';
+
+function gcdN(a: number, b: number): number {
+  if (a < 0) a = -a;
+  if (b < 0) b = -b;
+  while (b !== 0) {
+    const t = a % b;
+    a = b;
+    b = t;
+  }
+  return a;
+}
 
 function gcd(a: bigint, b: bigint): bigint {
   if (a < 0n) a = -a;
@@ -55,54 +66,89 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
   }
   const b = zero.slice();
   b[idx[p]!] = 1;
-  const sol = bareissSolve(L, b);
-  const Wfull = sol.det;
+
+  // potentials: Numbers when every intermediate fits below 2^53, else BigInt; then reduced
+  // by the gcd so that the layout below always runs on Numbers
+  let Wfull: bigint;
+  let Hfull: bigint;
+  let gg: bigint;
+  const pot: number[] = [];
+  let Wn: number;
+  let Hn: number;
+  let red = 0;
+  const fast = bareissSolveNumber(L, b);
+  if (fast) {
+    Wn = fast.det;
+    for (let v = 0; v < n; v++) pot.push(v === q ? 0 : fast.x[idx[v]!]!);
+    Hn = pot[p]!;
+    red = gcdN(Wn, Hn);
+    for (let d = 0; d < D; d++) {
+      if (d === poleD || d === poleR) continue;
+      const diff = pot[tail[d]!]! - pot[head[d]!]!;
+      if (diff > 0) red = gcdN(red, diff);
+    }
+    Wfull = BigInt(Wn);
+    Hfull = BigInt(Hn);
+    gg = BigInt(red);
+  } else {
+    const sol = bareissSolve(L, b);
+    Wfull = sol.det;
+    const potB: bigint[] = [];
+    for (let v = 0; v < n; v++) potB.push(v === q ? 0n : sol.x[idx[v]!]!);
+    Hfull = potB[p]!;
+    gg = Wfull === 0n ? 0n : gcd(Wfull, Hfull);
+    for (let d = 0; d < D; d++) {
+      if (d === poleD || d === poleR) continue;
+      const diff = potB[tail[d]!]! - potB[head[d]!]!;
+      if (diff > 0n) gg = gcd(gg, diff);
+    }
+    if (Wfull !== 0n) {
+      if (Wfull / gg > 2n ** 31n || Hfull / gg > 2n ** 31n) {
+        return { ok: false, code: 'too-large', message: `the reduced rectangle ${Wfull / gg} x ${Hfull / gg} exceeds the limit of 2^31 per side` };
+      }
+      for (let v = 0; v < n; v++) pot.push(Number(potB[v]! / gg));
+    }
+    Wn = Number(Wfull / (gg || 1n));
+    Hn = Number(Hfull / (gg || 1n));
+    red = 1;
+  }
   if (Wfull === 0n) {
     return { ok: false, code: 'disconnected', message: `removing the pole edge ${p}-${q} disconnects the network (no spanning tree of G - e)` };
   }
-  const pot: bigint[] = [];
-  for (let v = 0; v < n; v++) pot.push(v === q ? 0n : sol.x[idx[v]!]!);
-  const Hfull = pot[p]!;
-
-  // sizes and gcd
-  let gg = gcd(Wfull, Hfull);
   for (let d = 0; d < D; d++) {
+    if (d === poleD || d === poleR) continue;
     const u = tail[d]!;
     const v = head[d]!;
-    if (u > v || d === poleD || d === poleR) continue;
-    const diff = pot[u]! - pot[v]!;
-    if (diff === 0n) {
+    if (pot[u] === pot[v]) {
       return {
         ok: false,
         code: 'zero-current',
-        message: `edge ${u}-${v} carries no current (both ends at potential ${pot[u]}): this pole choice gives no squared rectangle`,
+        message: `edge ${u}-${v} carries no current (both ends at potential ${BigInt(pot[u]!) * (fast ? 1n : gg)}): this pole choice gives no squared rectangle`,
       };
     }
-    gg = gcd(gg, diff);
   }
 
   // face potentials (x): for a non-pole edge hi -> lo, x(face(lo->hi)) = x(face(hi->lo)) + size
-  const fx: (bigint | undefined)[] = [];
+  const fx: number[] = [];
   const faceDarts: number[][] = [];
   for (let f = 0; f < faceCount; f++) {
     faceDarts.push([]);
-    fx.push(undefined);
+    fx.push(NaN);
   }
   for (let d = 0; d < D; d++) faceDarts[face[d]!]!.push(d);
-  fx[face[poleD]!] = 0n;
+  fx[face[poleD]!] = 0;
   const queue = [face[poleD]!];
-  let minX = 0n;
+  let minX = 0;
   for (let qi = 0; qi < queue.length; qi++) {
     const f = queue[qi]!;
     const xf = fx[f]!;
     for (const d of faceDarts[f]!) {
       if (d === poleD || d === poleR) continue;
-      const r = rev[d]!;
       const diff = pot[tail[d]!]! - pot[head[d]!]!; // > 0 when d runs hi -> lo
-      const other = face[r]!;
-      const want = xf + diff; // d in face f; if d is hi->lo then face(rev) = face(d) + size
-      const seen = fx[other];
-      if (seen === undefined) {
+      const other = face[rev[d]!]!;
+      const want = xf + diff;
+      const seen = fx[other]!;
+      if (Number.isNaN(seen)) {
         fx[other] = want;
         if (want < minX) minX = want;
         queue.push(other);
@@ -112,28 +158,26 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
     }
   }
   for (let f = 0; f < faceCount; f++) {
-    if (fx[f] === undefined) return { ok: false, code: 'not-plane', message: `face ${f} cannot be reached from the pole faces` };
+    if (Number.isNaN(fx[f]!)) return { ok: false, code: 'not-plane', message: `face ${f} cannot be reached from the pole faces` };
   }
-
-  const W = Wfull / gg;
-  const H = Hfull / gg;
-  if (W > 2n ** 31n || H > 2n ** 31n) {
+  const W = Wn / red;
+  const H = Hn / red;
+  if (W > 2 ** 31 || H > 2 ** 31) {
     return { ok: false, code: 'too-large', message: `the reduced rectangle ${W} x ${H} exceeds the limit of 2^31 per side` };
   }
   const squares: Square[] = [];
   for (let d = 0; d < D; d++) {
     if (d === poleD || d === poleR) continue;
     const hi = tail[d]!;
-    const lo = head[d]!;
-    const diff = pot[hi]! - pot[lo]!;
-    if (diff <= 0n) continue; // take each edge once, from its high end
+    const diff = pot[hi]! - pot[head[d]!]!;
+    if (diff <= 0) continue; // take each edge once, from its high end
     const x1 = fx[face[d]!]!;
     const x2 = fx[face[rev[d]!]!]!;
     const x = (x1 < x2 ? x1 : x2) - minX;
-    squares.push({ x: Number(x / gg), y: Number((Hfull - pot[hi]!) / gg), s: Number(diff / gg) });
+    squares.push({ x: x / red, y: (Hn - pot[hi]!) / red, s: diff / red });
   }
   squares.sort((a, c) => a.y - c.y || a.x - c.x);
-  const tiling = { W: Number(W), H: Number(H), squares };
+  const tiling = { W, H, squares };
   const v = verifyTiling(tiling);
   if (!v.ok) {
     return { ok: false, code: 'not-plane', message: `the solved squares do not tile the rectangle (${v.message}); the rotation system is probably not a plane embedding of a c-net` };
