@@ -35,6 +35,8 @@ export const envSchema = z.object({
     z.string().min(32, 'must be at least 32 characters').optional(),
   ),
   LOG_LEVEL: z.preprocess(emptyToUndefined, z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info')),
+  /** sign-in attempts allowed per minute per client address */
+  SIGN_IN_LIMIT_PER_MINUTE: z.preprocess(emptyToUndefined, z.coerce.number().int().min(1).max(100_000).default(10)),
   /** payments: the provider's secret key; unset = the local fake provider (server/fakes/payments-fake.ts) */
   PAYMENTS_SECRET_KEY: z.preprocess(emptyToUndefined, z.string().regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]+$/, 'must be a provider secret key (sk_test_..., sk_live_... or rk_...)').optional()),
   /** payments: the webhook signing secret (whsec_...); required with PAYMENTS_SECRET_KEY, set by the local fake otherwise */

@@ -30,7 +30,7 @@ export type AuthOptions = {
   clock: Clock;
   /** called after a mail is queued, so the sender delivers it soon */
   onMailQueued?: () => void;
-  /** sign-in attempts allowed per window per client address (default 5 per 60 s) */
+  /** sign-in attempts allowed per window per client address (default SIGN_IN_LIMIT_PER_MINUTE per 60 s) */
   signInLimit?: { window: number; max: number };
 };
 
@@ -59,7 +59,7 @@ function memoryRateStore() {
 
 export function createAuth(options: AuthOptions) {
   const { db, env } = options;
-  const signIn = options.signInLimit ?? { window: 60, max: 5 };
+  const signIn = options.signInLimit ?? { window: 60, max: env.SIGN_IN_LIMIT_PER_MINUTE };
   return betterAuth({
     appName: 'Squarewright',
     baseURL: env.PUBLIC_URL,

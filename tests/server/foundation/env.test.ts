@@ -4,7 +4,7 @@ import { EnvError, loadEnv } from '../../../server/env';
 describe('loadEnv', () => {
   it('fills the documented defaults', () => {
     const env = loadEnv({});
-    expect(env).toMatchObject({ PORT: 3000, HOST: '127.0.0.1', DATA_DIR: 'data', PUBLIC_URL: 'http://localhost:3000', LOG_LEVEL: 'info' });
+    expect(env).toMatchObject({ PORT: 3000, HOST: '127.0.0.1', DATA_DIR: 'data', PUBLIC_URL: 'http://localhost:3000', LOG_LEVEL: 'info', SIGN_IN_LIMIT_PER_MINUTE: 10 });
     expect(env.DEMO).toBeUndefined();
     expect(env.SMTP_URL).toBeUndefined();
     expect(env.AUTH_SECRET).toBeUndefined();
