@@ -52,8 +52,9 @@ describe('certificates', () => {
   it('a Deduction certificate carries the rank proof and re-checks', () => {
     const givens = [t.squares[0]!, t.squares[5]!, t.squares[9]!].map((q) => ({ x: q.x, y: q.y, size: q.s }));
     const input: CertificateInput = { kind: 'deduction', tiling: t, givens, level: 'closure', showFrame: false };
-    const { certificate: c, result } = certify(input);
-    expect(c.kind).toBe('deduction');
+    const out = certify(input);
+    if (out.kind !== 'deduction') throw new Error('expected a deduction certificate');
+    const { certificate: c, result } = out;
     expect(c.counts.rank).toBe(c.counts.unknowns);
     expect(c.verdict).toBe(result.solved ? 'unique' : 'stuck');
     expect(recheckCertificate(c, input).holds).toBe(true);
