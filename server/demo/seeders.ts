@@ -1,4 +1,5 @@
 import type { AppDeps } from '../deps';
+import { seedDemoStock } from './stock-seed';
 import { seedDemoPayouts } from '../payments/demo-seed';
 import { seedDemoEditions } from '../services/proofs';
 import { seedDemoPublications } from '../services/publications';
@@ -9,6 +10,8 @@ import { seedDemoPublications } from '../services/publications';
 export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> | void };
 
 export const seeders: DemoSeeder[] = [
+  // stock first: puzzles and editions are made from stock tilings
+  { name: 'stock', seed: seedDemoStock },
   { name: 'publications', seed: seedDemoPublications },
   // editions after the puzzles seeder (it drives the proof round with printable puzzles)
   { name: 'editions', seed: seedDemoEditions },

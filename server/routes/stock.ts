@@ -26,8 +26,8 @@ export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
       const { limit, ...filter } = query;
       res
         .status(200)
-        .type('text/csv; charset=utf-8')
         .attachment('squarewright-stock.csv')
+        .type('text/csv; charset=utf-8')
         .send(stockCsv(exportStock(deps.db, filter, limit)));
     },
   );
@@ -39,8 +39,8 @@ export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
       const { limit, ...filter } = query;
       res
         .status(200)
-        .type('text/plain; charset=utf-8')
         .attachment('squarewright-stock.bkp')
+        .type('text/plain; charset=utf-8')
         .send(stockCodeFile(exportStock(deps.db, filter, limit), deps.clock.now()));
     },
   );
