@@ -4,16 +4,18 @@
  * Decorative by default; pass `title` to make it an image with a name.
  */
 export function SquarewrightMark({ size = 28, title }: { size?: number; title?: string }) {
+  const ink = 'var(--color-ink, #1f2328)';
+  const paper = 'var(--color-surface, #fffdf9)';
   const squares: readonly [x: number, y: number, s: number, fill: string][] = [
-    [0, 0, 18, 'var(--color-ink, #1f2328)'],
-    [18, 0, 15, 'var(--color-surface, #fffdf9)'],
-    [18, 15, 7, 'var(--color-accent, #b5522b)'],
-    [25, 15, 8, 'var(--color-surface, #fffdf9)'],
-    [0, 18, 14, 'var(--color-surface, #fffdf9)'],
-    [14, 18, 4, 'var(--color-ink, #1f2328)'],
-    [14, 22, 10, 'var(--color-accent-soft, #e9c9b6)'],
-    [24, 22, 1, 'var(--color-ink, #1f2328)'],
-    [24, 23, 9, 'var(--color-ink, #1f2328)'],
+    [0, 0, 18, 'var(--color-accent, #b5522b)'],
+    [18, 0, 15, paper],
+    [18, 15, 7, 'var(--color-accent-soft, #e9c9b6)'],
+    [25, 15, 8, paper],
+    [0, 18, 14, paper],
+    [14, 18, 4, ink],
+    [14, 22, 10, 'var(--color-paper-deep, #efeae0)'],
+    [24, 22, 1, ink],
+    [24, 23, 9, ink],
   ];
   return (
     <svg
@@ -26,7 +28,7 @@ export function SquarewrightMark({ size = 28, title }: { size?: number; title?: 
       focusable="false"
     >
       {squares.map(([x, y, s, fill]) => (
-        <rect key={`${x}-${y}`} x={x} y={y} width={s} height={s} fill={fill} stroke="var(--color-ink, #1f2328)" strokeWidth={1.1} />
+        <rect key={`${x}-${y}`} x={x} y={y} width={s} height={s} fill={fill} stroke={ink} strokeWidth={1.2} strokeLinejoin="miter" />
       ))}
     </svg>
   );

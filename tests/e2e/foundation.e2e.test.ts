@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { linkIn, waitForMail } from './helpers/mailbox';
 import { demoAccount, navLabels, screenshot, signIn, submitSignInForAnswer, useBrowser, type DemoRole } from './helpers/browser';
 
 // The foundation in a real browser: each demo role signs in and sees its own navigation,
@@ -68,28 +69,19 @@ describe('foundation in the browser', () => {
     await dialog.getByRole('button', { name: 'Send the invitation' }).click();
     await admin.getByText(`A sign-up link is on its way to ${invitee}`).waitFor();
 
+    await screenshot(admin, 'admin-users');
+
     // Read the mail as admin through the API (same cookies as the page).
-    let link: string | undefined;
-    await expect
-      .poll(
-        async () => {
-          const list = await admin.request.get('/api/mailbox');
-          expect(list.status()).toBe(200);
-          const { messages } = (await list.json()) as { messages: { id: number; to: string }[] };
-          const mail = messages.find((m) => m.to.includes(invitee));
-          if (!mail) return undefined;
-          const detail = await admin.request.get(`/api/mailbox/${mail.id}`);
-          const { message } = (await detail.json()) as { message: { text: string } };
-          link = /https?:\/\/\S+\/invite\/[A-Za-z0-9_-]+/.exec(message.text)?.[0];
-          return link;
-        },
-        { timeout: 20_000, interval: 300 },
-      )
-      .toBeDefined();
+    const mail = await waitForMail(admin.request, { to: invitee, subject: /invited/i });
+    const link = linkIn(mail, '/invite/');
+    await admin.goto('/admin/mailbox');
+    await admin.getByRole('link', { name: mail.subject }).first().click();
+    await admin.getByRole('link', { name: link }).waitFor();
+    await screenshot(admin, 'admin-mailbox-mail');
 
     const other = await harness.newContext();
     const page = await other.newPage();
-    await page.goto(link ?? '');
+    await page.goto(link);
     await page.getByText(invitee).waitFor();
     await page.getByLabel('Your name').fill('Wren Halloway');
     await page.getByLabel('Password', { exact: true }).fill('a-long-enough-secret');
@@ -103,7 +95,39 @@ describe('foundation in the browser', () => {
     // The link works once.
     const again = await harness.newContext();
     const second = await again.newPage();
-    await second.goto(link ?? '');
+    await second.goto(link);
     await second.getByText('This invitation cannot be used').waitFor();
+  });
+
+  it('a forgotten password is set anew from the link in the caught mail, and the link works once', async () => {
+    const admin = harness.page();
+    await signIn(admin, 'admin');
+    const email = `reset-${Date.now()}@larkspur-quill.test`;
+    const invited = await admin.request.post('/api/invitations', { data: { email, role: 'printer' } });
+    expect(invited.status()).toBe(201);
+    const token = new URL(linkIn(await waitForMail(admin.request, { to: email, subject: /invited/i }), '/invite/')).pathname.split('/').pop();
+    const person = await harness.newContext();
+    const accepted = await person.request.post(`/api/invitations/${token}/accept`, { data: { name: 'Ossian Reed', password: 'first-password-here' } });
+    expect(accepted.status()).toBe(201);
+
+    const page = await (await harness.newContext()).newPage();
+    await page.goto('/sign-in');
+    await page.getByRole('link', { name: 'Forgot your password?' }).click();
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByRole('button', { name: 'Send the link' }).click();
+    await page.getByText('Check your mail').waitFor();
+
+    const link = linkIn(await waitForMail(admin.request, { to: email, subject: /reset/i }), '/reset-password');
+    await page.goto(link);
+    await page.getByLabel('New password', { exact: true }).fill('second-password-here');
+    await page.getByLabel('New password, again').fill('second-password-here');
+    await page.getByRole('button', { name: 'Set the password' }).click();
+    await page.getByText('Password changed').waitFor();
+
+    await page.goto(link);
+    await page.getByLabel('New password', { exact: true }).fill('third-password-here');
+    await page.getByLabel('New password, again').fill('third-password-here');
+    await page.getByRole('button', { name: 'Set the password' }).click();
+    expect(await page.getByRole('alert').innerText()).toMatch(/could not set the password/i);
   });
 });

@@ -62,14 +62,15 @@ export function useBrowser(): BrowserHarness {
 
   beforeAll(async () => {
     if (missing) {
-      if (process.env.REQUIRE_BROWSER === '1') throw new Error(`REQUIRE_BROWSER=1 but ${missing}`);
-      console.warn(`e2e skipped: ${missing}`);
+      console.warn(`e2e ${process.env.REQUIRE_BROWSER === '1' ? 'FAILED' : 'skipped'}: ${missing}`);
       return;
     }
     browser = await launchBrowser();
   });
   beforeEach(async (ctx) => {
     if (!browser) {
+      // CI sets REQUIRE_BROWSER=1: a missing browser must fail every test, not hide them.
+      if (process.env.REQUIRE_BROWSER === '1') throw new Error(`REQUIRE_BROWSER=1 but ${missing ?? 'no browser was launched'}`);
       ctx.skip(missing ?? 'no browser');
       return;
     }
