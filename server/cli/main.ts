@@ -1,8 +1,16 @@
 // `npm run -s cli -- <command> ...`: the command-line tools. One line per command below.
+// A command returns its exit code (nothing = 0); a CliUsageError exits 2, anything else 1,
+// always with a one-line message and never a stack trace.
 import { runFoundryCli } from './foundry';
+import { CliUsageError, runNetwork, runSolve, runVerify } from './tiling';
 
-const commands: Record<string, (argv: readonly string[], write: (s: string) => void) => void | Promise<void>> = {
+type Command = (argv: readonly string[], write: (s: string) => void) => void | number | Promise<void | number>;
+
+const commands: Record<string, Command> = {
   foundry: runFoundryCli,
+  verify: runVerify,
+  network: runNetwork,
+  solve: runSolve,
 };
 
 const [name, ...rest] = process.argv.slice(2);
@@ -12,8 +20,9 @@ if (!command) {
   process.exit(2);
 }
 try {
-  await command(rest, (s) => process.stdout.write(`${s}\n`));
+  const code = await command(rest, (s) => process.stdout.write(`${s}\n`));
+  process.exitCode = typeof code === 'number' ? code : 0;
 } catch (e) {
   process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n`);
-  process.exit(1);
+  process.exit(e instanceof CliUsageError ? 2 : 1);
 }

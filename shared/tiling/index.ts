@@ -27,3 +27,4 @@ export { checkKirchhoff } from './kirchhoff';
 export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';
 export { planeGraphFromDrawing } from './drawing';
 export { analysePlaneGraph } from './plane-graph';
+export { randomCNet, wheel, dual, faces, edgeList, mulberry32, splitRandomFace } from './random-network';

@@ -70,6 +70,7 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
   // potentials: Numbers when every intermediate fits below 2^53, else BigInt; then reduced
   // by the gcd so that the layout below always runs on Numbers
   let Wfull: bigint;
+  let potFull: bigint[] = [];
   let Hfull: bigint;
   let gg: bigint;
   const pot: number[] = [];
@@ -89,6 +90,7 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
     }
     Wfull = BigInt(Wn);
     Hfull = BigInt(Hn);
+    potFull = pot.map((x) => BigInt(x));
     gg = BigInt(red);
   } else {
     const sol = bareissSolve(L, b);
@@ -96,6 +98,7 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
     const potB: bigint[] = [];
     for (let v = 0; v < n; v++) potB.push(v === q ? 0n : sol.x[idx[v]!]!);
     Hfull = potB[p]!;
+    potFull = potB;
     gg = Wfull === 0n ? 0n : gcd(Wfull, Hfull);
     for (let d = 0; d < D; d++) {
       if (d === poleD || d === poleR) continue;
@@ -182,5 +185,5 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
   if (!v.ok) {
     return { ok: false, code: 'not-plane', message: `the solved squares do not tile the rectangle (${v.message}); the rotation system is probably not a plane embedding of a c-net` };
   }
-  return { ok: true, tiling, fullWidth: Wfull, fullHeight: Hfull, spanningTrees: Wfull + Hfull, gcd: gg };
+  return { ok: true, tiling, fullWidth: Wfull, fullHeight: Hfull, spanningTrees: Wfull + Hfull, gcd: gg, potentials: potFull };
 }

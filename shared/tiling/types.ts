@@ -110,5 +110,17 @@ export interface KirchhoffViolation {
 export type VerifyResult = { ok: true } | { ok: false; message: string; square?: number };
 
 export type SolveResult =
-  | { ok: true; tiling: Tiling; fullWidth: bigint; fullHeight: bigint; spanningTrees: bigint; gcd: bigint }
+  | {
+      ok: true;
+      tiling: Tiling;
+      /** tau(G - e): the unreduced width */
+      fullWidth: bigint;
+      /** tau(G / e): the unreduced height */
+      fullHeight: bigint;
+      /** tau(G) = fullWidth + fullHeight */
+      spanningTrees: bigint;
+      gcd: bigint;
+      /** unreduced node potentials (negative pole 0, positive pole fullHeight), by vertex */
+      potentials: bigint[];
+    }
   | { ok: false; code: 'zero-current' | 'disconnected' | 'not-plane' | 'bad-pole' | 'too-large'; message: string };
