@@ -1,0 +1,80 @@
+import { randomUUID } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { plainRichText } from '../../../shared/contracts/editions';
+import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
+import type { PuzzleForPrint } from '../../../server/services/editions';
+import { notToScale, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
+
+// From print to payment through the real publish step: an edition of the Saturday
+// Quadrant goes through proof and approval, is published (fees written in the publish
+// transaction at the publication's rates), and the editor pays the setter through the
+// local fake provider. The puzzles are stubs standing in for the puzzle area (as in the
+// print area's own tests); the tilings are the print area's published fixtures.
+
+let t: MoneyTestApp;
+let setterId: string;
+const puzzles = new Map<string, PuzzleForPrint>();
+
+function stubPuzzle(id: string, tiling: typeof TILING_33x32, kind: 'assembly' | 'deduction'): PuzzleForPrint {
+  const largest = [...tiling.squares].sort((a, b) => b.s - a.s)[0]!;
+  return {
+    id,
+    kind,
+    title: `${kind} ${id}`,
+    grade: 2,
+    tilingKey: `${tiling.W}x${tiling.H}:${tiling.squares.map((q) => q.s).join(',')}`,
+    setterId,
+    certificate: { current: true, summary: 'stub certificate' },
+    assembly: kind === 'assembly' ? { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [{ size: largest.s, x: largest.x, y: largest.y }] } : undefined,
+    deduction: kind === 'deduction' ? { layout: notToScale(tiling), givens: [0, 1, 4].map((i) => ({ rect: i, size: tiling.squares[i]!.s })) } : undefined,
+    solution: { tiling, steps: kind === 'deduction' ? ['18 + 15 = 33.'] : undefined },
+  };
+}
+
+beforeAll(async () => {
+  t = await createMoneyTestApp();
+  t.deps.puzzlesForPrint = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null };
+});
+afterAll(async () => {
+  await t.closeAll();
+});
+
+describe('publish, then pay', () => {
+  it('publishing an edition accrues one fee per puzzle, and the editor pays exactly that', async () => {
+    const email = 'printed@test.squarewright.test';
+    const setter = await t.signInAs('setter', { email, name: 'Printed Setter' });
+    setterId = await t.createUser('setter', { email });
+    puzzles.set('pz-a', stubPuzzle('pz-a', TILING_69x61, 'assembly'));
+    puzzles.set('pz-d', stubPuzzle('pz-d', TILING_33x32, 'deduction'));
+    const admin = await t.signInAs('admin');
+    const editor = await t.signInAs('editor');
+    const printer = await t.signInAs('printer');
+
+    const pub = await admin
+      .post('/api/publications')
+      .send({ title: 'The Saturday Quadrant', publisher: 'Larkspur & Quill Press', templateId: 'newspaper-column', cadence: 'weekly', solutionRule: 'same_edition', reuseWindowDays: 90, currency: 'GBP', feeAssemblyMinor: 4500, feeDeductionMinor: 6000 })
+      .expect(201);
+    const ed = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 7, date: '2026-11-28', introduction: plainRichText('Two for the weekend.') }).expect(201);
+    await editor.patch(`/api/editions/${ed.body.id}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-d' }] }).expect(200);
+    await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(201);
+    await printer.post(`/api/editions/${ed.body.id}/proofs/1/approve`).expect(200);
+    await editor.post(`/api/editions/${ed.body.id}/publish`).expect(200);
+
+    const earned = earningsSchema.parse((await setter.get('/api/earnings').expect(200)).body);
+    expect(earned.entries.map((e) => [e.puzzleId, e.amountMinor, e.date, e.editionId]).sort()).toEqual([
+      ['pz-a', 4500, '2026-11-28', ed.body.id],
+      ['pz-d', 6000, '2026-11-28', ed.body.id],
+    ]);
+    expect(earned.owed).toEqual([{ currency: 'GBP', amountMinor: 10_500 }]);
+
+    const accountId = await t.onboard(setter, setterId);
+    await editor.post('/api/payouts/runs').send({ requestKey: randomUUID() }).expect(201);
+    await t.fake.settleAll();
+    expect(t.fake.paidOutTo(accountId)).toEqual({ gbp: 10_500 });
+    const overview = payoutsOverviewSchema.parse((await editor.get('/api/payouts').expect(200)).body);
+    expect(overview.owed).toEqual([]);
+    const after = earningsSchema.parse((await setter.get('/api/earnings').expect(200)).body);
+    expect(after.payouts.map((p) => [p.state, p.amountMinor])).toEqual([['paid', 10_500]]);
+  });
+});
