@@ -46,7 +46,12 @@ export function PayoutsPage() {
             {overview.data.owed.length === 0 ? (
               <EmptyState title="Nobody is owed anything">Fees appear here when an edition with their puzzles is published.</EmptyState>
             ) : (
-              <OwedTable rows={overview.data.owed} onCorrect={setCorrecting} />
+              <>
+                <OwedTable rows={overview.data.owed} onCorrect={setCorrecting} />
+                {payable.length === 0 ? (
+                  <p className="text-sm text-ink-muted">Nobody owed has finished payout details yet, so there is nothing to pay. Setters add them on their Earnings page.</p>
+                ) : null}
+              </>
             )}
           </Card>
           <section aria-labelledby="runs-heading" className="flex flex-col gap-3">
