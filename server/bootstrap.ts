@@ -11,7 +11,7 @@ import { demoAccounts, demoPassword } from './demo/accounts';
 import { markDemoSeeded, resolveDemoMode, wasDemoSeeded } from './demo/mode';
 import { seedDemo } from './demo/seed';
 import type { DemoSeeder } from './demo/seeders';
-import { loadEnv, type Env } from './env';
+import { EnvError, loadEnv, type Env } from './env';
 import { createLogger } from './log';
 import { startFakeSmtp } from './mail/fake-smtp';
 import { loadMailTemplates } from './mail/templates';
@@ -87,10 +87,19 @@ export async function startServer(options: StartOptions = {}) {
   const mountClient = options.prepareClient ? await options.prepareClient(httpServer) : undefined;
   const app = createApp(deps, mountClient ? { mountClient } : {});
   httpServer.on('request', app);
-  await new Promise<void>((resolveListen, reject) => {
-    httpServer.once('error', reject);
-    httpServer.listen(env.PORT, env.HOST, () => resolveListen());
-  });
+  try {
+    await new Promise<void>((resolveListen, reject) => {
+      httpServer.once('error', reject);
+      httpServer.listen(env.PORT, env.HOST, () => resolveListen());
+    });
+  } catch (err) {
+    await deps.mail.stop();
+    for (const stop of stops.reverse()) await stop().catch(() => undefined);
+    closeDatabase(db);
+    const code = (err as { code?: unknown }).code;
+    if (code === 'EADDRINUSE') throw new Error(`Port ${env.PORT} on ${env.HOST} is already in use: stop the other server or set PORT to a free port.`, { cause: err });
+    throw err;
+  }
   deps.mail.start();
 
   const lines = [
@@ -125,4 +134,11 @@ export function exitOnSignals(close: () => Promise<void>) {
       close().finally(() => process.exit(0));
     });
   }
+}
+
+/** What to print when start-up fails: the message for the errors we explain, else everything. */
+export function startupErrorText(err: unknown): unknown {
+  if (err instanceof EnvError) return err.message;
+  if (err instanceof Error && (err.cause as { code?: unknown } | undefined)?.code === 'EADDRINUSE') return err.message;
+  return err;
 }

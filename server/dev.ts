@@ -1,6 +1,5 @@
 import { createServer as createViteServer } from 'vite';
-import { startServer, exitOnSignals } from './bootstrap';
-import { EnvError } from './env';
+import { exitOnSignals, startServer, startupErrorText } from './bootstrap';
 
 // `npm run dev`: one process, one port; Vite runs as Express middleware and shares the
 // HTTP server for its websocket (no second port).
@@ -19,6 +18,6 @@ try {
   });
   exitOnSignals(server.close);
 } catch (err) {
-  console.error(err instanceof EnvError ? err.message : err);
+  console.error(startupErrorText(err));
   process.exit(1);
 }

@@ -1,5 +1,4 @@
-import { startServer, exitOnSignals } from './bootstrap';
-import { EnvError } from './env';
+import { exitOnSignals, startServer, startupErrorText } from './bootstrap';
 import { serveBuiltClient } from './http/static-client';
 
 // Production entry (bundled to dist/server/index.js by `npm run build`).
@@ -10,6 +9,6 @@ try {
   });
   exitOnSignals(server.close);
 } catch (err) {
-  console.error(err instanceof EnvError ? err.message : err);
+  console.error(startupErrorText(err));
   process.exit(1);
 }

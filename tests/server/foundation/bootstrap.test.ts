@@ -53,3 +53,12 @@ describe('startServer', () => {
     await expect(startServer({ source: { PORT: 'x', LOG_LEVEL: 'loud' }, quiet: true })).rejects.toThrow(/PORT[\s\S]*LOG_LEVEL/);
   });
 });
+
+describe('startServer on a busy port', () => {
+  it('says the port is in use and how to choose another', async () => {
+    const first = await startServer({ source: { ...base, DATA_DIR: dataDir(), DEMO: '0' }, seeders: [], quiet: true });
+    const port = String((first.httpServer.address() as AddressInfo).port);
+    await expect(startServer({ source: { ...base, PORT: port, DATA_DIR: dataDir(), DEMO: '0' }, seeders: [], quiet: true })).rejects.toThrow(/already in use.*set PORT/);
+    await first.close();
+  });
+});
