@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { seriousAxeViolations } from './helpers/axe';
 import { linkIn, waitForMail } from './helpers/mailbox';
 import { demoAccount, navLabels, screenshot, signIn, submitSignInForAnswer, useBrowser, type DemoRole } from './helpers/browser';
 
@@ -26,6 +27,8 @@ describe('foundation in the browser', () => {
       const { email } = await demoAccount(role);
       await expect.poll(() => page.getByRole('banner').innerText()).toContain(email);
       await screenshot(page, `home-${role}`);
+      // axe-core WCAG 2.1 A/AA rules: no serious or critical finding on the role's home.
+      expect(await seriousAxeViolations(page)).toEqual([]);
     }, 120_000);
   }
 
@@ -38,6 +41,8 @@ describe('foundation in the browser', () => {
     expect(await demo.innerText()).toContain(email);
     expect(await demo.innerText()).toContain(password);
     await screenshot(page, 'sign-in');
+    // axe-core WCAG 2.1 A/AA rules: no serious or critical finding on the sign-in page.
+    expect(await seriousAxeViolations(page)).toEqual([]);
   });
 
   it('a wrong password is refused with a visible error and no session', async () => {
@@ -70,6 +75,7 @@ describe('foundation in the browser', () => {
     await admin.getByText(`A sign-up link is on its way to ${invitee}`).waitFor();
 
     await screenshot(admin, 'admin-users');
+    expect(await seriousAxeViolations(admin)).toEqual([]);
 
     // Read the mail as admin through the API (same cookies as the page).
     const mail = await waitForMail(admin.request, { to: invitee, subject: /invited/i });

@@ -63,13 +63,12 @@ export function SignInPage() {
                   <Button
                     size="sm"
                     variant="ghost"
-                    aria-label={`Fill in the ${roleLabel[account.role]} demo account`}
                     onClick={() => {
                       setValue('email', account.email);
                       setValue('password', demo.demoPassword ?? '');
                     }}
                   >
-                    Use
+                    Use<span className="sr-only"> the {roleLabel[account.role]} demo account</span>
                   </Button>
                 </li>
               ))}
