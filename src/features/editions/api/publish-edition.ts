@@ -1,0 +1,14 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { editionSchema } from '../../../../shared/contracts/editions';
+import { apiRequest } from '../../../lib/api-client';
+import { editionKeys } from './list-editions';
+
+/** POST /api/editions/:id/publish (editor): approved -> published; fees go into the ledger. */
+export function publishEdition(id: string) {
+  return apiRequest(`/api/editions/${encodeURIComponent(id)}/publish`, { method: 'POST', schema: editionSchema });
+}
+
+export function usePublishEdition(id: string) {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: () => publishEdition(id), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+}

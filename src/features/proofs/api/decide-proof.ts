@@ -1,0 +1,24 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { printerEditionSchema } from '../../../../shared/contracts/editions';
+import { apiRequest } from '../../../lib/api-client';
+import { proofKeys } from './list-proofs';
+
+/** POST /api/editions/:id/proofs/:version/approve (printer). */
+export function approveProof(id: string, version: number) {
+  return apiRequest(`/api/editions/${encodeURIComponent(id)}/proofs/${version}/approve`, { method: 'POST', schema: printerEditionSchema });
+}
+
+/** POST /api/editions/:id/proofs/:version/return (printer), with notes. */
+export function returnProof(id: string, version: number, notes: string) {
+  return apiRequest(`/api/editions/${encodeURIComponent(id)}/proofs/${version}/return`, { method: 'POST', body: { notes }, schema: printerEditionSchema });
+}
+
+export function useApproveProof(id: string) {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: (version: number) => approveProof(id, version), onSettled: () => qc.invalidateQueries({ queryKey: proofKeys.all }) });
+}
+
+export function useReturnProof(id: string) {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: (v: { version: number; notes: string }) => returnProof(id, v.version, v.notes), onSettled: () => qc.invalidateQueries({ queryKey: proofKeys.all }) });
+}

@@ -1,0 +1,95 @@
+import { Link } from 'react-router-dom';
+import { editionStateLabels, type EditionSummary } from '../../../../shared/contracts/editions';
+import { Alert } from '../../../components/alert';
+import { PrintCaution } from '../../../components/caution-note';
+import { EmptyState } from '../../../components/empty-state';
+import { Loading, Page } from '../../../components/page';
+import { StatusBadge } from '../../../components/status-badge';
+import { errorMessage } from '../../../lib/api-client';
+import { formatDate, formatDateTime } from '../../../lib/format';
+import { useSentEditions } from '../api/list-proofs';
+
+function SentTable({ rows, label, press }: { rows: EditionSummary[]; label: string; press: boolean }) {
+  return (
+    <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
+      <table className="w-full border-collapse text-sm">
+        <caption className="sr-only">{label}</caption>
+        <thead className="bg-paper-deep text-left">
+          <tr>
+            <th scope="col" className="px-3 py-2">Edition</th>
+            <th scope="col" className="px-3 py-2">Date</th>
+            <th scope="col" className="px-3 py-2">State</th>
+            <th scope="col" className="px-3 py-2">Version</th>
+            <th scope="col" className="px-3 py-2">Sent</th>
+            <th scope="col" className="px-3 py-2">Pages</th>
+            <th scope="col" className="px-3 py-2">Preflight</th>
+            <th scope="col" className="px-3 py-2">File</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((e) => (
+            <tr key={e.id} className="border-t border-rule">
+              <td className="px-3 py-2">
+                <Link to={`/proofs/${e.id}`}>{`${e.publicationTitle} No. ${e.number}`}</Link>
+              </td>
+              <td className="px-3 py-2 whitespace-nowrap">{formatDate(e.date)}</td>
+              <td className="px-3 py-2">
+                <StatusBadge tone={e.state === 'in_proof' ? 'info' : e.state === 'draft' ? 'warning' : 'success'}>{e.state === 'draft' ? 'Returned' : editionStateLabels[e.state]}</StatusBadge>
+              </td>
+              <td className="px-3 py-2 tabular-nums">{e.latestProofVersion ? `v${e.latestProofVersion}` : '—'}</td>
+              <td className="px-3 py-2 whitespace-nowrap">{e.latestProofAt ? formatDateTime(e.latestProofAt) : '—'}</td>
+              <td className="px-3 py-2 tabular-nums">{e.latestProofPages ?? '—'}</td>
+              <td className="px-3 py-2">{e.latestPreflightOk === null ? '—' : `${e.latestPreflightOk ? 'Passed' : 'Failed'}${e.latestWarnings ? `, ${e.latestWarnings} warning(s)` : ''}`}</td>
+              <td className="px-3 py-2">
+                {press ? (
+                  <a href={`/api/editions/${e.id}/press.pdf?download=1`}>Download press file</a>
+                ) : e.latestProofVersion ? (
+                  <a href={`/api/editions/${e.id}/proofs/${e.latestProofVersion}.pdf?download=1`}>{`Download v${e.latestProofVersion}`}</a>
+                ) : null}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+/** /proofs (printer): editions sent to proof, newest state first. */
+export function ProofsPage() {
+  const list = useSentEditions();
+  const waiting = (list.data ?? []).filter((e) => e.state === 'in_proof');
+  const earlier = (list.data ?? []).filter((e) => e.state === 'draft');
+  return (
+    <Page title="Proofs" description="Editions the desk has sent you. Download each proof, check it, and approve it or return it with your notes.">
+      <PrintCaution />
+      {list.isPending ? (
+        <Loading />
+      ) : list.error ? (
+        <Alert tone="danger">{errorMessage(list.error)}</Alert>
+      ) : (
+        <>
+          <h2 className="text-lg font-semibold">Waiting for you</h2>
+          {waiting.length === 0 ? <EmptyState title="No proof is waiting">New proofs arrive here, and by mail.</EmptyState> : <SentTable rows={waiting} label="Proofs waiting for a decision" press={false} />}
+          {earlier.length > 0 ? (
+            <>
+              <h2 className="text-lg font-semibold">Returned to the desk</h2>
+              <SentTable rows={earlier} label="Proofs returned to the desk" press={false} />
+            </>
+          ) : null}
+        </>
+      )}
+    </Page>
+  );
+}
+
+/** /press-files (printer): approved and published editions with their press files. */
+export function PressFilesPage() {
+  const list = useSentEditions();
+  const rows = (list.data ?? []).filter((e) => e.hasPressFile);
+  return (
+    <Page title="Press files" description="Approved editions: the approved proof without the PROOF stamp, ready for the press.">
+      {list.isPending ? <Loading /> : list.error ? <Alert tone="danger">{errorMessage(list.error)}</Alert> : rows.length === 0 ? <EmptyState title="No press files yet" /> : <SentTable rows={rows} label="Press files" press />}
+    </Page>
+  );
+}

@@ -1,0 +1,17 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { publicationListSchema } from '../../../../shared/contracts/publications';
+import { apiRequest } from '../../../lib/api-client';
+
+/** Keys: ['publications'], ['publications', 'list']. */
+export const publicationKeys = { all: ['publications'] as const, list: () => [...publicationKeys.all, 'list'] as const };
+
+/** GET /api/publications. */
+export async function listPublications(signal?: AbortSignal) {
+  return (await apiRequest('/api/publications', { schema: publicationListSchema, signal })).items;
+}
+
+export const publicationListQueryOptions = () => queryOptions({ queryKey: publicationKeys.list(), queryFn: ({ signal }) => listPublications(signal) });
+
+export function usePublications() {
+  return useQuery(publicationListQueryOptions());
+}

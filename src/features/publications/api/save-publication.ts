@@ -1,0 +1,16 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { publicationSchema, type PublicationInput } from '../../../../shared/contracts/publications';
+import { apiRequest } from '../../../lib/api-client';
+import { publicationKeys } from './list-publications';
+
+/** POST /api/publications (admin) or PATCH /api/publications/:id (admin). */
+export function savePublication(input: PublicationInput, id?: string) {
+  return id
+    ? apiRequest(`/api/publications/${encodeURIComponent(id)}`, { method: 'PATCH', body: input, schema: publicationSchema })
+    : apiRequest('/api/publications', { method: 'POST', body: input, schema: publicationSchema });
+}
+
+export function useSavePublication() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: (v: { input: PublicationInput; id?: string }) => savePublication(v.input, v.id), onSettled: () => qc.invalidateQueries({ queryKey: publicationKeys.all }) });
+}

@@ -1,0 +1,151 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { cadences, formatFee, publicationInputSchema, type Publication } from '../../../../shared/contracts/publications';
+import { Alert } from '../../../components/alert';
+import { Button } from '../../../components/button';
+import { TaxCaution } from '../../../components/caution-note';
+import { EmptyState } from '../../../components/empty-state';
+import { Card, Loading, Page } from '../../../components/page';
+import { SelectField } from '../../../components/select-field';
+import { TextField } from '../../../components/text-field';
+import { errorMessage } from '../../../lib/api-client';
+import { usePublications } from '../api/list-publications';
+import { useTemplateChoices } from '../api/list-templates';
+import { useSavePublication } from '../api/save-publication';
+
+// The form edits fees as decimals ("45.00") and sends whole minor units (4500).
+const money = z
+  .string()
+  .trim()
+  .regex(/^\d{1,7}(\.\d{1,2})?$/, 'a fee like 45 or 45.50')
+  .transform((v) => Math.round(Number(v) * 100));
+
+const formSchema = publicationInputSchema.omit({ feeAssemblyMinor: true, feeDeductionMinor: true, reuseWindowDays: true }).extend({
+  reuseWindowDays: z.coerce.number({ error: 'reuse window must be a number of days' }).int('whole days').min(0, 'must not be negative').max(3650, 'at most 3650 days'),
+  feeAssembly: money,
+  feeDeduction: money,
+});
+type FormIn = z.input<typeof formSchema>;
+type FormOut = z.output<typeof formSchema>;
+
+const blank: FormIn = { title: '', publisher: 'Larkspur & Quill Press', templateId: 'a4', cadence: 'weekly', solutionRule: 'same_edition', reuseWindowDays: 180, currency: 'GBP', feeAssembly: '40.00', feeDeduction: '55.00' };
+
+function toForm(p: Publication): FormIn {
+  return { title: p.title, publisher: p.publisher, templateId: p.templateId, cadence: p.cadence, solutionRule: p.solutionRule, reuseWindowDays: p.reuseWindowDays, currency: p.currency, feeAssembly: (p.feeAssemblyMinor / 100).toFixed(2), feeDeduction: (p.feeDeductionMinor / 100).toFixed(2) };
+}
+
+function PublicationForm({ editing, onDone }: { editing: Publication | null; onDone: () => void }) {
+  const templates = useTemplateChoices();
+  const save = useSavePublication();
+  const form = useForm<FormIn, unknown, FormOut>({ resolver: zodResolver(formSchema), defaultValues: editing ? toForm(editing) : blank });
+  const { errors } = form.formState;
+  return (
+    <Card title={editing ? `Edit ${editing.title}` : 'New publication'}>
+      <form
+        noValidate
+        className="grid gap-3 md:grid-cols-2"
+        onSubmit={form.handleSubmit(async (v) => {
+          const { feeAssembly, feeDeduction, ...rest } = v;
+          const ok = await save.mutateAsync({ input: { ...rest, feeAssemblyMinor: feeAssembly, feeDeductionMinor: feeDeduction }, ...(editing ? { id: editing.id } : {}) }).catch(() => null);
+          if (ok) onDone();
+        })}
+      >
+        <TextField label="Title" error={errors.title?.message} {...form.register('title')} />
+        <TextField label="Publisher" error={errors.publisher?.message} {...form.register('publisher')} />
+        <SelectField label="Page template" options={(templates.data ?? []).map((t) => ({ value: t.template.id, label: t.template.name }))} error={errors.templateId?.message} {...form.register('templateId')} />
+        <SelectField label="Cadence" options={cadences.map((c) => ({ value: c, label: c[0]!.toUpperCase() + c.slice(1) }))} error={errors.cadence?.message} {...form.register('cadence')} />
+        <SelectField
+          label="Solutions"
+          options={[
+            { value: 'same_edition', label: 'In the same edition' },
+            { value: 'next_edition', label: 'In the next edition' },
+          ]}
+          error={errors.solutionRule?.message}
+          {...form.register('solutionRule')}
+        />
+        <TextField label="Reuse window (days)" type="number" min={0} hint="A tiling may not appear twice in this publication within this many days." error={errors.reuseWindowDays?.message} {...form.register('reuseWindowDays')} />
+        <TextField label="Currency" hint="ISO 4217, e.g. GBP" error={errors.currency?.message} {...form.register('currency')} />
+        <TextField label="Fee per Assembly puzzle" inputMode="decimal" error={errors.feeAssembly?.message} {...form.register('feeAssembly')} />
+        <TextField label="Fee per Deduction puzzle" inputMode="decimal" error={errors.feeDeduction?.message} {...form.register('feeDeduction')} />
+        <div className="flex items-end gap-2 md:col-span-2">
+          <Button type="submit" variant="primary" busy={save.isPending}>
+            {editing ? 'Save changes' : 'Create publication'}
+          </Button>
+          <Button onClick={onDone}>Cancel</Button>
+        </div>
+        {save.error ? (
+          <Alert tone="danger" title="Could not save" className="md:col-span-2">
+            {errorMessage(save.error)}
+          </Alert>
+        ) : null}
+      </form>
+    </Card>
+  );
+}
+
+/** /admin/publications: titles with template, cadence, solution rule, reuse window and fees. */
+export function PublicationsPage() {
+  const list = usePublications();
+  const [editing, setEditing] = useState<Publication | 'new' | null>(null);
+  return (
+    <Page
+      title="Publications"
+      description="Each publication has a page template, a cadence, a rule for where solutions go, a reuse window and a fee per puzzle kind."
+      actions={
+        <Button variant="primary" onClick={() => setEditing('new')}>
+          New publication
+        </Button>
+      }
+    >
+      <TaxCaution />
+      {editing ? <PublicationForm key={editing === 'new' ? 'new' : editing.id} editing={editing === 'new' ? null : editing} onDone={() => setEditing(null)} /> : null}
+      {list.isPending ? (
+        <Loading />
+      ) : list.error ? (
+        <Alert tone="danger">{errorMessage(list.error)}</Alert>
+      ) : list.data.length === 0 ? (
+        <EmptyState title="No publications yet" />
+      ) : (
+        <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
+          <table className="w-full border-collapse text-sm">
+            <caption className="sr-only">Publications</caption>
+            <thead className="bg-paper-deep text-left">
+              <tr>
+                <th scope="col" className="px-3 py-2">Title</th>
+                <th scope="col" className="px-3 py-2">Template</th>
+                <th scope="col" className="px-3 py-2">Cadence</th>
+                <th scope="col" className="px-3 py-2">Solutions</th>
+                <th scope="col" className="px-3 py-2">Reuse window</th>
+                <th scope="col" className="px-3 py-2">Fees (Assembly / Deduction)</th>
+                <th scope="col" className="px-3 py-2"><span className="sr-only">Actions</span></th>
+              </tr>
+            </thead>
+            <tbody>
+              {list.data.map((p) => (
+                <tr key={p.id} className="border-t border-rule">
+                  <td className="px-3 py-2">
+                    <span className="font-semibold">{p.title}</span>
+                    <br />
+                    <span className="text-ink-muted">{p.publisher}</span>
+                  </td>
+                  <td className="px-3 py-2">{p.templateId}</td>
+                  <td className="px-3 py-2">{p.cadence}</td>
+                  <td className="px-3 py-2">{p.solutionRule === 'same_edition' ? 'Same edition' : 'Next edition'}</td>
+                  <td className="px-3 py-2 tabular-nums">{`${p.reuseWindowDays} days`}</td>
+                  <td className="px-3 py-2 tabular-nums">{`${formatFee(p.feeAssemblyMinor, p.currency)} / ${formatFee(p.feeDeductionMinor, p.currency)}`}</td>
+                  <td className="px-3 py-2">
+                    <Button size="sm" onClick={() => setEditing(p)} aria-label={`Edit ${p.title}`}>
+                      Edit
+                    </Button>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </Page>
+  );
+}
