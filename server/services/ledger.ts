@@ -147,7 +147,8 @@ export function listEntries(db: DbOrTx, setterId: string, month?: string): Ledge
     .select(entryColumns)
     .from(ledgerEntry)
     .where(where)
-    .orderBy(asc(ledgerEntry.entryDate), asc(ledgerEntry.createdAt), asc(ledgerEntry.id))
+    // same day: in the order written (rowid), so a statement lists an edition's puzzles in slot order
+    .orderBy(asc(ledgerEntry.entryDate), asc(sql`ledger_entry.rowid`))
     .all()
     .map(toEntry);
 }

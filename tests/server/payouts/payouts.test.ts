@@ -4,7 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createPayoutRunResponseSchema, earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
 import { payout } from '../../../server/db/schema/index';
-import { resumePendingPayouts, submitPayout } from '../../../server/services/payouts';
+import { createPayoutRun, resumePendingPayouts, submitPayout } from '../../../server/services/payouts';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 // Payout runs against the local fake provider through the provider's own SDK.
@@ -94,34 +94,29 @@ describe('payout runs', () => {
     expect(t.fake.paidOutTo(accountId)).toEqual({ gbp: 700 });
   });
 
-  it('a restart between the provider call and storing its answer does not pay twice', async () => {
-    const editor = await t.signInAs('editor');
-    const s = await newSetter('Cleo');
+  it.each(['transfer', 'payout'] as const)('a restart between the %s call and storing its answer does not pay twice', async (crashStep) => {
+    const s = await newSetter(`Cleo${crashStep}`);
     const accountId = await t.onboard(s.agent, s.id);
     t.seedFees(s.id, [1200]);
-    // Create the run with no provider calls yet: as if the process died right after commit.
-    const [only] = (await (async () => {
-      const deps = t.payoutsDeps({
-        afterProviderCall: (step) => {
-          if (step === 'payout') throw new Error('simulated crash after the provider created the payout');
-        },
-      });
-      const { createPayoutRun } = await import('../../../server/services/payouts');
-      await expect(createPayoutRun(deps, (await t.createUser('editor')), { requestKey: randomUUID(), setterIds: [s.id] })).rejects.toThrow('simulated crash');
-      return payoutsOf(s.id);
-    })());
-    expect(only?.state).toBe('pending');
+    const deps = t.payoutsDeps({
+      afterProviderCall: (step) => {
+        if (step === crashStep) throw new Error(`simulated crash after the provider made the ${step}`);
+      },
+    });
+    const before = t.fake.stats();
+    await expect(createPayoutRun(deps, await t.createUser('editor'), { requestKey: randomUUID(), setterIds: [s.id] })).rejects.toThrow('simulated crash');
+    expect(payoutsOf(s.id).map((p) => p.state)).toEqual(['pending']);
     const mid = t.fake.stats();
-    // "Restart": a fresh service resumes what was left pending.
+    // "Restart": a fresh service resumes what was left pending, with the same keys.
     const { resumed } = await resumePendingPayouts(t.payoutsDeps());
     expect(resumed).toBeGreaterThanOrEqual(1);
     const after = t.fake.stats();
-    expect(after.created.payouts).toBe(mid.created.payouts);
     expect(after.replays).toBeGreaterThan(mid.replays);
+    expect(after.created.transfers - before.created.transfers).toBe(1);
+    expect(after.created.payouts - before.created.payouts).toBe(1);
     await t.fake.settleAll();
     expect(payoutsOf(s.id).map((p) => p.state)).toEqual(['paid']);
     expect(t.fake.paidOutTo(accountId)).toEqual({ gbp: 1200 });
-    void editor;
   });
 
   it('a payout the bank refuses ends failed, and a retry pays it once', async () => {
