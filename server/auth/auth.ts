@@ -43,6 +43,9 @@ function memoryRateStore() {
     async consume(key: string, rule: { window: number; max: number }) {
       const now = Date.now();
       const windowMs = rule.window * 1000;
+      if (entries.size > 10_000) {
+        for (const [k, v] of entries) if (now - v.start >= windowMs) entries.delete(k);
+      }
       const e = entries.get(key);
       if (!e || now - e.start >= windowMs) {
         entries.set(key, { count: 1, start: now });
