@@ -382,7 +382,9 @@ export async function runEditionChecks(deps: Pick<AppDeps, 'db' | 'puzzlesForPri
   const checks: EditionCheck[] = [];
   const slotCount = built.puzzles.length + built.missing.length;
 
-  checks.push(slotCount > 0 ? { code: 'has-slots', ok: true, message: `${slotCount} slot(s) filled.` } : { code: 'has-slots', ok: false, message: 'The edition has no puzzles yet.' });
+  // An edition without puzzles may still go out (an introduction, or the previous
+  // edition's solutions); the check says so rather than blocking.
+  checks.push({ code: 'has-slots', ok: true, message: slotCount > 0 ? `${slotCount} slot(s) filled.` : 'No puzzles yet: the proof will carry only the introduction and any solutions.' });
   for (const m of built.missing) checks.push({ code: 'puzzle-found', ok: false, slot: m.slot, message: `Slot ${m.slot}: puzzle ${m.puzzleId} cannot be found.` });
 
   for (const { slot, puzzle } of built.puzzles) {

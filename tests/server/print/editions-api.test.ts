@@ -110,9 +110,9 @@ describe('the edition round', () => {
     await editor.post('/api/editions').send({ publicationId: pubId, number: 42, date: '2026-02-30' }).expect(400);
   });
 
-  it('refuses a proof of an empty edition, and slots naming unknown puzzles', async () => {
-    const res = await editor.post(`/api/editions/${edId}/proofs`).expect(422);
-    expect(JSON.stringify(res.body.error.details)).toMatch(/no puzzles yet/);
+  it('says when an edition has no puzzles, and refuses slots naming unknown puzzles', async () => {
+    const res = await editor.get(`/api/editions/${edId}/checks`).expect(200);
+    expect(res.body.checks).toContainEqual({ code: 'has-slots', ok: true, message: expect.stringMatching(/^No puzzles yet/) });
     const bad = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'nope' }] }).expect(422);
     expect(bad.body.error.details).toEqual([{ path: 'body.slots.0.puzzleId', message: 'no puzzle nope' }]);
     const dup = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-a' }] }).expect(400);
