@@ -1,0 +1,69 @@
+import { render, screen } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { useState } from 'react';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { describe, expect, it, vi } from 'vitest';
+import { ProgressBar } from '../../../src/components/progress-bar';
+import { StatusBadge } from '../../../src/components/status-badge';
+import { Tabs } from '../../../src/components/tabs';
+import { RouteError } from '../../../src/app/route-error';
+
+function TabsHarness() {
+  const [tab, setTab] = useState('paste');
+  return (
+    <Tabs
+      label="Ways to submit"
+      value={tab}
+      onChange={setTab}
+      tabs={[
+        { id: 'paste', label: 'Paste code', panel: <p>paste panel</p> },
+        { id: 'upload', label: 'Upload file', panel: <p>upload panel</p> },
+        { id: 'sketch', label: 'Sketch network', panel: <p>sketch panel</p> },
+      ]}
+    />
+  );
+}
+
+describe('shared components', () => {
+  it('Tabs move with the arrow keys, wrap around, and show only the selected panel (WAI-ARIA tabs pattern)', async () => {
+    const user = userEvent.setup();
+    render(<TabsHarness />);
+    const first = screen.getByRole('tab', { name: 'Paste code' });
+    expect(first.getAttribute('aria-selected')).toBe('true');
+    first.focus();
+    await user.keyboard('{ArrowRight}');
+    expect(screen.getByRole('tab', { name: 'Upload file' }).getAttribute('aria-selected')).toBe('true');
+    expect(screen.getByRole('tabpanel').textContent).toBe('upload panel');
+    await user.keyboard('{ArrowLeft}{ArrowLeft}');
+    expect(screen.getByRole('tab', { name: 'Sketch network' }).getAttribute('aria-selected')).toBe('true');
+    expect(document.activeElement).toBe(screen.getByRole('tab', { name: 'Sketch network' }));
+  });
+
+  it('ProgressBar reports its value to assistive technology, and says when it is indeterminate', () => {
+    const { rerender } = render(<ProgressBar label="Foundry run" value={412} max={1000} detail="412 of 1,000 graphs" />);
+    const bar = screen.getByRole('progressbar', { name: 'Foundry run' });
+    expect(bar.getAttribute('aria-valuenow')).toBe('41');
+    expect(bar.getAttribute('aria-valuetext')).toBe('412 of 1,000 graphs');
+    rerender(<ProgressBar label="Foundry run" />);
+    expect(screen.getByRole('progressbar', { name: 'Foundry run' }).getAttribute('aria-valuenow')).toBeNull();
+    expect(screen.getByText('working…')).toBeTruthy();
+  });
+
+  it('StatusBadge always carries its text, not colour alone', () => {
+    render(<StatusBadge tone="danger">Rejected</StatusBadge>);
+    expect(screen.getByText('Rejected')).toBeTruthy();
+  });
+
+  it('the error boundary shows the error calmly instead of a blank page', async () => {
+    function Broken(): never {
+      throw new Error('the drawing could not be made');
+    }
+    // React reports a caught render error through console.error; that one is expected here.
+    const spy = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const router = createMemoryRouter([{ path: '/', element: <Broken />, errorElement: <RouteError /> }]);
+    render(<RouterProvider router={router} />);
+    expect(await screen.findByRole('heading', { name: 'Something went wrong' })).toBeTruthy();
+    expect(screen.getByRole('alert').textContent).toContain('the drawing could not be made');
+    spy.mockRestore();
+  });
+});
