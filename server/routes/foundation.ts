@@ -1,5 +1,12 @@
 import { sql } from 'drizzle-orm';
-import { healthResponseSchema, meResponseSchema, publicConfigResponseSchema } from '../../shared/contracts/auth';
+import {
+  healthResponseSchema,
+  meResponseSchema,
+  publicConfigResponseSchema,
+  requestPasswordResetBodySchema,
+  resetPasswordBodySchema,
+  signInBodySchema,
+} from '../../shared/contracts/auth';
 import { appVersion } from '../app-root';
 import { demoAccounts, demoPassword } from '../demo/accounts';
 import type { AppDeps } from '../deps';
@@ -26,6 +33,14 @@ export function registerFoundationRoutes(router: ApiRouter, deps: AppDeps) {
   );
 
   route(router, { method: 'GET', path: '/api/me', summary: 'The signed-in user', response: meResponseSchema }, ({ user }) => ({ user }));
+
+  // better-auth's endpoints the client uses (served by better-auth, documented here)
+  const authDoc = (path: string, summary: string, body?: typeof signInBodySchema | typeof requestPasswordResetBodySchema | typeof resetPasswordBodySchema) =>
+    router.openapi.add({ method: 'POST', path, summary, tags: ['auth'], access: 'public (better-auth)', ...(body ? { body } : {}) });
+  authDoc('/api/auth/sign-in/email', 'Sign in with e-mail and password (sets the session cookie; rate-limited)', signInBodySchema);
+  authDoc('/api/auth/sign-out', 'Sign out (ends the session)');
+  authDoc('/api/auth/request-password-reset', 'Mail a password-reset link', requestPasswordResetBodySchema);
+  authDoc('/api/auth/reset-password', 'Set a new password with the token from the mail', resetPasswordBodySchema);
 
   route(router, { method: 'GET', path: '/api/openapi.json', summary: 'This API as an OpenAPI 3.1 document' }, ({ res }) => {
     res.json(router.openapi.document(version));

@@ -64,6 +64,7 @@ describe('foundation API', () => {
   it('serves an OpenAPI document listing the routes', async () => {
     const res = await request(t.app).get('/api/openapi.json').expect(200);
     expect(res.body.openapi).toBe('3.1.0');
-    expect(Object.keys(res.body.paths)).toEqual(expect.arrayContaining(['/api/health', '/api/invitations/{token}/accept', '/api/admin/users/{id}']));
+    expect(Object.keys(res.body.paths)).toEqual(expect.arrayContaining(['/api/health', '/api/invitations/{token}/accept', '/api/admin/users/{id}', '/api/auth/sign-in/email']));
+    expect(res.body.paths['/api/invitations']?.post?.requestBody?.content?.['application/json']?.schema?.properties?.role?.enum).toEqual(['admin', 'editor', 'setter', 'printer']);
   });
 });
