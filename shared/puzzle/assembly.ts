@@ -314,6 +314,11 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
   });
   const fixedStarts = [...fixedByX.keys()].sort((a, b) => a - b);
 
+  // one subset-sum table per deficit column on the current path (reused, never reallocated)
+  const maxWords = (H >> 5) + 1;
+  const pool: Uint32Array[] = [];
+  let depth = 0;
+
   function phaseX(c: number): void {
     meter.tick();
     if (c === W) {
@@ -322,10 +327,14 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
     }
     let load = 0;
     let next = W;
+    let largestUnused = 0;
     for (let i = 0; i < n; i++) {
       const x = xs[i]!;
-      if (x >= 0 && x <= c && x + s[i]! > c) { load += s[i]!; if (x + s[i]! < next) next = x + s[i]!; }
+      if (x < 0) { if (largestUnused === 0) largestUnused = s[i]!; continue; }
+      if (x <= c && x + s[i]! > c) { load += s[i]!; if (x + s[i]! < next) next = x + s[i]!; }
     }
+    // every unused square starts at this column or later: the largest must still fit
+    if (largestUnused > W - c) return;
     for (const f of fixed) {
       if (f.x <= c && f.x + f.size > c) { load += f.size; if (f.x + f.size < next) next = f.x + f.size; }
     }
@@ -336,7 +345,8 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
     // a column with a deficit: squares must start here; build suffix subset sums
     const limit = Math.min(D, W - c);
     const words = (D >> 5) + 1;
-    const bits = new Uint32Array((n + 1) * words);
+    const bits = pool[depth] ?? (pool[depth] = new Uint32Array((n + 1) * maxWords));
+    bits.fill(0, 0, (n + 1) * words);
     bits[n * words] = 1;
     for (let i = n - 1; i >= 0; i--) {
       const base = i * words;
@@ -352,12 +362,16 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
         bits[base + w]! |= v;
       }
     }
-    const has = (i: number, v: number) => ((bits[i * words + (v >> 5)]! >>> (v & 31)) & 1) === 1;
-    if (!has(0, D)) return;
-    chooseSubset(c, D, 0, has, limit);
+    if (((bits[D >> 5]! >>> (D & 31)) & 1) === 0) return;
+    depth++;
+    try {
+      chooseSubset(c, D, 0, bits, words, limit);
+    } finally {
+      depth--;
+    }
   }
 
-  function chooseSubset(c: number, rem: number, from: number, has: (i: number, v: number) => boolean, limit: number): void {
+  function chooseSubset(c: number, rem: number, from: number, bits: Uint32Array, words: number, limit: number): void {
     for (let i = from; i < n; i++) {
       if (xs[i]! >= 0) continue;
       const si = s[i]!;
@@ -365,7 +379,7 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
       const ps = prevSame[i]!;
       if (ps >= 0 && xs[ps]! < 0) continue; // equal sizes: canonical (index) order
       const r = rem - si;
-      if (r !== 0 && !has(i + 1, r)) continue;
+      if (r !== 0 && ((bits[(i + 1) * words + (r >> 5)]! >>> (r & 31)) & 1) === 0) continue;
       if (mirror && c > 0 && c + si === W && si > leftMax) continue;
       meter.tick();
       xs[i] = c;
@@ -373,7 +387,7 @@ export function solveAssembly(input: AssemblyInput, options: AssemblyOptions = {
       const savedLeft = leftMax;
       if (c === 0 && si > leftMax) leftMax = si;
       if (r === 0) phaseX(c);
-      else chooseSubset(c, r, i + 1, has, limit);
+      else chooseSubset(c, r, i + 1, bits, words, limit);
       leftMax = savedLeft;
       placedX--;
       xs[i] = -1;

@@ -7,7 +7,7 @@ export interface GivensOptions {
   seed?: number;
   /** greedy restarts (default 16) */
   restarts?: number;
-  /** the exact search tries every subset of a size only when there are at most this many (default 20 000) */
+  /** the exact search tries every subset of a size only when there are at most this many (default 2 500) */
   exactLimit?: number;
 }
 
@@ -32,14 +32,14 @@ function binomial(n: number, k: number): number {
 /**
  * Choose as few givens as possible so that the puzzle solves at the requested level.
  * Greedy removal with seeded restarts gives inclusion-minimal sets (engine.md 8.2); then
- * every subset smaller than the best is tried, size by size, while there are few enough
+ * every subset one smaller than the best is tried while there are few enough of them
  * (minimum forcing sets are hard in general, so the exact part is bounded).
  */
 export function chooseGivens(board: DeductionBoard, rules: DeductionRules, options: GivensOptions = {}): GivensChoice {
   const n = board.layout.cells.length;
   const random = mulberry32(options.seed ?? 1);
   const restarts = options.restarts ?? 16;
-  const exactLimit = options.exactLimit ?? 20_000;
+  const exactLimit = options.exactLimit ?? 2_500;
   let checks = 0;
   const solvable = (g: readonly number[]) => { checks++; return isSolvable(board, g, rules); };
   const all = Array.from({ length: n }, (_, i) => i);
@@ -52,14 +52,17 @@ export function chooseGivens(board: DeductionBoard, rules: DeductionRules, optio
     }
     if (current.size < best.length) best = [...current].sort((a, b) => a - b);
   }
-  // exact search below the greedy best
-  let proved = true;
-  for (let size = 0; size < best.length; size++) {
-    if (binomial(n, size) > exactLimit) { proved = false; break; }
+  // exact search below the greedy best. Solvability is monotone (more givens, more
+  // knowledge), so if no set of size m works, no smaller set does: it is enough to try
+  // size best - 1, and to go on downwards only while that succeeds.
+  for (;;) {
+    const size = best.length - 1;
+    if (size < 0) return { givens: best, minimal: 'proved', checks };
+    if (binomial(n, size) > exactLimit) return { givens: best, minimal: 'inclusion', checks };
     const found = firstSolvableSubset(n, size, solvable);
-    if (found) return { givens: found, minimal: 'proved', checks };
+    if (!found) return { givens: best, minimal: 'proved', checks };
+    best = found;
   }
-  return { givens: best, minimal: proved ? 'proved' : 'inclusion', checks };
 }
 
 function firstSolvableSubset(n: number, size: number, solvable: (g: readonly number[]) => boolean): number[] | null {

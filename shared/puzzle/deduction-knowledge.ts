@@ -17,18 +17,20 @@ export class WeightedUnionFind {
 
   /** The root of v's class; compresses the path and keeps offsets to the root. */
   find(v: number): number {
+    const parent = this.parent;
+    const offset = this.offset;
     let root = v;
-    while (this.parent[root] !== root) root = this.parent[root]!;
-    // second pass: point every node on the path at the root, summing offsets
+    let acc = 0; // coord(v) - coord(root), summed along the path
+    while (parent[root] !== root) { acc += offset[root]!; root = parent[root]!; }
+    // second pass: point every node on the path at the root with its offset to the root
     let cur = v;
-    let acc = 0;
-    const path: number[] = [];
-    while (this.parent[cur] !== cur) { path.push(cur); cur = this.parent[cur]!; }
-    for (let i = path.length - 1; i >= 0; i--) {
-      const p = path[i]!;
-      acc += this.offset[p]!;
-      this.offset[p] = acc;
-      this.parent[p] = root;
+    while (parent[cur] !== root && cur !== root) {
+      const next = parent[cur]!;
+      const off = offset[cur]!;
+      offset[cur] = acc;
+      parent[cur] = root;
+      acc -= off;
+      cur = next;
     }
     return root;
   }

@@ -116,18 +116,21 @@ function closureUnionFind(board: DeductionBoard, givens: readonly number[], rule
 /** Shortest chain lengths (number of known lengths) between segments, capped at 255. */
 class ChainLengths {
   readonly d: Uint8Array;
+  private readonly da: Uint8Array;
+  private readonly db: Uint8Array;
   constructor(readonly size: number) {
     this.d = new Uint8Array(size * size).fill(255);
     for (let i = 0; i < size; i++) this.d[i * size + i] = 0;
+    this.da = new Uint8Array(size);
+    this.db = new Uint8Array(size);
   }
   get(a: number, b: number): number {
     return this.d[a * this.size + b]!;
   }
+  /** a new known length between a and b: relax every pair through it */
   add(a: number, b: number): void {
-    const { d, size } = this;
+    const { d, size, da, db } = this;
     if (d[a * size + b] === 1) return;
-    const da = new Uint8Array(size);
-    const db = new Uint8Array(size);
     for (let u = 0; u < size; u++) { da[u] = d[u * size + a]!; db[u] = d[u * size + b]!; }
     for (let u = 0; u < size; u++) {
       const ua = da[u]!;
@@ -135,10 +138,10 @@ class ChainLengths {
       if (ua === 255 && ub === 255) continue;
       const row = u * size;
       for (let v = 0; v < size; v++) {
-        const viaAB = ua + 1 + db[v]!; // u..a - b..v (db[v] = d[v][b] = d[b][v])
+        const viaAB = ua + 1 + db[v]!; // u..a - b..v (d is symmetric)
         const viaBA = ub + 1 + da[v]!;
         const best = viaAB < viaBA ? viaAB : viaBA;
-        if (best < d[row + v]!) d[row + v] = best > 255 ? 255 : best;
+        if (best < d[row + v]!) d[row + v] = best;
       }
     }
   }
