@@ -1,5 +1,6 @@
 import type { AppDeps } from '../deps';
 import { seedDemoStock } from './stock-seed';
+import { seedDemoFoundry } from '../services/foundry-demo';
 import { seedDemoPayouts } from '../payments/demo-seed';
 import { seedDemoEditions } from '../services/proofs';
 import { seedDemoPublications } from '../services/publications';
@@ -12,6 +13,7 @@ export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> 
 export const seeders: DemoSeeder[] = [
   // stock first: puzzles and editions are made from stock tilings
   { name: 'stock', seed: seedDemoStock },
+  { name: 'foundry', seed: seedDemoFoundry },
   { name: 'publications', seed: seedDemoPublications },
   // editions after the puzzles seeder (it drives the proof round with printable puzzles)
   { name: 'editions', seed: seedDemoEditions },
