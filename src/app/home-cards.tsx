@@ -1,5 +1,5 @@
 import type { Role } from '../lib/roles';
-import type { LazyPage } from './route-types';
+import { lazyPage, type LazyPage } from './route-types';
 
 /** A card on a role's Home page. */
 export interface HomeCard {
@@ -26,13 +26,13 @@ const editors: readonly Role[] = ['editor', 'admin'];
 export const homeCards: readonly HomeCard[] = [
   // setter
   { id: 'setter-submissions', roles: ['setter'], title: 'My recent submissions', description: 'Your latest tilings and where each one stands in review.', link: { label: 'All my submissions', to: '/submissions' } },
-  { id: 'setter-earnings', roles: ['setter'], title: 'Earnings this month', description: 'Fees for puzzles printed this month, and your next payout.', link: { label: 'Earnings', to: '/earnings' } },
+  { id: 'setter-earnings', roles: ['setter'], title: 'Earnings this month', description: 'Fees for puzzles printed this month, and your next payout.', link: { label: 'Earnings', to: '/earnings' }, component: lazyPage(() => import('../features/earnings/components/earnings-home-card'), 'EarningsHomeCard') },
   // editor (and admin)
   { id: 'editor-pending', roles: editors, title: 'Pending submissions', description: 'Submissions waiting for a review.', link: { label: 'Review queue', to: '/review' } },
   { id: 'editor-due', roles: editors, title: 'Editions due soon', description: 'Editions whose date is near, and what they still need.', link: { label: 'Editions', to: '/editions' } },
   { id: 'editor-returned', roles: editors, title: 'Proofs returned', description: 'Proofs the printer sent back with notes.', link: { label: 'Editions', to: '/editions' } },
   { id: 'editor-foundry', roles: editors, title: 'Foundry runs finished', description: 'Runs that have finished since you last looked, and what they added to the stock.', link: { label: 'Foundry', to: '/foundry' } },
-  { id: 'editor-owed', roles: editors, title: 'Setters owed', description: 'Fees accrued and not yet paid out.', link: { label: 'Payouts', to: '/payouts' } },
+  { id: 'editor-owed', roles: editors, title: 'Setters owed', description: 'Fees accrued and not yet paid out.', link: { label: 'Payouts', to: '/payouts' }, component: lazyPage(() => import('../features/payouts/components/owed-home-card'), 'OwedHomeCard') },
   // admin
   { id: 'admin-users', roles: ['admin'], title: 'People', description: 'Invite setters, editors and printers, change roles, deactivate accounts.', link: { label: 'Users', to: '/admin/users' } },
   { id: 'admin-mailbox', roles: ['admin'], title: 'Mailbox (local)', description: 'Mail caught by the local fake mail server: invitations, resets, proof notices.', link: { label: 'Open the mailbox', to: '/admin/mailbox' } },

@@ -1,0 +1,34 @@
+import { formatMoney } from '../../../../shared/contracts/ledger';
+import { Alert } from '../../../components/alert';
+import { Loading } from '../../../components/page';
+import { errorMessage } from '../../../lib/api-client';
+import { useEarnings } from '../api/get-earnings';
+import { PayoutStateBadge } from './payout-state-badge';
+
+/** Home card (setter): fees this month, what is owed, and the latest payout. */
+export function EarningsHomeCard() {
+  const earnings = useEarnings();
+  if (earnings.isPending) return <Loading />;
+  if (earnings.error) return <Alert tone="danger" title="Could not load your earnings">{errorMessage(earnings.error)}</Alert>;
+  const month = new Date().toISOString().slice(0, 7);
+  const thisMonth = earnings.data.statements.find((s) => s.month === month);
+  const latest = earnings.data.payouts[0];
+  return (
+    <div className="flex flex-col gap-2 text-sm">
+      <p>
+        This month:{' '}
+        <span className="font-semibold tabular-nums">{thisMonth ? thisMonth.totals.map((t) => formatMoney(t.amountMinor, t.currency)).join(' + ') : formatMoney(0, 'GBP')}</span>
+      </p>
+      <p>
+        Owed to you:{' '}
+        <span className="font-semibold tabular-nums">{earnings.data.owed.length ? earnings.data.owed.map((o) => formatMoney(o.amountMinor, o.currency)).join(' + ') : formatMoney(0, 'GBP')}</span>
+      </p>
+      {latest ? (
+        <p className="flex items-center gap-2">
+          Latest payout: <span className="tabular-nums">{formatMoney(latest.amountMinor, latest.currency)}</span> <PayoutStateBadge state={latest.state} />
+        </p>
+      ) : null}
+      {!earnings.data.details || earnings.data.details.status !== 'ready' ? <p className="text-ink-muted">Add your payout details to be paid.</p> : null}
+    </div>
+  );
+}
