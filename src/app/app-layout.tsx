@@ -1,4 +1,5 @@
-import { NavLink, Outlet, useNavigate, useNavigation } from 'react-router-dom';
+import { useEffect, useRef } from 'react';
+import { NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router-dom';
 import { Button } from '../components/button';
 import { SquarewrightMark } from '../components/mark';
 import { useSignOut } from '../features/auth/api/sign-out';
@@ -13,6 +14,15 @@ export function AppLayout() {
   const navigation = useNavigation();
   const signOut = useSignOut();
   const items = navByRole[user.role];
+  const location = useLocation();
+  const mainRef = useRef<HTMLElement>(null);
+  const firstPath = useRef(location.pathname);
+  // After moving to another page, put the keyboard focus at the start of the new content.
+  useEffect(() => {
+    if (location.pathname === firstPath.current) return;
+    firstPath.current = '';
+    mainRef.current?.focus({ preventScroll: true });
+  }, [location.pathname]);
   return (
     <div className="flex min-h-dvh flex-col">
       <a
@@ -62,7 +72,7 @@ export function AppLayout() {
             ))}
           </ul>
         </nav>
-        <main id="main" tabIndex={-1} className="flex-1 px-5 py-6 lg:px-10 lg:py-8" aria-busy={navigation.state === 'loading' || undefined}>
+        <main ref={mainRef} id="main" tabIndex={-1} className="flex-1 outline-none px-5 py-6 lg:px-10 lg:py-8" aria-busy={navigation.state === 'loading' || undefined}>
           <div className="mx-auto max-w-6xl">
             <Outlet />
           </div>

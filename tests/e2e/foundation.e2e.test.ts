@@ -29,6 +29,7 @@ describe('foundation in the browser', () => {
       await screenshot(page, `home-${role}`);
       // axe-core WCAG 2.1 A/AA rules: no serious or critical finding on the role's home.
       expect(await seriousAxeViolations(page)).toEqual([]);
+      expect(harness.consoleErrors()).toEqual([]);
     }, 120_000);
   }
 
@@ -103,6 +104,13 @@ describe('foundation in the browser', () => {
     const second = await again.newPage();
     await second.goto(link);
     await second.getByText('This invitation cannot be used').waitFor();
+
+    // The new user signs out: back to sign-in, and the session is gone.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Sign in' }).waitFor();
+    expect((await page.request.get('/api/me')).status()).toBe(401);
+    await page.goto('/submissions');
+    await page.waitForURL(/\/sign-in\?next=%2Fsubmissions/);
   });
 
   it('a forgotten password is set anew from the link in the caught mail, and the link works once', async () => {

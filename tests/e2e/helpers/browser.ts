@@ -46,6 +46,8 @@ export interface BrowserHarness {
   page: () => Page;
   /** Another isolated context, e.g. a second person; closed after the test. */
   newContext: () => Promise<BrowserContext>;
+  /** Errors the pages of this test logged to the browser console, or threw uncaught. */
+  consoleErrors: () => string[];
 }
 
 /**
@@ -58,7 +60,17 @@ export function useBrowser(): BrowserHarness {
   let context: BrowserContext | undefined;
   let page: Page | undefined;
   const extra: BrowserContext[] = [];
+  const errors: string[] = [];
   const missing = browserMissingReason();
+  const watch = (c: BrowserContext) => {
+    c.on('page', (p) => {
+      p.on('console', (m) => {
+        if (m.type() === 'error') errors.push(`${p.url()}: ${m.text()}`);
+      });
+      p.on('pageerror', (e) => errors.push(`${p.url()}: uncaught ${e.message}`));
+    });
+    return c;
+  };
 
   beforeAll(async () => {
     if (missing) {
@@ -74,7 +86,8 @@ export function useBrowser(): BrowserHarness {
       ctx.skip(missing ?? 'no browser');
       return;
     }
-    context = await browser.newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 860 } });
+    errors.length = 0;
+    context = watch(await browser.newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 860 } }));
     page = await context.newPage();
   });
   afterEach(async (ctx) => {
@@ -99,10 +112,11 @@ export function useBrowser(): BrowserHarness {
     context: () => need(context, 'the browser context'),
     page: () => need(page, 'the page'),
     newContext: async () => {
-      const c = await need(browser, 'the browser').newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 860 } });
+      const c = watch(await need(browser, 'the browser').newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 860 } }));
       extra.push(c);
       return c;
     },
+    consoleErrors: () => [...errors],
   };
 }
 
