@@ -92,6 +92,21 @@ describe('foundry runs API', () => {
     expect((b.summary as { rejectedKnown: number }).rejectedKnown).toBeGreaterThanOrEqual(3);
   });
 
+  it('a joining run makes perfect squared squares from same-size stock pairs and stores them', async () => {
+    const editor = await t.signInAs('editor');
+    const fill = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 14 }).expect(201)).body);
+    // OEIS A002839: 744 simple perfect squared rectangles of order 14
+    expect((await waitFinished(editor, fill.id)).summary).toMatchObject({ simplePerfect: 744 });
+    const join = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'joining' }).expect(201)).body);
+    const run = await waitFinished(editor, join.id);
+    expect(run.state).toBe('done');
+    expect(run.found).toBeGreaterThan(0);
+    const results = runResultsSchema.parse((await editor.get(`/api/foundry/runs/${join.id}/results`).expect(200)).body);
+    for (const r of results.items) expect([r.square, r.perfect, r.simple]).toEqual([true, true, false]);
+    // the two 928 x 705 rectangles of order 14 joined corner to corner: side 928 + 705
+    expect(results.items.map((r) => `${r.width}x${r.order}`)).toContain('1633x30');
+  });
+
   it('cancels a running run; what it found so far stays', async () => {
     const editor = await t.signInAs('editor');
     const started = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 18 }).expect(201)).body);
