@@ -69,6 +69,27 @@ describe('payout runs', () => {
     expect(earnings.owed).toEqual([]);
   });
 
+  it('two clicks at once with the same key: one run, one transfer, one payout', async () => {
+    const editor = await t.signInAs('editor');
+    const s = await newSetter('Hana');
+    const accountId = await t.onboard(s.agent, s.id);
+    t.seedFees(s.id, [2200]);
+    const before = t.fake.stats();
+    const requestKey = randomUUID();
+    const [a, b] = await Promise.all([
+      editor.post('/api/payouts/runs').send({ requestKey, setterIds: [s.id] }),
+      editor.post('/api/payouts/runs').send({ requestKey, setterIds: [s.id] }),
+    ]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect(a.body.run.id).toBe(b.body.run.id);
+    expect([a.body.replayed, b.body.replayed].sort()).toEqual([false, true]);
+    const after = t.fake.stats();
+    expect(after.created.transfers - before.created.transfers).toBe(1);
+    expect(after.created.payouts - before.created.payouts).toBe(1);
+    await t.fake.settleAll();
+    expect(t.fake.paidOutTo(accountId)).toEqual({ gbp: 2200 });
+  });
+
   it('skips a setter without payout details and says why', async () => {
     const editor = await t.signInAs('editor');
     const s = await newSetter('Noor');
