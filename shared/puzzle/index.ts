@@ -49,6 +49,11 @@ export type { Certificate, CertificateInput, CertificateVerdict, AssemblyCertifi
 export { sha256Hex } from './sha256';
 export { canonicalJson } from './canonical-json';
 
+// ---- Command line ----------------------------------------------------------------------
+/** parseFrameArg / parsePiecesArg / parseStartersArg / parseLevelArg: the CLI arguments; assembleAnswer / deduceAnswer: the documented JSON answers. */
+export { parseFrameArg, parsePiecesArg, parseStartersArg, parseLevelArg, assembleAnswer, deduceAnswer } from './cli-format';
+export type { AssembleAnswer, DeduceAnswer } from './cli-format';
+
 // ---- Plumbing -------------------------------------------------------------------------
 /** PuzzleInputError: bad input, with a stable code and the field at fault. */
 export { PuzzleInputError } from './errors';
