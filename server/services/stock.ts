@@ -146,7 +146,7 @@ export function listStock(db: DbOrTx, q: StockListQuery): StockList {
   const col = sortColumns[q.sort.key];
   const dir = q.sort.desc ? desc : asc;
   const rows = db
-    .select(itemColumns)
+    .select({ ...itemColumns, squaresJson: stock.squaresJson })
     .from(stock)
     .where(where)
     .orderBy(dir(col), dir(stock.id))
@@ -154,7 +154,12 @@ export function listStock(db: DbOrTx, q: StockListQuery): StockList {
     .offset((q.page - 1) * q.pageSize)
     .all();
   const total = db.select({ n: count() }).from(stock).where(where).get()?.n ?? 0;
-  return { items: rows.map(toItem), total, page: q.page, pageSize: q.pageSize };
+  return {
+    items: rows.map(({ squaresJson, ...r }) => ({ ...toItem(r), tiling: tilingFromJson(r.width, r.height, squaresJson) })),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+  };
 }
 
 export function stockTiling(db: DbOrTx, id: number): { tiling: Tiling; canonicalKey: string } {

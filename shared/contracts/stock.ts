@@ -85,8 +85,12 @@ export const stockItemSchema = z.object({
 });
 export type StockItem = z.infer<typeof stockItemSchema>;
 
+/** A list row also carries its squares, so tables draw thumbnails without another request. */
+export const stockListItemSchema = stockItemSchema.extend({ tiling: tilingSchema });
+export type StockListItem = z.infer<typeof stockListItemSchema>;
+
 export const stockListSchema = z.object({
-  items: z.array(stockItemSchema),
+  items: z.array(stockListItemSchema),
   total: z.number().int(),
   page: z.number().int(),
   pageSize: z.number().int(),

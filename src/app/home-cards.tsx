@@ -25,10 +25,10 @@ const editors: readonly Role[] = ['editor', 'admin'];
  */
 export const homeCards: readonly HomeCard[] = [
   // setter
-  { id: 'setter-submissions', roles: ['setter'], title: 'My recent submissions', description: 'Your latest tilings and where each one stands in review.', link: { label: 'All my submissions', to: '/submissions' } },
+  { id: 'setter-submissions', roles: ['setter'], title: 'My recent submissions', description: 'Your latest tilings and where each one stands in review.', link: { label: 'All my submissions', to: '/submissions' }, component: lazyPage(() => import('../features/submissions/components/recent-submissions-card'), 'RecentSubmissionsCard') },
   { id: 'setter-earnings', roles: ['setter'], title: 'Earnings this month', description: 'Fees for puzzles printed this month, and your next payout.', link: { label: 'Earnings', to: '/earnings' }, component: lazyPage(() => import('../features/earnings/components/earnings-home-card'), 'EarningsHomeCard') },
   // editor (and admin)
-  { id: 'editor-pending', roles: editors, title: 'Pending submissions', description: 'Submissions waiting for a review.', link: { label: 'Review queue', to: '/review' } },
+  { id: 'editor-pending', roles: editors, title: 'Pending submissions', description: 'Submissions waiting for a review.', link: { label: 'Review queue', to: '/review' }, component: lazyPage(() => import('../features/review/components/pending-card'), 'PendingSubmissionsCard') },
   { id: 'editor-due', roles: editors, title: 'Editions due soon', description: 'Editions whose date is near, and what they still need.', link: { label: 'Editions', to: '/editions' } },
   { id: 'editor-returned', roles: editors, title: 'Proofs returned', description: 'Proofs the printer sent back with notes.', link: { label: 'Editions', to: '/editions' } },
   { id: 'editor-foundry', roles: editors, title: 'Foundry runs finished', description: 'Runs that have finished since you last looked, and what they added to the stock.', link: { label: 'Foundry', to: '/foundry' } },

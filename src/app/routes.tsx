@@ -17,12 +17,13 @@ const admins: readonly Role[] = ['admin'];
  */
 export const appRoutes: readonly AppRoute[] = [
   // setter
-  { path: 'submit', title: 'Submit', roles: setters, summary: 'Send in a tiling: paste a code, upload a file or sketch a network.' },
-  { path: 'submissions', title: 'My submissions', roles: setters, summary: 'Your submissions with their state and the editor’s notes.' },
+  { path: 'submit', title: 'Submit', roles: setters, page: lazyPage(() => import('../features/submit/components/submit-page'), 'SubmitPage') },
+  { path: 'submissions', title: 'My submissions', roles: setters, page: lazyPage(() => import('../features/submissions/components/my-submissions-page'), 'MySubmissionsPage') },
   { path: 'earnings', title: 'Earnings', roles: setters, page: lazyPage(() => import('../features/earnings/components/earnings-page'), 'EarningsPage') },
   // editor (and admin)
-  { path: 'review', title: 'Review queue', roles: editors, summary: 'Submissions waiting for review: accept into the stock or reject with a note.' },
-  { path: 'stock', title: 'Stock', roles: editors, summary: 'Every verified tiling, with filters, provenance and reuse history.' },
+  { path: 'review', title: 'Review queue', roles: editors, page: lazyPage(() => import('../features/review/components/review-page'), 'ReviewPage') },
+  { path: 'stock', title: 'Stock', roles: editors, page: lazyPage(() => import('../features/stock/components/stock-page'), 'StockPage') },
+  { path: 'stock/:id', title: 'Stock tiling', roles: editors, page: lazyPage(() => import('../features/stock/components/stock-detail-page'), 'StockDetailPage') },
   { path: 'puzzles', title: 'Puzzles', roles: editors, summary: 'Assembly and Deduction puzzles with their certificates.' },
   { path: 'editions', title: 'Editions', roles: editors, page: lazyPage(() => import('../features/editions/components/editions-page'), 'EditionsPage') },
   { path: 'editions/:id', title: 'Edition', roles: editors, page: lazyPage(() => import('../features/editions/components/edition-page'), 'EditionPage') },

@@ -1,0 +1,114 @@
+import { useState } from 'react';
+import type { Submission } from '../../../../shared/contracts/submissions';
+import { Alert } from '../../../components/alert';
+import { Button } from '../../../components/button';
+import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
+import { EmptyState } from '../../../components/empty-state';
+import { controlClasses } from '../../../components/field';
+import { Page } from '../../../components/page';
+import { StatusBadge } from '../../../components/status-badge';
+import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
+import { errorMessage } from '../../../lib/api-client';
+import { formatDate } from '../../../lib/format';
+import { useReviewList } from '../api/list-review';
+import { useBulkReview } from '../api/review-submission';
+import { ReviewDrawer } from './review-drawer';
+
+const col = dataTableColumnHelper<Submission>();
+
+/** /review (editor): the queue of pending submissions; open one, accept or reject; several at once. */
+export function ReviewPage() {
+  const params = useTableSearchParams({ filterKeys: ['status', 'duplicate', 'q'], defaultSort: { id: 'createdAt', desc: false } });
+  const search = toListSearch(params.query);
+  if (!params.query.filters.status) search.status = 'pending';
+  if (params.query.filters.status === 'all') delete search.status;
+  const list = useReviewList(search);
+  const [open, setOpen] = useState<number | null>(null);
+  const [selected, setSelected] = useState<Set<number>>(new Set());
+  const [bulkNote, setBulkNote] = useState('');
+  const bulk = useBulkReview();
+  const rows = list.data?.items ?? [];
+
+  const toggle = (id: number) => setSelected((s) => { const n = new Set(s); if (n.has(id)) n.delete(id); else n.add(id); return n; });
+  const columns = col.columns([
+    col.display({
+      id: 'select',
+      header: () => <span className="sr-only">Select</span>,
+      cell: (c) => (
+        <input
+          type="checkbox"
+          aria-label={`Select submission ${c.row.original.id}`}
+          checked={selected.has(c.row.original.id)}
+          disabled={c.row.original.status !== 'pending'}
+          onClick={(e) => e.stopPropagation()}
+          onKeyDown={(e) => e.stopPropagation()}
+          onChange={() => toggle(c.row.original.id)}
+        />
+      ),
+    }),
+    col.accessor('title', { header: 'Title', cell: (c) => c.getValue() ?? <span className="text-ink-muted">Untitled</span> }),
+    col.accessor('setterName', { header: 'Setter', enableSorting: false, cell: (c) => c.getValue() ?? '–' }),
+    col.accessor('width', { header: 'Size', cell: (c) => `${c.row.original.width} × ${c.row.original.height}` }),
+    col.accessor('order', { header: 'Order' }),
+    col.display({
+      id: 'class',
+      header: 'Class',
+      cell: (c) => `${c.row.original.perfect ? 'perfect' : 'imperfect'}, ${c.row.original.simple ? 'simple' : 'compound'}`,
+    }),
+    col.accessor('duplicateOf', {
+      header: 'Duplicate',
+      enableSorting: false,
+      cell: (c) => (c.getValue() ? <StatusBadge tone="warning">{c.getValue() === 'stock' ? 'In stock' : 'Also pending'}</StatusBadge> : '–'),
+    }),
+    col.accessor('status', { header: 'State' }),
+    col.accessor('createdAt', { header: 'Sent', cell: (c) => formatDate(c.getValue()) }),
+  ]);
+
+  function runBulk(action: 'accept' | 'reject') {
+    bulk.mutate(
+      { ids: [...selected], action, ...(bulkNote.trim() ? { note: bulkNote.trim() } : {}) },
+      { onSuccess: () => { setSelected(new Set()); setBulkNote(''); } },
+    );
+  }
+  const failed = bulk.data?.results.filter((r) => !r.ok) ?? [];
+
+  return (
+    <Page title="Review queue" description="Submissions waiting for a decision. Open one to see its drawing, Smith diagram, codes and duplicates.">
+      {selected.size > 0 ? (
+        <div role="region" aria-label="Bulk review" className="flex flex-wrap items-end gap-3 rounded-md border border-rule bg-paper-deep p-3">
+          <p className="text-sm font-semibold">{selected.size} selected</p>
+          <label className="flex grow flex-col gap-1 text-sm">
+            <span className="font-semibold">Note to the setters (needed to reject)</span>
+            <input className={controlClasses} value={bulkNote} onChange={(e) => setBulkNote(e.target.value)} />
+          </label>
+          <Button variant="primary" busy={bulk.isPending} onClick={() => runBulk('accept')}>Accept selected</Button>
+          <Button variant="danger" busy={bulk.isPending} disabled={!bulkNote.trim()} onClick={() => runBulk('reject')}>Reject selected</Button>
+        </div>
+      ) : null}
+      {bulk.error ? <Alert tone="danger" title="Nothing was changed">{errorMessage(bulk.error)}</Alert> : null}
+      {failed.length > 0 ? (
+        <Alert tone="warning" title={`${failed.length} could not be changed`}>
+          <ul>{failed.map((f) => <li key={f.id}>Submission {f.id}: {f.error}</li>)}</ul>
+        </Alert>
+      ) : null}
+      <DataTable
+        label="Submissions to review"
+        columns={columns}
+        rows={rows}
+        total={list.data?.total}
+        params={params}
+        loading={list.isFetching}
+        error={list.error}
+        getRowId={(r) => String(r.id)}
+        onRowActivate={(r) => setOpen(r.id)}
+        filters={[
+          { id: 'q', label: 'Title contains', kind: 'text' },
+          { id: 'status', label: 'State', kind: 'select', anyLabel: 'Pending', options: [{ value: 'accepted', label: 'Accepted' }, { value: 'rejected', label: 'Rejected' }, { value: 'all', label: 'All' }] },
+          { id: 'duplicate', label: 'Duplicates', kind: 'select', options: [{ value: 'true', label: 'Only duplicates' }, { value: 'false', label: 'No duplicates' }] },
+        ]}
+        empty={<EmptyState title="Nothing waiting">The queue is empty. New submissions appear here as setters send them.</EmptyState>}
+      />
+      <ReviewDrawer id={open} onClose={() => setOpen(null)} />
+    </Page>
+  );
+}

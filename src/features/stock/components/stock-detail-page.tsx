@@ -1,0 +1,62 @@
+import { Link, useParams } from 'react-router-dom';
+import { Alert } from '../../../components/alert';
+import { ButtonLink } from '../../../components/button';
+import { Card, Loading, Page } from '../../../components/page';
+import { SmithDiagram } from '../../../components/smith-diagram';
+import { TilingDrawing } from '../../../components/tiling-drawing';
+import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
+import { errorMessage } from '../../../lib/api-client';
+import { formatDate, formatDateTime } from '../../../lib/format';
+import { useStockDetail } from '../api/get-stock';
+
+const eventText = { submitted: 'Submitted', accepted: 'Accepted into the stock', added: 'Added' } as const;
+
+/** /stock/:id (editor): drawing, Smith diagram, codes, class, provenance, history, "make a puzzle". */
+export function StockDetailPage() {
+  const { id } = useParams();
+  const n = Number(id);
+  const detail = useStockDetail(Number.isInteger(n) && n > 0 ? n : 0);
+  if (detail.isPending) return <Loading />;
+  if (detail.error) return <Alert tone="danger" title="Could not load this tiling">{errorMessage(detail.error)}</Alert>;
+  const d = detail.data;
+  return (
+    <Page
+      title={`Stock tiling ${d.id}`}
+      description={<Link to="/stock">← Back to the stock</Link>}
+      actions={<ButtonLink to={`/puzzles/new?stockId=${d.id}`} variant="primary">Make a puzzle</ButtonLink>}
+    >
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Card title="Drawing">
+          <TilingDrawing tiling={d.tiling} />
+        </Card>
+        <Card title="Smith diagram">{d.smith ? <SmithDiagram diagram={d.smith} /> : <p>Not available.</p>}</Card>
+        <Card title="Class and codes">
+          <div className="flex flex-col gap-3">
+            <TilingFacts facts={d} />
+            <p className="text-sm text-ink-muted">Sizes {d.classification.minSize} to {d.classification.maxSize}; {d.classification.subRectangles.length} sub-rectangle(s).</p>
+            <TilingCode label="Bouwkamp code" code={d.bouwkamp} />
+            <TilingCode label="Canonical code" code={d.canonicalCode} />
+          </div>
+        </Card>
+        <Card title="Provenance and history">
+          <div className="flex flex-col gap-2 text-sm">
+            <p>From: <strong>{d.provenance}</strong>{d.params ? <code className="ml-2 text-xs text-ink-muted">{JSON.stringify(d.params)}</code> : null}</p>
+            <ol className="flex flex-col gap-1">
+              {d.history.events.map((e, i) => (
+                <li key={i}>{formatDateTime(e.at)}: {eventText[e.kind]}{e.submissionId ? ` (submission ${e.submissionId})` : ''}{e.note ? `, ${e.note}` : ''}</li>
+              ))}
+            </ol>
+            <p className="font-semibold">Puzzles derived</p>
+            {d.history.puzzles.length ? (
+              <ul>{d.history.puzzles.map((p) => <li key={p.id}><Link to={`/puzzles/${p.id}`}>{p.kind} {p.id}</Link>{p.grade ? `, grade ${p.grade}` : ''}, {formatDate(p.createdAt)}</li>)}</ul>
+            ) : <p className="text-ink-muted">None yet.</p>}
+            <p className="font-semibold">Editions used in</p>
+            {d.history.editions.length ? (
+              <ul>{d.history.editions.map((e) => <li key={e.id}>{e.title}, {formatDate(e.date)}</li>)}</ul>
+            ) : <p className="text-ink-muted">None yet.</p>}
+          </div>
+        </Card>
+      </div>
+    </Page>
+  );
+}
