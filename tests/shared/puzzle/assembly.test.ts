@@ -3,6 +3,7 @@ import { canonicalKey, parseTiling, verifyTiling } from '../../../shared/tiling/
 import type { Tiling } from '../../../shared/tiling/index';
 import { solveAssembly } from '../../../shared/puzzle/assembly';
 import { PuzzleInputError } from '../../../shared/puzzle/errors';
+import { mulberry32 } from '../../../shared/puzzle/prng';
 import { catalogue } from './catalogue';
 import { referenceAssemble } from './reference-solver';
 
@@ -89,6 +90,45 @@ describe('assembly agrees with the plain reference solver', () => {
       expect(fast.classes).toBe(classesOf(ref).size);
     });
   }
+
+  it('on seeded random small sets (imperfect, often impossible): raw counts, classes and verdicts', () => {
+    const rnd = mulberry32(2024);
+    let none = 0;
+    let some = 0;
+    for (let t = 0; t < 40; t++) {
+      const W = 3 + Math.floor(rnd() * 5);
+      const H = 3 + Math.floor(rnd() * 4);
+      const pieces: number[] = [];
+      let area = W * H;
+      while (area > 0) {
+        const s = 1 + Math.floor(rnd() * Math.min(W, H, 4));
+        if (s * s <= area) { pieces.push(s); area -= s * s; }
+      }
+      const ref = referenceAssemble(W, H, pieces);
+      const fast = solveAssembly({ width: W, height: H, pieces }, { mode: 'count' });
+      expect(fast.rawSolutions, `${W}x${H} ${pieces.join(',')}`).toBe(ref.length);
+      expect(fast.classes).toBe(classesOf(ref).size);
+      if (ref.length === 0) { none++; expect(fast.verdict).toBe('none'); } else some++;
+    }
+    expect(none).toBeGreaterThan(0);
+    expect(some).toBeGreaterThan(0);
+  });
+
+  it('never counts permutations of equal sizes: four 1s fill 2 x 2 in exactly one placement', () => {
+    const r = solveAssembly({ width: 2, height: 2, pieces: [1, 1, 1, 1] }, { mode: 'count' });
+    expect(r.rawSolutions).toBe(1);
+    expect(r.verdict).toBe('unique');
+  });
+
+  it('works in a frame taller than wide: the 33 x 32 set in 32 x 33 (squaring.net)', () => {
+    const t = parseTiling('9 33 32 (18,15)(7,8)(14,4)(10,1)(9)');
+    const ref = referenceAssemble(32, 33, sizesOf(t));
+    const fast = solveAssembly({ width: 32, height: 33, pieces: sizesOf(t) }, { mode: 'count' });
+    expect(fast.verdict).toBe('unique');
+    expect(fast.rawSolutions).toBe(ref.length);
+    expect(fast.rawSolutions).toBe(4); // a perfect rectangle has 4 distinct images in its own frame
+    expect(canonicalKey(fast.solutions[0]!)).toBe(canonicalKey(t));
+  });
 
   it('6x6 with five 2s and sixteen 1s: 273 classes, 1974 raw (measured by our prototype, engine.md 7.1)', () => {
     const r = solveAssembly({ width: 6, height: 6, pieces: [2, 2, 2, 2, 2, ...Array<number>(16).fill(1)] }, { mode: 'count' });
