@@ -15,7 +15,7 @@ const monthParams = z.object({ month: monthSchema }).strict();
 export function registerEarningsRoutes(router: ApiRouter, deps: AppDeps) {
   route(router, { method: 'GET', path: '/api/earnings', summary: 'My ledger entries, statements, payouts and payout details', tags: ['earnings'], response: earningsSchema }, async ({ user }) => {
     if (deps.payments) await refreshPayoutDetails(payoutsDepsOrFail(deps), user.id);
-    return earningsOf(deps.db, user.id);
+    return earningsOf(deps.db, user.id, deps.clock.now());
   });
 
   // The .csv route first: '/:month' would otherwise take '2026-11.csv' as a month.

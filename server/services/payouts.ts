@@ -383,9 +383,10 @@ export async function refreshPayoutDetails(deps: PayoutsDeps, setterId: string):
 }
 
 /** GET /api/earnings for one setter. */
-export function earningsOf(db: DbOrTx, setterId: string): Earnings {
+export function earningsOf(db: DbOrTx, setterId: string, now: Date = new Date()): Earnings {
   const owed: CurrencyTotal[] = owedBalances(db, setterId).map((b) => ({ currency: b.currency, amountMinor: b.owedMinor }));
   return {
+    month: now.toISOString().slice(0, 7),
     entries: listEntries(db, setterId).reverse(),
     statements: listStatementMonths(db, setterId),
     payouts: listPayouts(db, eq(payout.setterId, setterId)),

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { currencySchema, currencyTotalSchema, ledgerEntrySchema, statementSummarySchema } from './ledger';
+import { currencySchema, currencyTotalSchema, ledgerEntrySchema, monthSchema, statementSummarySchema } from './ledger';
 
 // Payout runs and setters' payout details. The provider holds the bank details; we keep
 // only its account id and a display hint.
@@ -110,6 +110,8 @@ export const payoutDetailsResponseSchema = z.object({
 
 /** GET /api/earnings (setter). */
 export const earningsSchema = z.object({
+  /** The current month by the server's clock, YYYY-MM. */
+  month: monthSchema,
   entries: z.array(ledgerEntrySchema),
   statements: z.array(statementSummarySchema),
   payouts: z.array(payoutSchema),

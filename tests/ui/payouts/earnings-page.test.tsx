@@ -10,6 +10,7 @@ const entry = {
   amountMinor: 6000, currency: 'GBP', date: '2026-11-21', reason: null, correctsEntryId: null, createdAt: '2026-11-21T08:00:00.000Z',
 };
 const earnings = {
+  month: '2026-12',
   entries: [entry],
   statements: [{ month: '2026-11', entryCount: 1, totals: [{ currency: 'GBP', amountMinor: 6000 }] }],
   payouts: [{ id: 'po-1', runId: 'r1', setterId: 'u-setter', setterName: 'Demo setter', amountMinor: 6000, currency: 'GBP', state: 'paid', attempt: 1, failureMessage: null, createdAt: '2026-11-30T10:00:00.000Z', updatedAt: '2026-11-30T10:00:02.000Z', paidAt: '2026-11-30T10:00:02.000Z' }],

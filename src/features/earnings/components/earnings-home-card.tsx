@@ -10,8 +10,7 @@ export function EarningsHomeCard() {
   const earnings = useEarnings();
   if (earnings.isPending) return <Loading />;
   if (earnings.error) return <Alert tone="danger" title="Could not load your earnings">{errorMessage(earnings.error)}</Alert>;
-  const month = new Date().toISOString().slice(0, 7);
-  const thisMonth = earnings.data.statements.find((s) => s.month === month);
+  const thisMonth = earnings.data.statements.find((s) => s.month === earnings.data.month);
   const latest = earnings.data.payouts[0];
   return (
     <div className="flex flex-col gap-2 text-sm">
