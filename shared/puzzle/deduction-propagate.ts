@@ -209,7 +209,7 @@ function chain(adj: Edge[][], a: number, b: number, k: number): Edge[] | null {
 function stepText(label: string, terms: StepTerm[], value: number): string {
   const pos = terms.filter((t) => t.sign === 1).map((t) => String(t.value));
   const neg = terms.filter((t) => t.sign === -1).map((t) => String(t.value));
-  if (terms.length === 1) return `${label} = ${value}`;
+  if (terms.length === 1) return `${label} = ${value} (as ${terms[0]!.label})`;
   const expr = (pos.length > 0 ? pos.join(' + ') : '0') + neg.map((v) => ` - ${v}`).join('');
   return `${label} = ${expr} = ${value}`;
 }

@@ -10,9 +10,9 @@ import { catalogue } from './catalogue';
 const board = (t: Tiling): DeductionBoard => ({ layout: tilingLayout(t), sizes: t.squares.map((q) => q.s) });
 const INF = Number.POSITIVE_INFINITY;
 
-/** Evaluate "C = 33 - 18 = 15" independently of the engine's own sum. */
+/** Evaluate "C = 33 - 18 = 15" (or "C = 15 (as A)") independently of the engine's own sum. */
 function arithmetic(text: string): { label: string; expr: number; result: number } {
-  const [label, ...rest] = text.split(' = ');
+  const [label, ...rest] = text.replace(/ \(as [A-Z]+\)$/, '').split(' = ');
   const result = Number(rest[rest.length - 1]);
   const expr = rest.length === 1 ? result : rest[0]!.split(' ').reduce<{ acc: number; sign: number }>((st, tok) => {
     if (tok === '+') return { ...st, sign: 1 };
@@ -88,6 +88,13 @@ describe('deduction propagation', () => {
     // with C = 7 as well, H = F + C - G is a chain of three lengths: level 2 is stuck, level 3 solves
     expect(isSolvable(board(t), [0, 2, 5], { level: 2, showFrame: false })).toBe(false);
     expect(isSolvable(board(t), [0, 2, 5], { level: 3, showFrame: false })).toBe(true);
+  });
+
+  it('a one-term step names the square it copies', () => {
+    // two 2s side by side in a 4 x 2 frame: B hangs between the same top and bottom lines as A
+    const t: Tiling = { W: 4, H: 2, squares: [{ x: 0, y: 0, s: 2 }, { x: 2, y: 0, s: 2 }] };
+    const run = explainDeduction(board(t), [0], { level: 1, showFrame: false });
+    expect(run.steps.map((s) => s.text)).toEqual(['B = 2 (as A)']);
   });
 
   it('the bug guard stops a deduction that disagrees with the true size', () => {
