@@ -63,6 +63,13 @@ export interface DataTableProps<T extends RowData> {
 
 const noRows: never[] = [];
 
+/** True when a row event started on a control inside the row (checkbox, link, button): that control handles it, not the row. */
+function fromControlInside(event: React.SyntheticEvent): boolean {
+  const target = event.target as Element | null;
+  const control = target?.closest?.('a, button, input, select, textarea, label, [role="button"], [role="checkbox"]');
+  return Boolean(control && control !== event.currentTarget && event.currentTarget.contains(control));
+}
+
 /**
  * A real list: server-side sort, filter and pagination, all held in the URL so a view
  * can be bookmarked and shared. The server must answer `{ items, total }` for
@@ -172,9 +179,11 @@ export function DataTable<T extends RowData>({
                   {...(onRowActivate
                     ? {
                         tabIndex: 0,
-                        onClick: () => onRowActivate(row.original),
+                        onClick: (e: React.MouseEvent) => {
+                          if (!fromControlInside(e)) onRowActivate(row.original);
+                        },
                         onKeyDown: (e: React.KeyboardEvent) => {
-                          if (e.key === 'Enter') onRowActivate(row.original);
+                          if (e.key === 'Enter' && !fromControlInside(e)) onRowActivate(row.original);
                         },
                       }
                     : {})}

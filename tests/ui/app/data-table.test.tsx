@@ -61,3 +61,28 @@ describe('DataTable', () => {
     expect(new URLSearchParams(router.state.location.search).get('state')).toBe('new');
   });
 });
+
+describe('DataTable rows', () => {
+  it('activate on click or Enter, but not when a control inside the row is used', async () => {
+    const activated: string[] = [];
+    const withBox = col.columns([
+      col.display({ id: 'pick', header: 'Pick', cell: (c) => <input type="checkbox" aria-label={`Pick ${c.row.original.id}`} /> }),
+      col.accessor('order', { header: 'Order' }),
+    ]);
+    function Rows() {
+      const params = useTableSearchParams();
+      return <DataTable label="Stock" columns={withBox} rows={rows} total={2} params={params} getRowId={(r) => r.id} onRowActivate={(r) => activated.push(r.id)} />;
+    }
+    const router = createMemoryRouter([{ path: '/', element: <Rows /> }]);
+    render(<RouterProvider router={router} />);
+    const user = userEvent.setup();
+    await user.click(screen.getByLabelText('Pick a'));
+    expect(activated).toEqual([]);
+    const table = screen.getByRole('table', { name: 'Stock' });
+    await user.click(within(table).getByText('10'));
+    expect(activated).toEqual(['b']);
+    within(table).getByText('9').closest('tr')?.focus();
+    await user.keyboard('{Enter}');
+    expect(activated).toEqual(['b', 'a']);
+  });
+});
