@@ -149,6 +149,11 @@ export class JobRunner {
     return rows.map(toRecord);
   }
 
+  /** Ids of the jobs this runner has queued or running in a worker right now. */
+  active(): string[] {
+    return [...this.queue.map((q) => q.id), ...this.slots.flatMap((s) => (s.busy ? [s.busy.id] : []))];
+  }
+
   /** Resolves once the job reaches a final state. */
   wait(id: string): Promise<JobRecord> {
     const r = this.get(id);

@@ -6,7 +6,7 @@ import { runListSchema, runResultsSchema, runSchema, type Run } from '../../../s
 import { closeDatabase, openDatabase } from '../../../server/db/client';
 import { stock } from '../../../server/db/schema/stock';
 import { JobRunner } from '../../../server/jobs/runner';
-import { closeJobRunner } from '../../../server/jobs/runtime';
+import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;
@@ -140,5 +140,10 @@ describe('foundry runs API', () => {
     const r = runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body);
     expect(r.state).toBe('interrupted');
     expect(r.error).toMatch(/server stopped/);
+    // stop the old process's worker; its late answer must not overwrite the state
+    expect(jobRunnerFor(t.db).cancel(started.id)).toBe(true);
+    for (let i = 0; i < 200 && jobRunnerFor(t.db).active().includes(started.id); i++) await new Promise((res) => setTimeout(res, 50));
+    expect(jobRunnerFor(t.db).active()).not.toContain(started.id);
+    expect(runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body).state).toBe('interrupted');
   });
 });

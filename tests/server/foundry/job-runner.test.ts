@@ -41,7 +41,7 @@ describe('job runner', () => {
   });
 
   it('reports progress with done of total, rate and time left while running', async () => {
-    const id = runner.submit({ kind: 'test-count', params: { to: 400, stepMs: 5 } });
+    const id = runner.submit({ kind: 'test-count', params: { to: 400, stepMs: 3 } });
     let seen = null as null | NonNullable<ReturnType<JobRunner['get']>>['progress'];
     for (let i = 0; i < 100 && !seen; i++) {
       await new Promise((r) => setTimeout(r, 50));
