@@ -6,6 +6,7 @@ import { useSignOut } from '../features/auth/api/sign-out';
 import { roleLabel } from '../lib/roles';
 import { navByRole } from './nav';
 import { useSessionUser } from './role-guard';
+import { useSessionExpiry } from './use-session-expiry';
 
 /** The signed-in frame: header (mark, name, user, sign out), the role's navigation, and the page. */
 export function AppLayout() {
@@ -14,6 +15,7 @@ export function AppLayout() {
   const navigation = useNavigation();
   const signOut = useSignOut();
   const items = navByRole[user.role];
+  useSessionExpiry();
   const location = useLocation();
   const mainRef = useRef<HTMLElement>(null);
   const firstPath = useRef(location.pathname);

@@ -52,3 +52,16 @@ describe('the route guard', () => {
     expect(await screen.findByRole('heading', { level: 1, name: 'Page not found' })).toBeTruthy();
   });
 });
+
+describe('an expired session', () => {
+  it('sends the user to sign in when a page’s data is answered 401, and back after', async () => {
+    stubFetch({
+      'GET /api/me': meAs('admin'),
+      'GET /api/admin/users': { status: 401, body: { error: { code: 'unauthorized', message: 'Sign in first' } } },
+      'GET /api/public/config': { body: { demo: false } },
+    });
+    const { router } = renderApp('/admin/users');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Sign in' })).toBeTruthy();
+    expect(router.state.location.search).toBe(`?next=${encodeURIComponent('/admin/users')}`);
+  });
+});
