@@ -1,6 +1,8 @@
 import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { dirname } from 'node:path';
 import Stripe from 'stripe';
 
 // A local stand-in for the payments provider, so development, the demo and the tests run
@@ -24,6 +26,12 @@ export type PaymentsFakeOptions = {
   autoSettle?: boolean;
   /** Log line sink; default silent. */
   log?: (line: string) => void;
+  /**
+   * Keep the fake's objects (accounts, transfers, payouts, balances, idempotency cache) in
+   * this JSON file, so a restarted dev server finds the accounts and keys it made before.
+   * Failure flags are not kept. Default: memory only.
+   */
+  stateFile?: string;
 };
 
 type Obj = Record<string, unknown>;
@@ -146,6 +154,45 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     webhooksFailed: 0,
   };
 
+  function saveState(): void {
+    if (!options.stateFile) return;
+    const data = {
+      accounts: [...accounts.values()],
+      links: [...links.entries()],
+      transfers: [...transfers.values()],
+      payouts: [...payouts.values()],
+      balances: [...balances.entries()].map(([a, m]) => [a, [...m.entries()]]),
+      idempotency: [...idempotency.entries()],
+    };
+    mkdirSync(dirname(options.stateFile), { recursive: true });
+    const tmp = `${options.stateFile}.${process.pid}.tmp`;
+    writeFileSync(tmp, JSON.stringify(data));
+    renameSync(tmp, options.stateFile);
+  }
+
+  function loadState(): void {
+    if (!options.stateFile || !existsSync(options.stateFile)) return;
+    try {
+      const data = JSON.parse(readFileSync(options.stateFile, 'utf8')) as {
+        accounts: Account[];
+        links: [string, { account: string; returnUrl: string; refreshUrl: string; expiresAt: number }][];
+        transfers: Obj[];
+        payouts: { payout: PayoutObj; account: string }[];
+        balances: [string, [string, number][]][];
+        idempotency: [string, { fingerprint: string; status: number; body: string }][];
+      };
+      for (const a of data.accounts) accounts.set(a.id, a);
+      for (const [id, l] of data.links) links.set(id, l);
+      for (const t of data.transfers) transfers.set(String(t.id), t);
+      for (const p of data.payouts) payouts.set(p.payout.id, p);
+      for (const [a, m] of data.balances) balances.set(a, new Map(m));
+      for (const [k, v] of data.idempotency) idempotency.set(k, v);
+      log(`state loaded from ${options.stateFile}: ${accounts.size} accounts, ${payouts.size} payouts`);
+    } catch (error) {
+      log(`state file ${options.stateFile} unreadable, starting empty (${(error as Error).message})`);
+    }
+  }
+
   const balance = (account: string) => {
     let b = balances.get(account);
     if (!b) balances.set(account, (b = new Map()));
@@ -205,6 +252,15 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       entry.payout.status = 'paid';
       sendWebhook('payout.paid', entry.payout, entry.account);
     }
+    saveState();
+  }
+
+  function scheduleSettle(id: string): void {
+    const t = setTimeout(() => {
+      timers.delete(t);
+      settle(id);
+    }, settleDelayMs);
+    timers.add(t);
   }
 
   function accountObject(id: string): Account {
@@ -317,13 +373,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
         };
         payouts.set(payout.id, { payout, account: stripeAccount });
         stats.created.payouts++;
-        if (autoSettle) {
-          const t = setTimeout(() => {
-            timers.delete(t);
-            settle(payout.id);
-          }, settleDelayMs);
-          timers.add(t);
-        }
+        if (autoSettle) scheduleSettle(payout.id);
         return payout;
       },
     },
@@ -366,6 +416,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
         has_more: false,
       };
       links.delete(linkId);
+      saveState();
       sendWebhook('account.updated', account, account.id);
       res.writeHead(303, { location: link.returnUrl });
       res.end();
@@ -452,6 +503,7 @@ Nothing is collected here: submitting attaches a test bank account ending 6789 t
         }
         // The provider keeps the answer to an idempotent request, errors included (not 5xx).
         if (scope && status < 500) idempotency.set(scope, { fingerprint, status, body: out });
+        if (method === 'POST') saveState();
         log(`${method} ${path} -> ${status}`);
         return sendJson(res, status, out, key ? { 'idempotency-key': key } : {});
       } catch (error) {
@@ -460,6 +512,9 @@ Nothing is collected here: submitting attaches a test bank account ending 6789 t
       }
     });
   });
+
+  loadState();
+  if (autoSettle) for (const { payout } of payouts.values()) if (payout.status === 'pending') scheduleSettle(payout.id);
 
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -494,6 +549,7 @@ Nothing is collected here: submitting attaches a test bank account ending 6789 t
       account.payouts_enabled = true;
       account.capabilities = { transfers: 'active' };
       account.external_accounts = { object: 'list', data: [{ id: newId('ba'), object: 'bank_account', bank_name: 'Fake Test Bank', last4: '6789', currency: 'gbp' }], has_more: false };
+      saveState();
     },
     settleAll: async () => {
       for (const t of timers) clearTimeout(t);

@@ -1,4 +1,6 @@
 import { randomBytes } from 'node:crypto';
+import { isAbsolute, join, resolve } from 'node:path';
+import { appRoot } from '../app-root';
 import type { AppDeps } from '../deps';
 import type { Env } from '../env';
 import { FAKE_SECRET_KEY, startPaymentsFake } from '../fakes/payments-fake';
@@ -40,6 +42,8 @@ export const localPaymentsFake: LocalFake = {
       webhookSecret,
       webhookUrl: `${env.PUBLIC_URL}${webhookPath}`,
       settleDelayMs: 1_500,
+      // Kept beside the database, so a restarted server still finds its accounts and keys.
+      stateFile: join(isAbsolute(env.DATA_DIR) ? env.DATA_DIR : resolve(appRoot(), env.DATA_DIR), 'payments-fake.json'),
       log: (line) => log.debug(`payments fake: ${line}`),
     });
     return {

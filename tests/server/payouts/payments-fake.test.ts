@@ -1,4 +1,7 @@
+import { mkdtempSync, rmSync } from 'node:fs';
 import http from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -81,5 +84,27 @@ describe('the local fake provider', () => {
     expect((event.data.object as { id: string }).id).toBe(po.id);
     expect(() => sdk.webhooks.constructEvent(paid?.body ?? '', paid?.signature ?? '', 'whsec_another_secret_000000')).toThrow(Stripe.errors.StripeSignatureVerificationError);
     expect(() => sdk.webhooks.constructEvent((paid?.body ?? '').replace('900', '901'), paid?.signature ?? '', secret)).toThrow(Stripe.errors.StripeSignatureVerificationError);
+  });
+});
+
+describe('the local fake across a restart', () => {
+  it('keeps accounts, balances and idempotency keys in its state file', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'sw-fake-'));
+    const stateFile = join(dir, 'payments-fake.json');
+    const first = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, stateFile });
+    const one = new Stripe(FAKE_SECRET_KEY, { host: first.host, port: first.port, protocol: 'http', maxNetworkRetries: 0 });
+    const account = await one.accounts.create({ type: 'express', country: 'GB' });
+    first.completeOnboarding(account.id);
+    const transfer = await one.transfers.create({ amount: 300, currency: 'gbp', destination: account.id }, { idempotencyKey: 'restart-1' });
+    await first.stop();
+
+    const second = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, stateFile });
+    const two = new Stripe(FAKE_SECRET_KEY, { host: second.host, port: second.port, protocol: 'http', maxNetworkRetries: 0 });
+    const again = await two.transfers.create({ amount: 300, currency: 'gbp', destination: account.id }, { idempotencyKey: 'restart-1' });
+    expect(again.id).toBe(transfer.id);
+    expect(second.balanceOf(account.id)).toEqual({ gbp: 300 });
+    expect((await two.accounts.retrieve(account.id)).payouts_enabled).toBe(true);
+    await second.stop();
+    rmSync(dir, { recursive: true, force: true });
   });
 });
