@@ -52,7 +52,12 @@ function dlxCount(W: number, H: number, pieces: number[], maxOnes: number): { co
 }
 
 const sizes = (t: Tiling) => t.squares.map((q) => q.s);
-const MAX_DLX_ONES = Number(process.env.BENCH_DLX_ONES ?? 3_000_000);
+// DLX holds one node per matrix entry; beyond this many entries it would need hundreds of MB
+// on a shared machine (raise with BENCH_DLX_ONES to compare more sets).
+const MAX_DLX_ONES = Number(process.env.BENCH_DLX_ONES ?? 4_000_000);
+
+// warm the JIT up on a small case so the first measured run is not the compile
+solveAssembly({ width: 33, height: 32, pieces: [18, 15, 7, 8, 14, 4, 10, 1, 9] }, { mode: 'count' });
 
 console.log('puzzle: Assembly on the catalogue sets (fast vs reference solver vs dancing-links DLX; all counts must agree)');
 for (const order of [9, 10, 11, 12, 13]) {
@@ -141,7 +146,9 @@ for (const [level, showFrame] of [[2, false], [3, false], [4, false], [Number.PO
   const ms: number[] = [];
   const counts: number[] = [];
   let proved = 0;
-  for (const t of randomByOrder.get(25) ?? []) {
+  const sets = randomByOrder.get(25) ?? [];
+  if (sets[0]) chooseGivens(deductionBoard(sets[0]), { level, showFrame }, { seed: 2 }); // JIT warm-up, not measured
+  for (const t of sets) {
     const board = deductionBoard(t);
     const r = time(() => chooseGivens(board, { level, showFrame }, { seed: 1 }));
     ms.push(r.ms);
