@@ -35,10 +35,15 @@ export function dataTableColumnHelper<T extends RowData>() {
   return createColumnHelper<DataTableFeatures, T>();
 }
 
-/** A filter control above the table, bound to one URL search param. */
+/**
+ * A filter control above the table, bound to one URL search param. `width` 'narrow'
+ * suits numbers (order from/to), 'wide' free text; the default fits most selects.
+ */
 export type DataTableFilter =
-  | { id: string; label: string; kind: 'text'; placeholder?: string }
-  | { id: string; label: string; kind: 'select'; options: readonly SelectOption[]; anyLabel?: string };
+  | { id: string; label: string; kind: 'text'; placeholder?: string; width?: FilterWidth }
+  | { id: string; label: string; kind: 'select'; options: readonly SelectOption[]; anyLabel?: string; width?: FilterWidth };
+export type FilterWidth = 'narrow' | 'normal' | 'wide';
+const filterWidth: Record<FilterWidth, string> = { narrow: 'w-28', normal: 'min-w-40', wide: 'min-w-64' };
 
 export interface DataTableProps<T extends RowData> {
   /** Accessible name of the table (rendered as its caption, visually hidden unless `showCaption`). */
@@ -249,15 +254,15 @@ function FilterControl({ filter, value, onChange }: { filter: DataTableFilter; v
         placeholder={filter.anyLabel ?? 'Any'}
         value={value}
         onChange={(e) => onChange(e.target.value)}
-        className="min-w-40"
+        className={filterWidth[filter.width ?? 'normal']}
       />
     );
   }
-  return <DebouncedText label={filter.label} placeholder={filter.placeholder} value={value} onChange={onChange} />;
+  return <DebouncedText label={filter.label} placeholder={filter.placeholder} value={value} onChange={onChange} className={filterWidth[filter.width ?? 'wide']} />;
 }
 
 /** Text filter that writes to the URL 300 ms after typing stops. */
-function DebouncedText({ label, placeholder, value, onChange }: { label: string; placeholder?: string | undefined; value: string; onChange: (v: string) => void }) {
+function DebouncedText({ label, placeholder, value, onChange, className }: { label: string; placeholder?: string | undefined; value: string; onChange: (v: string) => void; className: string }) {
   const [draft, setDraft] = useState(value);
   const [seen, setSeen] = useState(value);
   if (value !== seen) {
@@ -270,5 +275,5 @@ function DebouncedText({ label, placeholder, value, onChange }: { label: string;
     const timer = setTimeout(() => onChange(draft), 300);
     return () => clearTimeout(timer);
   }, [draft, value, onChange]);
-  return <TextField type="search" label={label} placeholder={placeholder} value={draft} onChange={(e) => setDraft(e.target.value)} className="min-w-56" />;
+  return <TextField type="search" label={label} placeholder={placeholder} value={draft} onChange={(e) => setDraft(e.target.value)} className={className} />;
 }
