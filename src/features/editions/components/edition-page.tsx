@@ -274,8 +274,8 @@ export function EditionPage() {
       <ErrorBox title="Could not publish" error={publish.error} />
       <div className="grid gap-6 lg:grid-cols-2">
         <div className="flex flex-col gap-6">
-          <Introduction key={`${e.id}-${e.updatedAt}`} edition={e} />
-          <Slots key={`${e.id}-${e.updatedAt}`} edition={e} />
+          <Introduction key={`${e.id}-${e.state}`} edition={e} />
+          <Slots key={`${e.id}-${e.state}-${e.slots.map((s) => s.puzzleId).join(',')}`} edition={e} />
         </div>
         <div className="flex flex-col gap-6">
           {e.state === 'draft' ? <Checks edition={e} /> : null}
