@@ -108,3 +108,47 @@ export function seedDemoStock(deps: AppDeps): void {
     }
   });
 }
+
+/**
+ * Two tilings side by side, scaled to the same height: A scaled by H_B/g next to B scaled
+ * by H_A/g (g = gcd of the heights). The result is a valid (compound) tiling.
+ */
+export function sideBySide(a: Tiling, b: Tiling): Tiling {
+  const gcd = (x: number, y: number): number => (y === 0 ? x : gcd(y, x % y));
+  const g = gcd(a.H, b.H);
+  const sa = b.H / g;
+  const sb = a.H / g;
+  const squares = [
+    ...a.squares.map((q) => ({ x: q.x * sa, y: q.y * sa, s: q.s * sa })),
+    ...b.squares.map((q) => ({ x: a.W * sa + q.x * sb, y: q.y * sb, s: q.s * sb })),
+  ];
+  return { W: a.W * sa + b.W * sb, H: a.H * sa, squares };
+}
+
+/**
+ * Fill a stock for load tests: `n` distinct tilings made by our engine, the simple ones from
+ * wheels with chords and the rest as pairs of them side by side. One transaction. Returns
+ * how many rows were created.
+ */
+export function seedBulkStock(db: Db, n: number): number {
+  const bases: Tiling[] = [];
+  for (const m of wheelChordTilings(6, 12, 2)) {
+    bases.push(m.tiling);
+    if (bases.length * (bases.length - 1) / 2 + bases.length >= n * 1.05) break;
+  }
+  let created = 0;
+  const provenances = ['foundry', 'demo', 'setter'] as const;
+  db.transaction((tx) => {
+    for (const t of bases) {
+      if (created >= n) break;
+      if (addToStock(tx, { tiling: t, provenance: 'foundry', params: { bulk: true } }).created) created++;
+    }
+    for (let i = 0; i < bases.length && created < n; i++) {
+      for (let j = i + 1; j < bases.length && created < n; j++) {
+        const t = sideBySide(bases[i]!, bases[j]!);
+        if (addToStock(tx, { tiling: t, provenance: provenances[(i + j) % 3]!, params: { bulk: true, pair: [i, j] } }).created) created++;
+      }
+    }
+  });
+  return created;
+}

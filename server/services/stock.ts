@@ -1,5 +1,5 @@
 import { and, asc, count, desc, eq, gt, gte, lte, sql, type SQL } from 'drizzle-orm';
-import { verifyTiling, type Tiling } from '../../shared/tiling/index';
+import { canonicalTiling, isSimple, toBouwkamp, verifyTiling, type Tiling } from '../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../shared/contracts/stock';
 import { stockFilterSchema } from '../../shared/contracts/stock';
 import type { z } from 'zod';
@@ -35,22 +35,21 @@ export interface AddToStockResult {
 export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult {
   const v = verifyTiling(input.tiling);
   if (!v.ok) throw new Unprocessable(`not a valid tiling: ${v.message}`, v.square === undefined ? undefined : { square: v.square });
-  const a = analyseTiling(input.tiling);
-  const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, a.canonicalKey)).get();
-  if (existing) return { id: existing.id, created: false, canonicalKey: a.canonicalKey };
-  const c = a.classification;
+  const f = stockFacts(input.tiling);
+  const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, f.canonicalKey)).get();
+  if (existing) return { id: existing.id, created: false, canonicalKey: f.canonicalKey };
   const row = tx
     .insert(stock)
     .values({
-      canonicalKey: a.canonicalKey,
-      canonicalCode: a.canonicalCode,
-      squaresJson: squaresToJson(a.canonical),
-      width: a.canonical.W,
-      height: a.canonical.H,
-      order: c.order,
-      square: c.square,
-      perfect: c.perfect,
-      simple: c.simple,
+      canonicalKey: f.canonicalKey,
+      canonicalCode: f.canonicalCode,
+      squaresJson: squaresToJson(f.canonical),
+      width: f.canonical.W,
+      height: f.canonical.H,
+      order: f.canonical.squares.length,
+      square: f.canonical.W === f.canonical.H,
+      perfect: f.perfect,
+      simple: f.simple,
       provenance: input.provenance,
       setterId: input.setterId ?? null,
       paramsJson: input.params ? JSON.stringify(input.params) : null,
@@ -58,7 +57,21 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
     })
     .returning({ id: stock.id })
     .get();
-  return { id: row.id, created: true, canonicalKey: a.canonicalKey };
+  return { id: row.id, created: true, canonicalKey: f.canonicalKey };
+}
+
+/**
+ * What a stock row needs, computed once: the canonical orientation (engine), its code and
+ * key read off that orientation's Bouwkamp code, the engine's fast simplicity test, and
+ * perfection as distinct sizes. Tests check it equals canonicalCode/canonicalKey/classifyTiling.
+ */
+export function stockFacts(t: Tiling) {
+  const canonical = canonicalTiling(t);
+  const canonicalCode = toBouwkamp(canonical, { header: true });
+  const sizes = canonicalCode.replace(/^\s*\d+\s+\d+\s+\d+\s*/, '').match(/\d+/g) ?? [];
+  const canonicalKey = `${canonical.W}x${canonical.H}:${sizes.join(',')}`;
+  const perfect = new Set(t.squares.map((q) => q.s)).size === t.squares.length;
+  return { canonical, canonicalCode, canonicalKey, perfect, simple: isSimple(t) };
 }
 
 /** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */

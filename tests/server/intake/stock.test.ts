@@ -187,3 +187,22 @@ describe('demo stock seeder', () => {
     expect(BigInt(r.tiling.H) * r.gcd).toBe(r.fullHeight);
   });
 });
+
+describe('stock facts (the fast path addToStock uses)', () => {
+  it('equal the engine’s canonicalCode, canonicalKey and classification on published and made tilings', async () => {
+    const { stockFacts } = await import('../../../server/services/stock');
+    const { canonicalCode, canonicalKey } = await import('../../../shared/tiling/index');
+    const { sideBySide, wheelChordTilings } = await import('../../../server/demo/stock-seed');
+    // published: facts.md, OEIS A014530 / A181340, squaring.net o10spsr.bkp; made: our wheels and pairs of them
+    const made = [...wheelChordTilings(6, 7, 1)].map((m) => m.tiling);
+    const tilings = [order9Code, order9bCode, order21Square, order24Compound, ...order10Codes].map((c) => parseTiling(c));
+    tilings.push(...made, sideBySide(tilings[0]!, tilings[1]!), sideBySide(made[0]!, made[3]!));
+    for (const t of tilings) {
+      const f = stockFacts(t);
+      const c = classifyTiling(t);
+      expect(f.canonicalCode).toBe(canonicalCode(t));
+      expect(f.canonicalKey).toBe(canonicalKey(t));
+      expect([f.perfect, f.simple]).toEqual([c.perfect, c.simple]);
+    }
+  });
+});
