@@ -18,7 +18,8 @@ export interface ExhaustiveOptions {
   /** only squared squares, with Gambini's filter on the pole edges */
   squaresOnly?: boolean;
   shouldStop?: () => boolean;
-  onProgress?: (p: { phase: 'graphs' | 'solving'; done: number; total: number; found: number }) => void;
+  /** 'levels': graph levels built; 'last-level': graphs with m - 1 edges extended; 'solving': graphs solved */
+  onProgress?: (p: { phase: 'levels' | 'last-level' | 'solving'; done: number; total: number; found: number }) => void;
   /** called once per distinct simple tiling, when first found */
   onFound?: (t: FoundTiling) => void;
 }
@@ -81,7 +82,8 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
   const graphs: { key: string; dualKey: string }[] = [];
   for (const g of planeGraphsWithEdges(m, {
     shouldStop,
-    onLevel: (e) => opts.onProgress?.({ phase: 'graphs', done: e - 6, total: levels, found: 0 }),
+    onLevel: (e) => opts.onProgress?.({ phase: 'levels', done: e - 6, total: levels, found: 0 }),
+    onParents: (e, done, total) => { if (e === m) opts.onProgress?.({ phase: 'last-level', done, total, found: 0 }); },
   })) graphs.push(g);
   summary.graphs = graphs.length;
   if (shouldStop()) {

@@ -18,6 +18,8 @@ export interface GenerateOptions {
   shouldStop?: () => boolean;
   /** Called when a lower level is complete (m, number of graphs). */
   onLevel?: (m: number, count: number) => void;
+  /** Progress inside a level: `done` of `total` graphs of level m - 1 extended (every 256). */
+  onParents?: (m: number, done: number, total: number) => void;
 }
 
 export const MIN_EDGES = 6;
@@ -45,7 +47,8 @@ export function* faceSplits(g: RotationSystem): Generator<RotationSystem> {
   }
 }
 
-function* level(prev: Iterable<string>, m: number, seen: Set<string>, shouldStop?: () => boolean): Generator<GeneratedGraph> {
+function* level(prev: readonly string[], m: number, seen: Set<string>, opts: GenerateOptions = {}): Generator<GeneratedGraph> {
+  const { shouldStop, onParents } = opts;
   if (m % 2 === 0) {
     const w = wheel(m / 2);
     const k = canonKey(w);
@@ -55,6 +58,7 @@ function* level(prev: Iterable<string>, m: number, seen: Set<string>, shouldStop
   let tick = 0;
   for (const gk of prev) {
     if ((++tick & 63) === 0 && shouldStop?.()) return;
+    if ((tick & 255) === 0) onParents?.(m, tick, prev.length);
     const g = graphFromKey(gk);
     for (const h of faceSplits(g)) {
       const k = canonKey(h);
@@ -87,13 +91,13 @@ export function* planeGraphsWithEdges(m: number, opts: GenerateOptions = {}): Ge
   opts.onLevel?.(MIN_EDGES, 1);
   for (let e = MIN_EDGES + 1; e < m; e++) {
     const seen = new Set<string>();
-    for (const _ of level(prev, e, seen, opts.shouldStop)) {
+    for (const _ of level(prev, e, seen, opts)) {
       if (opts.shouldStop?.()) return;
     }
     prev = [...seen];
     opts.onLevel?.(e, prev.length);
   }
-  for (const g of level(prev, m, new Set<string>(), opts.shouldStop)) {
+  for (const g of level(prev, m, new Set<string>(), opts)) {
     if (opts.shouldStop?.()) return;
     yield g;
   }

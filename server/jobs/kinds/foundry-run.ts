@@ -26,6 +26,12 @@ export interface FoundryInput {
   parts?: { id: string; tiling: Tiling }[];
 }
 
+const phaseLabel = {
+  levels: 'graph levels built',
+  'last-level': 'smaller graphs extended',
+  solving: 'graphs solved',
+} as const;
+
 function item(t: FoundTiling): FoundryItem {
   return { key: t.key, code: t.code, order: t.order, width: t.width, height: t.height, perfect: t.perfect, simple: t.simple, square: t.square, maxSize: t.maxSize, tiling: t.tiling, origin: t.origin };
 }
@@ -46,7 +52,7 @@ export const handler = defineJob({
         order: p.order,
         squaresOnly: p.squaresOnly,
         shouldStop: () => ctx.shouldStop(),
-        onProgress: (q) => ctx.progress({ phase: q.phase === 'graphs' ? 'graph levels' : 'graphs solved', done: q.done, total: q.total, found: q.found }),
+        onProgress: (q) => ctx.progress({ phase: phaseLabel[q.phase], done: q.done, total: q.total, found: q.found }),
         onFound,
       });
     }
