@@ -5,8 +5,18 @@
 
 import type { Tiling } from './types';
 
+function inReadingOrder(t: Tiling) {
+  const sq = t.squares;
+  for (let i = 1; i < sq.length; i++) {
+    const a = sq[i - 1]!;
+    const b = sq[i]!;
+    if (a.y > b.y || (a.y === b.y && a.x >= b.x)) return sq.slice().sort((p, q) => p.y - q.y || p.x - q.x);
+  }
+  return sq;
+}
+
 export function toBouwkamp(t: Tiling, opts?: { header?: boolean }): string {
-  const sq = t.squares.slice().sort((a, b) => a.y - b.y || a.x - b.x);
+  const sq = inReadingOrder(t);
   let body = '';
   for (let i = 0; i < sq.length; i++) {
     const q = sq[i]!;
@@ -22,9 +32,7 @@ export function toBouwkamp(t: Tiling, opts?: { header?: boolean }): string {
 
 /** Table code: the sizes in reading order without brackets, e.g. "18 15 7 8 14 4 10 1 9". */
 export function toTableCode(t: Tiling, opts?: { header?: boolean }): string {
-  const sizes = t.squares
-    .slice()
-    .sort((a, b) => a.y - b.y || a.x - b.x)
+  const sizes = inReadingOrder(t)
     .map((q) => q.s)
     .join(' ');
   return opts?.header === false ? sizes : `${t.squares.length} ${t.W} ${t.H} ${sizes}`;

@@ -21,7 +21,7 @@ export { classifyTiling, isSimple, subRectangles } from './classify';
 export { canonicalTiling, canonicalCode, canonicalKey, orientations, readingOrder } from './orientations';
 export { toBouwkamp, toTableCode } from './bouwkamp';
 export { solvePlaneNetwork } from './solve-network';
-export { bareissDeterminant, bareissSolve } from './bareiss';
+export { bareissDeterminant, bareissSolve, bareissSolveNumber } from './bareiss';
 export { smithDiagram } from './smith-diagram';
 export { checkKirchhoff } from './kirchhoff';
 export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';

@@ -5,25 +5,39 @@
 import type { Square, Tiling } from './types';
 import { toBouwkamp } from './bouwkamp';
 
-/** Sizes in Bouwkamp reading order: by top y, then left x. */
+/** Indices of squares in Bouwkamp reading order (top y, then left x), for corners (xs[i], ys[i]). */
+function readingIndices(xs: ArrayLike<number>, ys: ArrayLike<number>, W: number, H: number): Int32Array {
+  const n = xs.length;
+  const order = new Int32Array(n);
+  // packed key (y * (W + 1) + x) * n + i when it fits below 2^53 (native numeric sort)
+  if ((H + 1) * (W + 1) * n < 2 ** 52) {
+    const keys = new Float64Array(n);
+    for (let i = 0; i < n; i++) keys[i] = (ys[i]! * (W + 1) + xs[i]!) * n + i;
+    keys.sort();
+    for (let i = 0; i < n; i++) order[i] = keys[i]! % n;
+  } else {
+    for (let i = 0; i < n; i++) order[i] = i;
+    order.sort((a, b) => ys[a]! - ys[b]! || xs[a]! - xs[b]!);
+  }
+  return order;
+}
+
+/** Squares in Bouwkamp reading order: by top y, then left x. */
 export function readingOrder(squares: readonly Square[]): Square[] {
-  return squares.slice().sort((a, b) => a.y - b.y || a.x - b.x);
-}
-
-/** The 8 elements of the dihedral group acting on a W x H frame, as (flipX, flipY, transpose). */
-function transform(t: Tiling, transpose: boolean, flipX: boolean, flipY: boolean): Tiling {
-  const W = transpose ? t.H : t.W;
-  const H = transpose ? t.W : t.H;
-  const squares = t.squares.map((q) => {
-    let x = transpose ? q.y : q.x;
-    let y = transpose ? q.x : q.y;
-    if (flipX) x = W - x - q.s;
-    if (flipY) y = H - y - q.s;
-    return { x, y, s: q.s };
+  let W = 0;
+  let H = 0;
+  const xs = new Float64Array(squares.length);
+  const ys = new Float64Array(squares.length);
+  squares.forEach((q, i) => {
+    xs[i] = q.x;
+    ys[i] = q.y;
+    if (q.x + q.s > W) W = q.x + q.s;
+    if (q.y + q.s > H) H = q.y + q.s;
   });
-  return { W, H, squares: readingOrder(squares) };
+  return Array.from(readingIndices(xs, ys, W, H), (i) => squares[i]!);
 }
 
+/** The 8 elements of the dihedral group acting on the frame, as (transpose, flipX, flipY). */
 const GROUP: [boolean, boolean, boolean][] = [
   [false, false, false],
   [false, true, false],
@@ -35,6 +49,28 @@ const GROUP: [boolean, boolean, boolean][] = [
   [true, true, true],
 ];
 
+function transformed(t: Tiling, transpose: boolean, flipX: boolean, flipY: boolean) {
+  const W = transpose ? t.H : t.W;
+  const H = transpose ? t.W : t.H;
+  const n = t.squares.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const q = t.squares[i]!;
+    let x = transpose ? q.y : q.x;
+    let y = transpose ? q.x : q.y;
+    if (flipX) x = W - x - q.s;
+    if (flipY) y = H - y - q.s;
+    xs[i] = x;
+    ys[i] = y;
+  }
+  return { W, H, xs, ys, order: readingIndices(xs, ys, W, H) };
+}
+
+function build(t: Tiling, o: ReturnType<typeof transformed>): Tiling {
+  return { W: o.W, H: o.H, squares: Array.from(o.order, (i) => ({ x: o.xs[i]!, y: o.ys[i]!, s: t.squares[i]!.s })) };
+}
+
 /**
  * The orientations of a tiling with squares in reading order. By default those with W >= H
  * (4 for a rectangle, 8 for a square); with { all: true } all 8 images under the symmetries of
@@ -44,26 +80,33 @@ const GROUP: [boolean, boolean, boolean][] = [
 export function orientations(t: Tiling, opts?: { all?: boolean }): Tiling[] {
   const out: Tiling[] = [];
   for (const [tr, fx, fy] of GROUP) {
-    const o = transform(t, tr, fx, fy);
-    if (opts?.all || o.W >= o.H) out.push(o);
+    const W = tr ? t.H : t.W;
+    const H = tr ? t.W : t.H;
+    if (opts?.all || W >= H) out.push(build(t, transformed(t, tr, fx, fy)));
   }
   return out;
 }
 
-function compareCodes(a: readonly Square[], b: readonly Square[]): number {
-  const n = Math.min(a.length, b.length);
-  for (let i = 0; i < n; i++) {
-    const d = a[i]!.s - b[i]!.s;
-    if (d !== 0) return d;
-  }
-  return a.length - b.length;
-}
-
 /** The lexicographically largest orientation with W >= H. */
 export function canonicalTiling(t: Tiling): Tiling {
-  let best: Tiling | null = null;
-  for (const o of orientations(t)) if (best === null || compareCodes(o.squares, best.squares) > 0) best = o;
-  return best!;
+  const sq = t.squares;
+  let best: ReturnType<typeof transformed> | null = null;
+  for (const [tr, fx, fy] of GROUP) {
+    const W = tr ? t.H : t.W;
+    const H = tr ? t.W : t.H;
+    if (W < H) continue;
+    const o = transformed(t, tr, fx, fy);
+    if (best === null) {
+      best = o;
+      continue;
+    }
+    for (let i = 0; i < sq.length; i++) {
+      const d = sq[o.order[i]!]!.s - sq[best.order[i]!]!.s;
+      if (d > 0) best = o;
+      if (d !== 0) break;
+    }
+  }
+  return build(t, best!);
 }
 
 /** Canonical Bouwkamp code with header, e.g. "9 33 32 (18,15)(7,8)(14,4)(10,1)(9)". */

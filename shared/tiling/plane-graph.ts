@@ -16,6 +16,9 @@ export interface Darts {
   rev: Int32Array;
   /** face id of each dart (the face on the dart's traced side) */
   face: Int32Array;
+  /** the next dart around the same face, and one dart of each face */
+  faceNext: Int32Array;
+  faceFirst: Int32Array;
   faceCount: number;
   edgeCount: number;
 }
@@ -86,16 +89,21 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
   }
   // faces
   const face = new Int32Array(D).fill(-1);
+  const faceNext = new Int32Array(D);
+  const faceFirst = new Int32Array(D);
   let faceCount = 0;
   for (let d0 = 0; d0 < D; d0++) {
     if (face[d0] !== -1) continue;
+    faceFirst[faceCount] = d0;
     let d = d0;
     while (face[d] === -1) {
       face[d] = faceCount;
       const r = rev[d]!; // dart v -> u at v
       const v = tail[r]!;
       const deg = first[v + 1]! - first[v]!;
-      d = first[v]! + ((r - first[v]! + 1) % deg);
+      const nd = first[v]! + ((r - first[v]! + 1) % deg);
+      faceNext[d] = nd;
+      d = nd;
     }
     faceCount++;
   }
@@ -107,5 +115,5 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
       message: `the rotation system is not a plane embedding: V - E + F = ${n} - ${E} + ${faceCount} = ${n - E + faceCount}, not 2 (check that every vertex lists its neighbours in the same cyclic sense)`,
     };
   }
-  return { ok: true, darts: { tail, head, first, rev, face, faceCount, edgeCount: E } };
+  return { ok: true, darts: { tail, head, first, rev, face, faceNext, faceFirst: faceFirst.subarray(0, faceCount), faceCount, edgeCount: E } };
 }

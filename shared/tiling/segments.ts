@@ -32,9 +32,25 @@ export function maximalSegments(t: Tiling, vertical = false): Segments {
     lo[2 * i] = c;
     lo[2 * i + 1] = c;
   }
+  // sort entries by (line, lo): one packed numeric key per entry when it fits below 2^53
+  // (a native numeric sort of a Float64Array is far faster than a comparator sort)
   const order = new Int32Array(m);
-  for (let e = 0; e < m; e++) order[e] = e;
-  order.sort((a, b) => line[a]! - line[b]! || lo[a]! - lo[b]!);
+  let maxLine = 0;
+  let maxLo = 0;
+  for (let e = 0; e < m; e++) {
+    if (line[e]! > maxLine) maxLine = line[e]!;
+    if (lo[e]! > maxLo) maxLo = lo[e]!;
+  }
+  if ((maxLine + 1) * (maxLo + 1) * m < 2 ** 52) {
+    const keys = new Float64Array(m);
+    const span = maxLo + 1;
+    for (let e = 0; e < m; e++) keys[e] = (line[e]! * span + lo[e]!) * m + e;
+    keys.sort();
+    for (let r = 0; r < m; r++) order[r] = keys[r]! % m;
+  } else {
+    for (let e = 0; e < m; e++) order[e] = e;
+    order.sort((a, b) => line[a]! - line[b]! || lo[a]! - lo[b]!);
+  }
   const at: number[] = [];
   const start: number[] = [];
   const end: number[] = [];

@@ -33,7 +33,7 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
   const check = analysePlaneGraph(g);
   if (!check.ok) return check;
   const { n } = g;
-  const { tail, head, first, rev, face, faceCount } = check.darts;
+  const { tail, head, first, rev, face, faceNext, faceFirst, faceCount } = check.darts;
   const D = tail.length;
   const p = pole?.p;
   const q = pole?.q;
@@ -132,33 +132,33 @@ export function solvePlaneNetwork(g: PlaneGraph, pole: { p: number; q: number })
   }
 
   // face potentials (x): for a non-pole edge hi -> lo, x(face(lo->hi)) = x(face(hi->lo)) + size
-  const fx: number[] = [];
-  const faceDarts: number[][] = [];
-  for (let f = 0; f < faceCount; f++) {
-    faceDarts.push([]);
-    fx.push(NaN);
-  }
-  for (let d = 0; d < D; d++) faceDarts[face[d]!]!.push(d);
+  const fx = new Float64Array(faceCount).fill(NaN);
   fx[face[poleD]!] = 0;
-  const queue = [face[poleD]!];
+  const queue = new Int32Array(faceCount);
+  queue[0] = face[poleD]!;
+  let qn = 1;
   let minX = 0;
-  for (let qi = 0; qi < queue.length; qi++) {
+  for (let qi = 0; qi < qn; qi++) {
     const f = queue[qi]!;
     const xf = fx[f]!;
-    for (const d of faceDarts[f]!) {
-      if (d === poleD || d === poleR) continue;
-      const diff = pot[tail[d]!]! - pot[head[d]!]!; // > 0 when d runs hi -> lo
-      const other = face[rev[d]!]!;
-      const want = xf + diff;
-      const seen = fx[other]!;
-      if (Number.isNaN(seen)) {
-        fx[other] = want;
-        if (want < minX) minX = want;
-        queue.push(other);
-      } else if (seen !== want) {
-        return { ok: false, code: 'not-plane', message: `the face potentials are inconsistent at edge ${tail[d]}-${head[d]}: the rotation system is not a plane embedding of this network` };
+    const d0 = faceFirst[f]!;
+    let d = d0;
+    do {
+      if (d !== poleD && d !== poleR) {
+        const diff = pot[tail[d]!]! - pot[head[d]!]!; // > 0 when d runs hi -> lo
+        const other = face[rev[d]!]!;
+        const want = xf + diff;
+        const seen = fx[other]!;
+        if (Number.isNaN(seen)) {
+          fx[other] = want;
+          if (want < minX) minX = want;
+          queue[qn++] = other;
+        } else if (seen !== want) {
+          return { ok: false, code: 'not-plane', message: `the face potentials are inconsistent at edge ${tail[d]}-${head[d]}: the rotation system is not a plane embedding of this network` };
+        }
       }
-    }
+      d = faceNext[d]!;
+    } while (d !== d0);
   }
   for (let f = 0; f < faceCount; f++) {
     if (Number.isNaN(fx[f]!)) return { ok: false, code: 'not-plane', message: `face ${f} cannot be reached from the pole faces` };

@@ -38,9 +38,12 @@ export function verifyTiling(t: Tiling): VerifyResult {
     return fail(`the squares cover an area of ${area}, the frame ${W} x ${H} = ${W * H}`);
   }
   // disjointness: sweep over x
+  // indices sorted by x: packed keys x * n + i (below 2^53 since x <= 2^31, n <= 2000)
+  const keys = new Float64Array(n);
+  for (let i = 0; i < n; i++) keys[i] = squares[i]!.x * n + i;
+  keys.sort();
   const order = new Int32Array(n);
-  for (let i = 0; i < n; i++) order[i] = i;
-  order.sort((a, b) => squares[a]!.x - squares[b]!.x);
+  for (let i = 0; i < n; i++) order[i] = keys[i]! % n;
   for (let a = 0; a < n; a++) {
     const i = order[a]!;
     const p = squares[i]!;
