@@ -9,3 +9,4 @@ export * from './jobs';
 export * from './foundry';
 export * from './publications';
 export * from './editions';
+export * from './puzzles';
