@@ -113,8 +113,7 @@ export function certify(input: CertificateInput, options: CertifyOptions = {}): 
   const d = norm as DeductionCertificateInput;
   const now = (globalThis as { performance?: { now(): number } }).performance;
   const t0 = now?.now() ?? Date.now();
-  const level = d.level === 'closure' ? Number.POSITIVE_INFINITY : d.level;
-  const result = evaluateDeduction(d.tiling, deductionGivenIndexes(d), { level, showFrame: d.showFrame });
+  const result = evaluateDeduction(d.tiling, deductionGivenIndexes(d), { level: d.level, showFrame: d.showFrame });
   const ms = (now?.now() ?? Date.now()) - t0;
   const verdict: CertificateVerdict = !result.proof.unique ? 'not-unique' : result.solved ? 'unique' : 'stuck';
   const checks = [

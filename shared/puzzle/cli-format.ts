@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { toBouwkamp } from '../tiling/index';
 import type { AssemblyResult, StarterPiece } from './assembly';
+import type { Level } from './deduction-grade';
 import type { DeductionPuzzle } from './deduction-puzzle';
 import { PuzzleInputError } from './errors';
 
@@ -44,9 +45,9 @@ export function parseStartersArg(text: string): StarterPiece[] {
   });
 }
 
-/** "--level k" -> k; "closure" or "inf" -> Infinity */
-export function parseLevelArg(text: string): number {
-  if (/^(closure|inf|infinity)$/i.test(text.trim())) return Number.POSITIVE_INFINITY;
+/** "--level k" -> k; "closure" or "inf" -> 'closure' */
+export function parseLevelArg(text: string): Level {
+  if (/^(closure|inf|infinity)$/i.test(text.trim())) return 'closure';
   return parseWith(positive.max(1000), text, 'level', 'the level must be a whole number >= 1 or "closure"');
 }
 
@@ -76,8 +77,8 @@ export interface DeduceAnswer {
   steps: { square: string; round: number; value: number; text: string }[];
   grade: number;
   unique: boolean;
-  /** the requested level; "closure" for the full closure (JSON has no Infinity) */
-  level: number | 'closure';
+  /** the requested level; "closure" for the full closure */
+  level: Level;
 }
 
 export function deduceAnswer(p: Pick<DeductionPuzzle, 'givens' | 'steps' | 'grade' | 'proof' | 'solved' | 'level'>): DeduceAnswer {
@@ -86,6 +87,6 @@ export function deduceAnswer(p: Pick<DeductionPuzzle, 'givens' | 'steps' | 'grad
     steps: p.steps.map((s) => ({ square: s.label, round: s.round, value: s.value, text: s.text })),
     grade: p.grade,
     unique: p.solved && p.proof.unique,
-    level: Number.isFinite(p.level) ? p.level : 'closure',
+    level: p.level,
   };
 }

@@ -1,9 +1,22 @@
 import { isSolvable } from './deduction-propagate';
 import type { DeductionBoard, DeductionRun } from './deduction-propagate';
 
+/** A locality level in JSON-able form: a chain length k >= 1, or 'closure' (k = Infinity). */
+export type Level = number | 'closure';
+
+/** 'closure' -> Infinity, k -> k */
+export function levelValue(level: Level): number {
+  return level === 'closure' ? Number.POSITIVE_INFINITY : level;
+}
+
+/** Infinity -> 'closure', k -> k */
+export function levelName(k: number): Level {
+  return Number.isFinite(k) ? k : 'closure';
+}
+
 export interface GradeFeatures {
-  /** smallest locality level at which the puzzle solves (Infinity: only the full closure) */
-  levelNeeded: number;
+  /** smallest locality level at which the puzzle solves ('closure': only the full closure; null: not even that) */
+  levelNeeded: Level | null;
   steps: number;
   rounds: number;
   /** the smallest number of deductions available in any round (1 = a single way forward) */
@@ -16,14 +29,15 @@ export interface GradeFeatures {
   meanTerms: number;
 }
 
-/** The smallest k (1, 2, ... up to the number of segments) at which the puzzle solves, or Infinity. */
-export function levelNeeded(board: DeductionBoard, givens: readonly number[], showFrame: boolean): number {
+/** The smallest k at which the puzzle solves; 'closure' if only the full closure does; null if nothing does. */
+export function levelNeeded(board: DeductionBoard, givens: readonly number[], showFrame: boolean): Level | null {
+  if (!isSolvable(board, givens, { level: Number.POSITIVE_INFINITY, showFrame })) return null;
   const longest = board.layout.horizontal.length + board.layout.vertical.length;
   for (let k = 1; k <= longest; k++) if (isSolvable(board, givens, { level: k, showFrame })) return k;
-  return Number.POSITIVE_INFINITY;
+  return 'closure';
 }
 
-export function gradeFeatures(run: DeductionRun, level: number, givens: number, showFrame: boolean): GradeFeatures {
+export function gradeFeatures(run: DeductionRun, level: Level | null, givens: number, showFrame: boolean): GradeFeatures {
   const terms = run.steps.map((s) => s.terms.length);
   return {
     levelNeeded: level,
@@ -42,7 +56,7 @@ export function gradeFeatures(run: DeductionRun, level: number, givens: number, 
  * Grade 1 (gentle) to 5 (fiendish) of a Deduction puzzle; see docs/decisions/020.
  *
  *   points = level points + round points + bottleneck points + frame points
- *   level points:      k <= 2: 0, k = 3: 1, k = 4: 2, k >= 5 (or the full closure): 3
+ *   level points:      k <= 2: 0, k = 3: 1, k = 4: 2, k >= 5 or 'closure' (or unsolvable): 3
  *   round points:      rounds <= 5: 0, 6..9: 0.5, 10..13: 1, more: 1.5
  *   bottleneck points: 0.5 when three or more rounds offer a single deduction
  *   frame points:      0.5 when W and H are not printed
@@ -52,7 +66,7 @@ export function gradeFeatures(run: DeductionRun, level: number, givens: number, 
  * our starting point (common practice for graded logic puzzles), to be calibrated by play tests.
  */
 export function gradeFromFeatures(f: GradeFeatures): number {
-  const k = f.levelNeeded;
+  const k = f.levelNeeded === null ? Number.POSITIVE_INFINITY : levelValue(f.levelNeeded);
   const levelPoints = k <= 2 ? 0 : k === 3 ? 1 : k === 4 ? 2 : 3;
   const roundPoints = f.rounds <= 5 ? 0 : f.rounds <= 9 ? 0.5 : f.rounds <= 13 ? 1 : 1.5;
   const bottleneckPoints = f.singleRounds >= 3 ? 0.5 : 0;

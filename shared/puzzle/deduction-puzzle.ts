@@ -3,8 +3,8 @@ import type { Tiling } from '../tiling/index';
 import { PuzzleInputError } from './errors';
 import { chooseGivens } from './deduction-givens';
 import type { GivensOptions } from './deduction-givens';
-import { gradeFeatures, gradeFromFeatures, levelNeeded } from './deduction-grade';
-import type { GradeFeatures } from './deduction-grade';
+import { gradeFeatures, gradeFromFeatures, levelName, levelNeeded, levelValue } from './deduction-grade';
+import type { GradeFeatures, Level } from './deduction-grade';
 import { explainDeduction } from './deduction-propagate';
 import type { DeductionBoard, DeductionStep } from './deduction-propagate';
 import { proveUniqueByRank } from './deduction-rank';
@@ -19,8 +19,8 @@ export interface DeductionGiven {
 }
 
 export interface DeductionPuzzle {
-  /** the level the givens were chosen for */
-  level: number;
+  /** the level the givens were chosen for ('closure' = the full closure) */
+  level: Level;
   showFrame: boolean;
   givens: DeductionGiven[];
   minimal: 'proved' | 'inclusion' | 'not-checked';
@@ -34,8 +34,8 @@ export interface DeductionPuzzle {
 }
 
 export interface DeductionRequest extends GivensOptions {
-  /** locality level k (default Infinity: the full closure) */
-  level?: number;
+  /** locality level k, or 'closure' (default; Infinity means the same) */
+  level?: Level;
   /** print the frame's W and H (default false) */
   showFrame?: boolean;
 }
@@ -46,20 +46,22 @@ export function deductionBoard(tiling: Tiling): DeductionBoard {
   return { layout: tilingLayout(tiling), sizes: tiling.squares.map((q) => q.s) };
 }
 
-function checkLevel(level: number): void {
+/** The level as a number (Infinity for the closure), after checking it. */
+function checkLevel(raw: Level | undefined): number {
+  const level = levelValue(raw ?? 'closure');
   if (level !== Number.POSITIVE_INFINITY && !(Number.isSafeInteger(level) && level >= 1)) {
-    throw new PuzzleInputError('bad-level', `level must be a whole number >= 1 or Infinity, got ${String(level)}`, { field: 'level' });
+    throw new PuzzleInputError('bad-level', `level must be a whole number >= 1 or 'closure', got ${String(raw)}`, { field: 'level' });
   }
+  return level;
 }
 
 /**
  * Evaluate a Deduction puzzle with the given squares' sizes printed: the step list, the
  * rank proof, the level needed and the grade.
  */
-export function evaluateDeduction(tiling: Tiling, givenSquares: readonly number[], opts: { level?: number; showFrame?: boolean } = {}): Omit<DeductionPuzzle, 'minimal'> {
-  const level = opts.level ?? Number.POSITIVE_INFINITY;
+export function evaluateDeduction(tiling: Tiling, givenSquares: readonly number[], opts: { level?: Level; showFrame?: boolean } = {}): Omit<DeductionPuzzle, 'minimal'> {
+  const level = checkLevel(opts.level);
   const showFrame = opts.showFrame ?? false;
-  checkLevel(level);
   const board = deductionBoard(tiling);
   givenSquares.forEach((g, i) => {
     if (!Number.isSafeInteger(g) || g < 0 || g >= tiling.squares.length) {
@@ -69,10 +71,10 @@ export function evaluateDeduction(tiling: Tiling, givenSquares: readonly number[
   const givens = [...new Set(givenSquares)].sort((a, b) => a - b);
   const run = explainDeduction(board, givens, { level, showFrame });
   const proof = proveUniqueByRank(board.layout, givens.map((g) => ({ square: g, size: board.sizes[g]! })), showFrame);
-  const needed = run.solved ? levelNeeded(board, givens, showFrame) : Number.POSITIVE_INFINITY;
+  const needed = levelNeeded(board, givens, showFrame);
   const features = gradeFeatures(run, needed, givens.length, showFrame);
   return {
-    level,
+    level: levelName(level),
     showFrame,
     givens: givens.map((g) => { const q = tiling.squares[g]!; return { square: g, x: q.x, y: q.y, size: q.s }; }),
     steps: run.steps,
@@ -89,12 +91,11 @@ export function evaluateDeduction(tiling: Tiling, givenSquares: readonly number[
  * by rank; if the two ever disagreed, this throws (a bug, never a puzzle).
  */
 export function makeDeductionPuzzle(tiling: Tiling, request: DeductionRequest = {}): DeductionPuzzle {
-  const level = request.level ?? Number.POSITIVE_INFINITY;
+  const level = checkLevel(request.level);
   const showFrame = request.showFrame ?? false;
-  checkLevel(level);
   const board = deductionBoard(tiling);
   const choice = chooseGivens(board, { level, showFrame }, request);
-  const puzzle = evaluateDeduction(tiling, choice.givens, { level, showFrame });
+  const puzzle = evaluateDeduction(tiling, choice.givens, { level: levelName(level), showFrame });
   if (!puzzle.solved || !puzzle.proof.unique) {
     throw new Error(`deduction: propagation (${puzzle.solved}) and rank proof (${puzzle.proof.unique}) disagree`);
   }

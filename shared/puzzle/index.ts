@@ -27,9 +27,9 @@ export type { DeductionBoard, DeductionRules, DeductionRun, DeductionStep, StepT
 /** proveUniqueByRank: rank of the Kirchhoff system with the givens fixed = unknowns; kirchhoffSystem: that system; exactRank: BigInt Bareiss rank. */
 export { proveUniqueByRank, kirchhoffSystem, exactRank } from './deduction-rank';
 export type { LinearSystem, UniquenessProof } from './deduction-rank';
-/** gradeFromFeatures (1..5, formula in docs/decisions/020), gradeFeatures, levelNeeded. */
-export { gradeFromFeatures, gradeFeatures, levelNeeded } from './deduction-grade';
-export type { GradeFeatures } from './deduction-grade';
+/** gradeFromFeatures (1..5, formula in docs/decisions/020), gradeFeatures, levelNeeded; levelValue / levelName convert 'closure' <-> Infinity. */
+export { gradeFromFeatures, gradeFeatures, levelNeeded, levelValue, levelName } from './deduction-grade';
+export type { GradeFeatures, Level } from './deduction-grade';
 /** WeightedUnionFind: knowledge of segment coordinates as relative offsets. */
 export { WeightedUnionFind } from './deduction-knowledge';
 

@@ -203,6 +203,12 @@ describe('assembly: starters, quick refusals, budgets and input errors', () => {
     expect(seen[seen.length - 1]).toBe(r.nodes);
   });
 
+  it('answers in plain JSON (a JSON round trip changes nothing)', () => {
+    const t = parseTiling(TWIN_13);
+    const r = solveAssembly({ width: 112, height: 75, pieces: sizesOf(t) });
+    expect(JSON.parse(JSON.stringify(r))).toEqual(r);
+  });
+
   it('names the bad field in input errors', () => {
     const bad = (input: unknown) => {
       try { solveAssembly(input as never); } catch (e) { return e; }

@@ -11,7 +11,7 @@ describe('deduction grade', () => {
     expect(gradeFromFeatures(base)).toBe(1);
   });
   it('the level dominates: each longer chain length raises the grade', () => {
-    expect([2, 3, 4, 5, Number.POSITIVE_INFINITY].map((levelNeeded) => gradeFromFeatures({ ...base, levelNeeded }))).toEqual([1, 2, 3, 4, 4]);
+    expect(([2, 3, 4, 5, 'closure', null] as const).map((levelNeeded) => gradeFromFeatures({ ...base, levelNeeded }))).toEqual([1, 2, 3, 4, 4, 4]);
   });
   it('many rounds, single-option rounds and a hidden frame add half points', () => {
     expect(gradeFromFeatures({ ...base, rounds: 10 })).toBe(2);
@@ -20,6 +20,6 @@ describe('deduction grade', () => {
     expect(gradeFromFeatures({ ...base, showFrame: false })).toBe(1);
   });
   it('never leaves 1..5', () => {
-    expect(gradeFromFeatures({ ...base, levelNeeded: Number.POSITIVE_INFINITY, rounds: 40, singleRounds: 20, showFrame: false })).toBe(5);
+    expect(gradeFromFeatures({ ...base, levelNeeded: 'closure', rounds: 40, singleRounds: 20, showFrame: false })).toBe(5);
   });
 });
