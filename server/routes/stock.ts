@@ -1,11 +1,16 @@
 import { idParamsSchema } from '../../shared/contracts/submissions';
-import { stockDetailSchema, stockExportQuerySchema, stockListQuerySchema, stockListSchema, stockSummarySchema } from '../../shared/contracts/stock';
+import { imageQuerySchema, stockDetailSchema, stockExportQuerySchema, stockListQuerySchema, stockListSchema, stockSummarySchema } from '../../shared/contracts/stock';
 import type { AppDeps } from '../deps';
 import { route, type ApiRouter } from '../http/route';
-import { exportStock, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary } from '../services/stock';
+import { renderTilingPng, PNG_SIZES } from '../images/tiling-png';
+import { exportStock, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary, stockTiling } from '../services/stock';
+
+/** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
+const PNG_CACHE_MAX = 500;
 
 export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
   const tags = ['stock'];
+  const pngCache = new Map<string, Buffer>();
 
   route(
     router,
@@ -42,6 +47,23 @@ export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
         .attachment('squarewright-stock.bkp')
         .type('text/plain; charset=utf-8')
         .send(stockCodeFile(exportStock(deps.db, filter, limit), deps.clock.now()));
+    },
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/stock/:id/image.png', summary: 'The tiling as a PNG with sizes written in the squares (?size=thumb for a thumbnail), cached by canonical key', tags, params: idParamsSchema, query: imageQuerySchema, produces: 'image/png' },
+    ({ res, params, query }) => {
+      const { tiling, canonicalKey } = stockTiling(deps.db, params.id);
+      const width = query.size === 'thumb' ? PNG_SIZES.thumbnail2x : PNG_SIZES.web;
+      const key = `${canonicalKey}@${width}`;
+      let png = pngCache.get(key);
+      if (!png) {
+        png = renderTilingPng(tiling, { width, labels: true });
+        if (pngCache.size >= PNG_CACHE_MAX) pngCache.delete(pngCache.keys().next().value!);
+        pngCache.set(key, png);
+      }
+      res.status(200).type('image/png').set('cache-control', 'private, max-age=86400').send(png);
     },
   );
 

@@ -206,3 +206,28 @@ describe('stock facts (the fast path addToStock uses)', () => {
     }
   });
 });
+
+describe('GET /api/stock/:id/image.png', () => {
+  it('answers a PNG of the tiling in the proportions of the rectangle, and a thumbnail', async () => {
+    const { PNG } = await import('pngjs');
+    const parse = (buf: Buffer) => PNG.sync.read(buf);
+    const r = await editor.get(`/api/stock/${ids.o9}/image.png`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    }).expect(200);
+    expect(r.headers['content-type']).toBe('image/png');
+    const img = parse(r.body as Buffer);
+    // 33 x 32 rectangle (facts.md): height / width = 32 / 33
+    expect(Math.abs(img.height / img.width - 32 / 33)).toBeLessThan(0.01);
+    const thumb = await editor.get(`/api/stock/${ids.o9}/image.png?size=thumb`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    }).expect(200);
+    expect(parse(thumb.body as Buffer).width).toBeLessThan(img.width);
+    await editor.get(`/api/stock/${ids.o9}/image.png?size=huge`).expect(400);
+    await editor.get('/api/stock/99999/image.png').expect(404);
+    await (await t.signInAs('printer')).get(`/api/stock/${ids.o9}/image.png`).expect(403);
+  });
+});
