@@ -71,7 +71,8 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
   const squaresOnly = opts.squaresOnly === true;
   const t0 = Date.now();
   const m = order + 1;
-  const found = new Map<string, FoundTiling>();
+  // keys only: the tilings themselves go to onFound (memory stays small at order 18+)
+  const found = new Set<string>();
   const summary: ExhaustiveSummary = {
     order, squaresOnly, graphs: 0, pairs: 0, zeroCurrent: 0, simplePerfect: 0, simpleImperfect: 0, compound: 0, squares: 0, ms: 0, stopped: false,
   };
@@ -122,7 +123,7 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
       const ft = describeTiling(r.tiling, { method: 'exhaustive', graph: Array.from(key, (ch) => ch.charCodeAt(0)), pole: [p, q] }, cls);
       if (!ft) throw new Error('a solved network did not verify');
       if (found.has(ft.key)) continue;
-      found.set(ft.key, ft);
+      found.add(ft.key);
       if (ft.perfect) summary.simplePerfect++;
       else summary.simpleImperfect++;
       if (ft.perfect && ft.square) summary.squares++;
