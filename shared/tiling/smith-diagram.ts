@@ -72,7 +72,15 @@ export function smithDiagram(t: Tiling, direction: Direction = 'horizontal'): Sm
     height: t.H,
     nodes,
     edges,
-    pole: { from: positive, to: negative, current: vertical ? t.H : t.W },
+    pole: { from: positive, to: negative, current: vertical ? t.H : t.W, path: polePath(t, vertical) },
     graph: { n: count, adj },
   };
+}
+
+/** A polyline around the outside from the positive side's far end to the negative side's. */
+function polePath(t: Tiling, vertical: boolean): { x: number; y: number }[] {
+  const m = Math.max(1, Math.round(Math.min(t.W, t.H) / 8));
+  return vertical
+    ? [{ x: 0, y: t.H }, { x: 0, y: t.H + m }, { x: t.W, y: t.H + m }, { x: t.W, y: t.H }]
+    : [{ x: t.W, y: 0 }, { x: t.W + m, y: 0 }, { x: t.W + m, y: t.H }, { x: t.W, y: t.H }];
 }

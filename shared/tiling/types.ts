@@ -89,8 +89,12 @@ export interface SmithDiagram {
   height: number;
   nodes: SmithNode[];
   edges: SmithEdge[];
-  /** the pole edge (battery) from the positive to the negative pole; current = W (horizontal) or H (vertical) */
-  pole: { from: number; to: number; current: number };
+  /**
+   * The pole edge (battery) from the positive to the negative pole; current = W (horizontal) or
+   * H (vertical). `path` is a polyline for drawing it as an arc outside the rectangle (to the
+   * right of a horizontal diagram, below a vertical one), in tiling coordinates.
+   */
+  pole: { from: number; to: number; current: number; path: { x: number; y: number }[] };
   /**
    * The c-net (squares plus pole edge) as a rotation system; vertex v = node v. Parallel edges
    * (two squares between the same two segments) appear as repeated neighbours; such graphs

@@ -65,4 +65,12 @@ describe('orientations and the canonical code', () => {
   it('keys the 33 x 32 as documented in the API contract', () => {
     expect(canonicalKey(parseTiling('(9,10,14)(8,1)(7,4)(18)(15)'))).toBe('33x32:18,15,7,8,14,4,10,1,9');
   });
+
+  it('orders squares correctly with coordinates near 2^31 (comparator fallback past 2^52 packed keys)', () => {
+    const s = 2 ** 30;
+    // a 2^31 x 2^30 rectangle of two halves, the left half cut in four
+    const t = { W: 2 * s, H: s, squares: [{ x: s, y: 0, s }, { x: 0, y: 0, s: s / 2 }, { x: s / 2, y: 0, s: s / 2 }, { x: 0, y: s / 2, s: s / 2 }, { x: s / 2, y: s / 2, s: s / 2 }] };
+    expect(canonicalCode(t)).toBe(`5 ${2 * s} ${s} (${s},${s / 2},${s / 2})(${s / 2},${s / 2})`);
+    expect(orientations(t, { all: true }).every((o) => verifyTiling(o).ok)).toBe(true);
+  });
 });

@@ -17,7 +17,11 @@ describe('smithDiagram (Brooks, Smith, Stone & Tutte 1940)', () => {
     ]);
     expect(d.nodes[0]!.pole).toBe('positive');
     expect(d.nodes[5]!.pole).toBe('negative');
-    expect(d.pole).toEqual({ from: 0, to: 5, current: 33 });
+    expect(d.pole).toMatchObject({ from: 0, to: 5, current: 33 });
+    // drawing data: an arc outside the right side from the top-right to the bottom-right corner
+    expect(d.pole.path[0]).toEqual({ x: 33, y: 0 });
+    expect(d.pole.path.at(-1)).toEqual({ x: 33, y: 32 });
+    expect(d.pole.path.every((p) => p.x >= 33)).toBe(true);
   });
 
   it('has an edge per square from its top segment to its bottom segment, current = side', () => {
