@@ -1,3 +1,4 @@
+import { isAPIError } from 'better-auth/api';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
@@ -37,6 +38,12 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
     }
     if (err instanceof HttpError) {
       res.status(err.status).json(body(err.code, err.message, err.details));
+      return;
+    }
+    // better-auth's server API (createUser, signInEmail...) called from our handlers
+    if (isAPIError(err) && err.statusCode >= 400 && err.statusCode < 500) {
+      const code = ({ 401: 'unauthorized', 403: 'forbidden', 404: 'not_found', 409: 'conflict', 422: 'unprocessable', 429: 'rate_limited' } as Record<number, string>)[err.statusCode] ?? 'bad_request';
+      res.status(err.statusCode).json(body(code, err.body?.message ?? err.message));
       return;
     }
     if (err instanceof multer.MulterError) {

@@ -2,6 +2,7 @@ import express from 'express';
 import multer from 'multer';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { APIError } from 'better-auth/api';
 import { z } from 'zod';
 import { isAllowed, permissions } from '../../../server/auth/permissions';
 import { apiNotFound, errorHandler } from '../../../server/http/error-handler';
@@ -139,5 +140,32 @@ describe('the error handler', () => {
     await request(app).post('/api/test/upload').attach('file', Buffer.from('x'), 'c.txt').expect(401);
     const json = await request(app).post('/api/test/echo').send({ n: 1, pad: 'y'.repeat(200) }).expect(413);
     expect(json.body.error.code).toBe('payload_too_large');
+  });
+});
+
+describe('errors from better-auth calls inside our handlers', () => {
+  it('keep their 4xx status, in our error shape', async () => {
+    const app2 = express();
+    app2.get('/api/x', () => {
+      throw new APIError('BAD_REQUEST', { message: 'Password too long', code: 'PASSWORD_TOO_LONG' });
+    });
+    app2.get('/api/y', () => {
+      throw new APIError('FORBIDDEN', { message: 'You are banned' });
+    });
+    app2.use(errorHandler(t.deps.log));
+    const x = await request(app2).get('/api/x').expect(400);
+    expect(errorBodySchema.parse(x.body).error).toEqual({ code: 'bad_request', message: 'Password too long' });
+    const y = await request(app2).get('/api/y').expect(403);
+    expect(y.body.error.code).toBe('forbidden');
+  });
+
+  it('an existing account makes an invitation unusable with 409, and the claim is released', async () => {
+    const admin = await t.signInAs('admin');
+    await admin.post('/api/invitations').send({ email: 'raced@example.test', role: 'setter' }).expect(201);
+    const token = t.mailbox.linkIn(await t.mailbox.waitFor({ to: 'raced@example.test' }), '/invite/').slice('/invite/'.length);
+    await t.createUser('setter', { email: 'raced@example.test' });
+    const res = await request(t.app).post(`/api/invitations/${token}/accept`).send({ name: 'Raced', password: 'a-good-long-password' }).expect(409);
+    expect(errorBodySchema.parse(res.body).error.code).toBe('conflict');
+    expect((await request(t.app).get(`/api/invitations/${token}`).expect(200)).body.valid).toBe(true);
   });
 });
