@@ -1,6 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { meResponseSchema, type SessionUser } from '../../../../shared/contracts/auth';
-import { apiRequest, isApiError } from '../../../lib/api-client';
+import { meResponseSchema, type SessionUser } from '../../shared/contracts/auth';
+import { apiRequest, isApiError } from './api-client';
+
+// The session user is app-wide (the router's loader, the layout, and any feature that
+// needs to know who is signed in), so its one endpoint file lives in lib/, not in a feature.
 
 /** GET /api/me: the signed-in user, or null when there is no session (401). */
 export async function getMe(signal?: AbortSignal): Promise<SessionUser | null> {

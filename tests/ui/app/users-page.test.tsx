@@ -48,4 +48,19 @@ describe('admin Users page', () => {
     const alert = await screen.findByRole('alert');
     expect(alert.textContent).toContain('The last admin cannot be deactivated');
   });
+
+  it('does not offer an admin to deactivate or demote themselves', async () => {
+    stubFetch({
+      'GET /api/me': meAs('admin'),
+      'GET /api/admin/users': {
+        body: { users: [...users, { id: 'u-admin', email: 'admin@demo.squarewright.test', name: 'Demo admin', role: 'admin', active: true, createdAt: '2026-11-30T09:00:00.000Z' }] },
+      },
+    });
+    renderApp('/admin/users');
+    await screen.findByText('Demo admin');
+    expect(await screen.findByText('(you)')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'Deactivate admin@demo.squarewright.test' })).toBeNull();
+    expect((screen.getByLabelText('Role of admin@demo.squarewright.test') as HTMLSelectElement).disabled).toBe(true);
+    expect(screen.getByRole('button', { name: 'Deactivate editor@demo.squarewright.test' })).toBeTruthy();
+  });
 });

@@ -9,6 +9,7 @@ import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { roleLabel, roles, type Role } from '../../../lib/roles';
+import { useMe } from '../../../lib/session-user';
 import { useUsers } from '../api/list-users';
 import { useUpdateUser } from '../api/update-user';
 import { InviteDialog } from './invite-dialog';
@@ -16,6 +17,7 @@ import { InviteDialog } from './invite-dialog';
 /** /admin/users: everyone with an account; invite, change role, deactivate or reactivate. */
 export function UsersPage() {
   const users = useUsers();
+  const me = useMe();
   const update = useUpdateUser();
   const [inviting, setInviting] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
@@ -62,7 +64,7 @@ export function UsersPage() {
             </thead>
             <tbody>
               {users.data.map((user) => (
-                <UserRow key={user.id} user={user} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => update.mutate({ id: user.id, ...change })} />
+                <UserRow key={user.id} user={user} isSelf={me.data?.id === user.id} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => update.mutate({ id: user.id, ...change })} />
               ))}
             </tbody>
           </table>
@@ -77,10 +79,13 @@ export function UsersPage() {
   );
 }
 
-function UserRow({ user, busy, onChange }: { user: AdminUser; busy: boolean; onChange: (change: { role?: Role; active?: boolean }) => void }) {
+function UserRow({ user, isSelf, busy, onChange }: { user: AdminUser; isSelf: boolean; busy: boolean; onChange: (change: { role?: Role; active?: boolean }) => void }) {
   return (
     <tr className="border-b border-rule last:border-b-0">
-      <td className="px-3 py-2 font-medium">{user.name}</td>
+      <td className="px-3 py-2 font-medium">
+        {user.name}
+        {isSelf ? <span className="ml-2 text-xs font-normal text-ink-muted">(you)</span> : null}
+      </td>
       <td className="px-3 py-2">
         <code className="text-ink-soft">{user.email}</code>
       </td>
@@ -88,7 +93,8 @@ function UserRow({ user, busy, onChange }: { user: AdminUser; busy: boolean; onC
         <select
           aria-label={`Role of ${user.email}`}
           value={user.role}
-          disabled={busy}
+          disabled={busy || isSelf}
+          title={isSelf ? 'Another admin must change your own role' : undefined}
           onChange={(e) => onChange({ role: roleSchema.parse(e.target.value) })}
           className="h-8 rounded-md border border-rule-strong bg-surface px-2 focus-visible:outline-2 focus-visible:outline-focus"
         >
@@ -102,9 +108,11 @@ function UserRow({ user, busy, onChange }: { user: AdminUser; busy: boolean; onC
       <td className="px-3 py-2">{user.active ? <StatusBadge tone="success">Active</StatusBadge> : <StatusBadge tone="neutral">Deactivated</StatusBadge>}</td>
       <td className="px-3 py-2 tabular-nums text-ink-muted">{formatDate(user.createdAt)}</td>
       <td className="px-3 py-2 text-right">
+        {isSelf ? null : (
         <Button size="sm" variant={user.active ? 'danger' : 'secondary'} busy={busy} onClick={() => onChange({ active: !user.active })} aria-label={`${user.active ? 'Deactivate' : 'Reactivate'} ${user.email}`}>
           {user.active ? 'Deactivate' : 'Reactivate'}
         </Button>
+        )}
       </td>
     </tr>
   );

@@ -5,7 +5,7 @@ import {
   type SessionUser,
 } from '../../../../shared/contracts/auth';
 import { apiRequest } from '../../../lib/api-client';
-import { meQueryOptions } from './get-me';
+import { meQueryOptions } from '../../../lib/session-user';
 
 /** POST /api/invitations/:token/accept: sets name and password, and signs the new user in. */
 export async function acceptInvitation(token: string, body: AcceptInvitationBody): Promise<SessionUser> {

@@ -9,7 +9,7 @@ import { TextField } from '../../../components/text-field';
 import { errorMessage } from '../../../lib/api-client';
 import { roleLabel } from '../../../lib/roles';
 import { safeNextPath } from '../../../lib/safe-next-path';
-import { meQueryOptions } from '../api/get-me';
+import { meQueryOptions } from '../../../lib/session-user';
 import { usePublicConfig } from '../api/get-public-config';
 import { useSignIn } from '../api/sign-in';
 import { AuthFrame } from './auth-frame';
