@@ -75,6 +75,9 @@ interface Problem {
   fixed: StarterPiece[];
 }
 
+/** Largest frame side accepted (the subset-sum tables grow with the height). */
+export const MAX_FRAME_SIDE = 1_000_000;
+
 function isPositiveInt(v: unknown): v is number {
   return typeof v === 'number' && Number.isSafeInteger(v) && v > 0;
 }
@@ -84,6 +87,7 @@ function validate(input: AssemblyInput): Problem {
   const { width: W, height: H, pieces } = input;
   if (!isPositiveInt(W)) throw new PuzzleInputError('bad-frame', `frame width must be a positive integer, got ${String(W)}`, { field: 'width' });
   if (!isPositiveInt(H)) throw new PuzzleInputError('bad-frame', `frame height must be a positive integer, got ${String(H)}`, { field: 'height' });
+  if (W > MAX_FRAME_SIDE || H > MAX_FRAME_SIDE) throw new PuzzleInputError('bad-frame', `frame sides are limited to ${MAX_FRAME_SIDE}, got ${W}x${H}`, { field: W > MAX_FRAME_SIDE ? 'width' : 'height' });
   if (!Array.isArray(pieces) || pieces.length === 0) throw new PuzzleInputError('bad-pieces', 'pieces must be a non-empty list of sizes', { field: 'pieces' });
   if (pieces.length > 200) throw new PuzzleInputError('bad-pieces', `at most 200 pieces, got ${pieces.length}`, { field: 'pieces' });
   pieces.forEach((p, i) => {
@@ -116,11 +120,12 @@ function validate(input: AssemblyInput): Problem {
 
 /** A quick check that settles the question without search, or null. */
 function quickRefusal(p: Problem): string | null {
-  let area = 0;
+  // exact: sides up to 10^6 give areas beyond 2^53 when summed
+  let area = 0n;
   let max = 0;
-  for (const s of p.sizes) { area += s * s; max = Math.max(max, s); }
-  for (const f of p.fixed) area += f.size * f.size;
-  if (area !== p.W * p.H) return `the areas do not add up: the pieces cover ${area}, the ${p.W}x${p.H} frame has ${p.W * p.H}`;
+  for (const s of p.sizes) { area += BigInt(s) * BigInt(s); max = Math.max(max, s); }
+  for (const f of p.fixed) area += BigInt(f.size) * BigInt(f.size);
+  if (area !== BigInt(p.W) * BigInt(p.H)) return `the areas do not add up: the pieces cover ${area}, the ${p.W}x${p.H} frame has ${p.W * p.H}`;
   if (max > Math.min(p.W, p.H)) return `a piece of size ${max} is larger than the ${p.W}x${p.H} frame`;
   return null;
 }

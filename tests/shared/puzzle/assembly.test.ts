@@ -222,6 +222,8 @@ describe('assembly: starters, quick refusals, budgets and input errors', () => {
     const e3 = bad({ width: 3, height: 3, pieces: [3], starters: [{ size: 2, x: 0, y: 0 }] }) as PuzzleInputError;
     expect(e3.code).toBe('bad-starter');
     expect(e3.message).toMatch(/not among the pieces/);
+    const e5 = bad({ width: 2_000_000, height: 3, pieces: [1] }) as PuzzleInputError;
+    expect(e5.message).toMatch(/limited to 1000000/);
     const e4 = bad({ width: 3, height: 3, pieces: [2, 2], starters: [{ size: 2, x: 0, y: 0 }, { size: 2, x: 1, y: 1 }] }) as PuzzleInputError;
     expect(e4.message).toMatch(/overlap/);
   });
