@@ -90,6 +90,14 @@ describe('deduction propagation', () => {
     expect(isSolvable(board(t), [0, 2, 5], { level: 3, showFrame: false })).toBe(true);
   });
 
+  it('deduces through a cross (four squares meeting at a point are on one segment each way)', () => {
+    // a 2 x 2 frame in four unit squares: one size gives all the others, each by one known length
+    const t: Tiling = { W: 2, H: 2, squares: [{ x: 0, y: 0, s: 1 }, { x: 1, y: 0, s: 1 }, { x: 0, y: 1, s: 1 }, { x: 1, y: 1, s: 1 }] };
+    const run = explainDeduction(board(t), [0], { level: 1, showFrame: false });
+    expect(run.solved).toBe(true);
+    expect(run.steps.map((s) => s.text)).toEqual(['B = 1 (as A)', 'C = 1 (as A)', 'D = 1 (as B)']);
+  });
+
   it('a one-term step names the square it copies', () => {
     // two 2s side by side in a 4 x 2 frame: B hangs between the same top and bottom lines as A
     const t: Tiling = { W: 4, H: 2, squares: [{ x: 0, y: 0, s: 2 }, { x: 2, y: 0, s: 2 }] };
