@@ -2,3 +2,4 @@
 import './foundry';
 import './puzzle';
 import './tiling';
+import './print';

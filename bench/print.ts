@@ -1,0 +1,57 @@
+// Print benchmark (`npm run bench`): a 12-puzzle edition rendered to PDF (A4, puzzles and
+// solutions), cold (first render, including the lazy @react-pdf/renderer import) and warm;
+// and a puzzle PNG at web size (640 px, labels) and 2x (1280 px). Targets from issue 7:
+// edition under 3 s, PNG under 30 ms. Tilings come from our own foundry (order 12).
+import { plainRichText } from '../shared/contracts/editions';
+import { renderTilingPng } from '../server/images/tiling-png';
+import { renderEditionPdf } from '../server/pdf/render-edition';
+import { foundryTilings, notToScaleLayout } from '../server/pdf/sample-edition';
+import { getPageTemplate } from '../server/pdf/templates';
+import type { EditionDocument, PuzzlePrint } from '../server/pdf/types';
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
+
+async function main() {
+  const tilings = foundryTilings(12, 12);
+  const template = getPageTemplate('a4');
+  if (!template || tilings.length < 12) throw new Error('print bench: need the a4 template and 12 foundry tilings');
+  const puzzles: PuzzlePrint[] = tilings.map((t, i) =>
+    i % 2 === 0
+      ? { slot: i + 1, kind: 'assembly', title: `Rectangle ${t.W} by ${t.H}`, instructions: plainRichText('Place every piece.'), grade: 2, frame: { W: t.W, H: t.H }, pieces: t.squares.map((q) => q.s), starters: [] }
+      : { slot: i + 1, kind: 'deduction', title: 'Find every size', instructions: plainRichText('Not to scale.'), grade: 3, layout: notToScaleLayout(t), givens: [0, 1, 2].map((r) => ({ rect: r, size: t.squares[r]?.s ?? 0 })) },
+  );
+  const doc: EditionDocument = {
+    publicationTitle: 'Squared Away Monthly',
+    editionNumber: 12,
+    editionDate: '2027-01-01',
+    template,
+    introduction: plainRichText('Twelve squared rectangles.'),
+    puzzles,
+    solutions: tilings.map((t, i) => ({ slot: i + 1, kind: i % 2 === 0 ? 'assembly' : 'deduction', tiling: t, steps: i % 2 === 0 ? undefined : ['A step.', 'Another step.'] })),
+  };
+  let t0 = performance.now();
+  const first = await renderEditionPdf(doc, { stamp: 'PROOF', proofVersion: 1 });
+  const cold = performance.now() - t0;
+  const warm: number[] = [];
+  for (let i = 0; i < 3; i++) {
+    t0 = performance.now();
+    await renderEditionPdf(doc, { stamp: 'PROOF', proofVersion: 1 });
+    warm.push(performance.now() - t0);
+  }
+  const ok = (ms: number, target: number) => (ms < target ? `under ${target} ms` : `OVER ${target} ms`);
+  console.log(`print: 12-puzzle A4 edition, ${first.pages} pages, ${(first.pdf.length / 1024).toFixed(0)} kB: cold ${cold.toFixed(0)} ms (${ok(cold, 3000)}), warm median ${median(warm).toFixed(0)} ms (${ok(median(warm), 3000)})`);
+
+  const t = tilings[0]!;
+  for (const width of [640, 1280]) {
+    for (let i = 0; i < 5; i++) renderTilingPng(t, { width, labels: true });
+    const times: number[] = [];
+    for (let i = 0; i < 30; i++) {
+      t0 = performance.now();
+      renderTilingPng(t, { width, labels: true });
+      times.push(performance.now() - t0);
+    }
+    console.log(`print: puzzle PNG ${width} px wide (${t.W} x ${t.H}, labels): median ${median(times).toFixed(1)} ms (${ok(median(times), 30)})`);
+  }
+}
+
+await main();
