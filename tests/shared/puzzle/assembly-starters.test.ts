@@ -28,7 +28,7 @@ describe('fewest starter pieces', () => {
 
   it('finds starters for the compound 175 square, each candidate proved by the solver', () => {
     const t = parseTiling(COMPOUND_175);
-    const r = findFewestStarters(t, { budget: { maxMs: 20_000 } });
+    const r = findFewestStarters(t, { budget: { maxNodes: 5_000_000 } }); // a node budget keeps the test deterministic
     expect(r.starters).not.toBeNull();
     expect(r.starters!.length).toBeGreaterThan(0);
     const check = solveAssembly({ width: 175, height: 175, pieces: t.squares.map((q) => q.s), starters: r.starters! });
@@ -41,6 +41,16 @@ describe('fewest starter pieces', () => {
     expect(r.starters).toBeNull();
     expect(r.fewestProved).toBe(false);
     expect(r.stoppedBy).toBe('max-nodes');
+  });
+
+  it('can be cancelled and reports progress', () => {
+    const t = parseTiling(COMPOUND_175);
+    const seen: number[] = [];
+    let calls = 0;
+    const r = findFewestStarters(t, { shouldStop: () => ++calls > 3, onProgress: (n) => seen.push(n) });
+    expect(r.stoppedBy).toBe('cancelled');
+    expect(r.starters).toBeNull();
+    expect(seen[seen.length - 1]).toBe(r.nodes);
   });
 
   it('refuses a tiling that does not verify', () => {
