@@ -24,7 +24,11 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
     req.headers[clientIpHeader] = req.socket.remoteAddress ?? 'unknown';
     next();
   });
-  app.use('/api', (_req, res, next) => {
+  app.use('/api', (req, res, next) => {
+    if (deps.env.LOG_LEVEL === 'debug') {
+      const t0 = performance.now();
+      res.on('finish', () => deps.log.debug(`${req.method} ${req.originalUrl.split('?')[0]} ${res.statusCode} ${(performance.now() - t0).toFixed(1)} ms`));
+    }
     res.setHeader('Cache-Control', 'no-store');
     res.setHeader('X-Content-Type-Options', 'nosniff');
     next();
