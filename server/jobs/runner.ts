@@ -42,7 +42,15 @@ export interface SubmitOptions {
   createdBy?: string | null;
   budgetMs?: number | null;
   sink?: JobSink;
+  /**
+   * 'interactive' (default: short jobs someone waits for, e.g. a proof) or 'bulk' (long runs,
+   * e.g. the foundry). Interactive jobs go first in the queue, and when every worker is busy
+   * with bulk work one extra worker is started for them, so a long run never blocks a proof.
+   */
+  lane?: JobLane;
 }
+
+export type JobLane = 'interactive' | 'bulk';
 
 export interface JobRunnerOptions {
   /** number of worker threads (default 1) */
@@ -58,6 +66,7 @@ interface Slot {
 
 interface ActiveJob {
   id: string;
+  lane: JobLane;
   flag: Int32Array;
   sink: JobSink | undefined;
   budgetMs: number | null;
@@ -70,6 +79,7 @@ interface ActiveJob {
 
 interface Queued {
   id: string;
+  lane: JobLane;
   kind: string;
   params: unknown;
   input: unknown;
@@ -112,7 +122,14 @@ export class JobRunner {
       .insert(job)
       .values({ id, kind: opts.kind, params: JSON.stringify(opts.params), state: 'queued', budgetMs, createdBy: opts.createdBy ?? null })
       .run();
-    this.queue.push({ id, kind: opts.kind, params: opts.params, input: opts.input ?? null, budgetMs, sink: opts.sink });
+    const lane = opts.lane ?? 'interactive';
+    const entry: Queued = { id, lane, kind: opts.kind, params: opts.params, input: opts.input ?? null, budgetMs, sink: opts.sink };
+    if (lane === 'interactive') {
+      // ahead of every queued bulk job, behind earlier interactive ones
+      const at = this.queue.findIndex((q) => q.lane === 'bulk');
+      if (at < 0) this.queue.push(entry);
+      else this.queue.splice(at, 0, entry);
+    } else this.queue.push(entry);
     this.pump();
     return id;
   }
@@ -206,11 +223,15 @@ export class JobRunner {
   private pump(): void {
     if (this.closed) return;
     while (this.queue.length > 0) {
+      const next = this.queue[0]!;
       let slot = this.slots.find((s) => s.busy === null);
       if (!slot && this.slots.length < this.size) slot = this.spawn();
+      if (!slot && next.lane === 'interactive' && this.slots.length === this.size && this.slots.every((s) => s.busy?.lane === 'bulk')) {
+        slot = this.spawn(); // the one extra worker for interactive work
+      }
       if (!slot) return;
-      const q = this.queue.shift()!;
-      this.start(slot, q);
+      this.queue.shift();
+      this.start(slot, next);
     }
   }
 
@@ -218,7 +239,7 @@ export class JobRunner {
     const sab = new SharedArrayBuffer(4);
     const now = Date.now();
     const a: ActiveJob = {
-      id: q.id, flag: new Int32Array(sab), sink: q.sink, budgetMs: q.budgetMs, startedAt: now,
+      id: q.id, lane: q.lane, flag: new Int32Array(sab), sink: q.sink, budgetMs: q.budgetMs, startedAt: now,
       phase: undefined, phaseStart: now, killTimer: null, budgetTimer: null,
     };
     slot.busy = a;
@@ -281,6 +302,11 @@ export class JobRunner {
     if (!a) return;
     slot.busy = null;
     slot.worker.unref();
+    if (this.slots.length > this.size) {
+      // the extra interactive worker (or any surplus) goes away when idle
+      this.slots = this.slots.filter((s) => s !== slot);
+      void slot.worker.terminate();
+    }
     this.finishJob(a, state, summary, error, stopped);
   }
 

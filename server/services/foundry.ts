@@ -66,6 +66,7 @@ export function startRun(db: Db, runner: JobRunner, request: RunRequest, userId:
     input: inputFor(db, params),
     createdBy: userId,
     budgetMs: BUDGET_MS[params.mode],
+    lane: 'bulk',
     sink: { onResults: (items, tx) => storeItems(tx, id, params, items) },
   });
   return getRun(db, runner, id);

@@ -73,6 +73,17 @@ describe('job runner', () => {
     expect((await runner.wait(a)).state).toBe('done');
   });
 
+  it('runs an interactive job in an extra worker while a bulk job occupies the pool', async () => {
+    const bulk = runner.submit({ kind: 'test-count', params: { to: 1_000_000, stepMs: 1 }, lane: 'bulk' });
+    for (let i = 0; i < 200 && runner.get(bulk)?.state !== 'running'; i++) await new Promise((r) => setTimeout(r, 20));
+    const quick = runner.submit({ kind: 'test-count', params: { to: 5 } });
+    const r = await runner.wait(quick);
+    expect(r.state).toBe('done');
+    expect(runner.get(bulk)?.state).toBe('running');
+    runner.cancel(bulk);
+    expect((await runner.wait(bulk)).state).toBe('cancelled');
+  });
+
   it('stops a job at its time budget and marks the summary', async () => {
     const id = runner.submit({ kind: 'test-count', params: { to: 1_000_000, stepMs: 1 }, budgetMs: 300 });
     const r = await runner.wait(id);
