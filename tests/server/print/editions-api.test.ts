@@ -250,3 +250,22 @@ describe('roles, route by route', () => {
     expect(body).not.toMatch(/fee/i);
   });
 });
+
+describe('the solution rule', () => {
+  it('prints the previous edition’s solutions under "next edition", with where the puzzle ran', async () => {
+    const { buildEditionDocument } = await import('../../../server/services/editions');
+    const pub = await admin
+      .post('/api/publications')
+      .send({ ...pubBody, title: 'Squared Away Monthly', templateId: 'a4', cadence: 'monthly', solutionRule: 'next_edition' })
+      .expect(201);
+    const first = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 1, date: '2027-01-01' }).expect(201);
+    await editor.patch(`/api/editions/${first.body.id}`).send({ slots: [{ puzzleId: 'pz-stale' }] }).expect(200);
+    const second = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 2, date: '2027-02-01' }).expect(201);
+    const doc1 = buildEditionDocument(t.deps, first.body.id).doc;
+    const doc2 = buildEditionDocument(t.deps, second.body.id).doc;
+    expect(doc1.puzzles).toHaveLength(1);
+    expect(doc1.solutions).toEqual([]);
+    expect(doc2.puzzles).toEqual([]);
+    expect(doc2.solutions).toEqual([expect.objectContaining({ slot: 1, caption: 'No. 1, puzzle 1', tiling: TILING_69x61 })]);
+  });
+});
