@@ -28,3 +28,4 @@ export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';
 export { planeGraphFromDrawing } from './drawing';
 export { analysePlaneGraph } from './plane-graph';
 export { randomCNet, wheel, dual, faces, edgeList, mulberry32, splitRandomFace } from './random-network';
+export { sparseSymmetricDeterminant } from './modular-determinant';

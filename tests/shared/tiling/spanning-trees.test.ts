@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { countSpanningTrees, parseTiling, tilingSpanningTrees } from '../../../shared/tiling/index';
+import { bareissDeterminant, countSpanningTrees, edgeList, mulberry32, parseTiling, randomCNet, sparseSymmetricDeterminant, tilingSpanningTrees } from '../../../shared/tiling/index';
 import { O21_112, O9_33x32, O9_69x61 } from './helpers';
 
 const complete = (n: number) => {
@@ -30,5 +30,44 @@ describe('spanning trees by the matrix-tree theorem (Kirchhoff 1847)', () => {
     // 69 x 61: W_full + H_full = 69 + 61 = 130 with gcd 1
     expect(tilingSpanningTrees(parseTiling(O9_69x61))).toBe(130n);
     expect(tilingSpanningTrees(parseTiling(O21_112))).toBe(2n * 37632n);
+  });
+});
+
+describe('large c-nets: sparse elimination modulo primes + Chinese remainder theorem', () => {
+  it("agrees with Cayley's formula past the dense limit: tau(K_70) = 70^68, tau(K_90) = 90^88 (OEIS A000272)", () => {
+    expect(countSpanningTrees(70, complete(70))).toBe(70n ** 68n);
+    expect(countSpanningTrees(90, complete(90))).toBe(90n ** 88n);
+  });
+
+  it('agrees with dense Bareiss on seeded random c-nets of 60 to 260 edges', () => {
+    const rng = mulberry32(31);
+    for (let i = 0; i < 8; i++) {
+      const g = randomCNet(60 + Math.floor(rng() * 200), rng);
+      const edges = edgeList(g);
+      const diag = Array.from({ length: g.n - 1 }, () => 0);
+      const L = Array.from({ length: g.n - 1 }, () => Array.from({ length: g.n - 1 }, () => 0));
+      const off: [number, number, number][] = [];
+      for (const [u, v] of edges) {
+        for (const w of [u, v]) if (w < g.n - 1) diag[w]! += 1;
+        if (u < g.n - 1 && v < g.n - 1) off.push([u, v, -1]);
+      }
+      diag.forEach((d, r) => (L[r]![r] = d));
+      for (const [a, b] of off) L[a]![b] = L[b]![a] = -1;
+      expect(sparseSymmetricDeterminant(diag, off)).toBe(bareissDeterminant(L));
+      expect(countSpanningTrees(g.n, edges)).toBe(bareissDeterminant(L));
+    }
+  });
+
+  it('signs and small cases: det [[2,-3],[-3,1]] = -7, the empty matrix has det 1', () => {
+    expect(sparseSymmetricDeterminant([2, 1], [[0, 1, -3]])).toBe(-7n);
+    expect(sparseSymmetricDeterminant([], [])).toBe(1n);
+  });
+
+  it('counts the c-net of a 1,800-square compound tiling (200 copies of the 33 x 32) without dense elimination', () => {
+    const base = parseTiling(O9_33x32);
+    const squares = [];
+    for (let r = 0; r < 10; r++) for (let c = 0; c < 20; c++) for (const q of base.squares) squares.push({ x: q.x + 33 * c, y: q.y + 32 * r, s: q.s });
+    const tau = tilingSpanningTrees({ W: 660, H: 320, squares });
+    expect(tau > 10n ** 300n).toBe(true);
   });
 });
