@@ -7,6 +7,7 @@ import { createLogger, type Logger } from './log';
 import { createMailSender, type MailSenderOptions } from './mail/outbox';
 import { createSmtpTransport } from './mail/transport';
 import { paymentsProviderFromEnv } from './payments/runtime';
+import { puzzleStore } from './services/puzzles';
 
 export type BuildDepsInput = {
   env: Env;
@@ -41,5 +42,5 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     onMailQueued: () => mail.kick(),
     ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
   });
-  return { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, payments: paymentsProviderFromEnv(input.env) };
+  return { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, payments: paymentsProviderFromEnv(input.env), puzzlesForPrint: puzzleStore };
 }

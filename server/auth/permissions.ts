@@ -39,6 +39,13 @@ export const permissions: Record<string, Access> = {
   'GET /api/stock/export.bkp': ['editor'],
   'GET /api/stock/export.csv': ['editor'],
   'GET /api/stock/summary': ['editor'],
+  // puzzles (editors make and prove them; printers and setters see none of it)
+  'POST /api/puzzles': ['editor'],
+  'GET /api/puzzles': ['editor'],
+  'GET /api/puzzles/:id': ['editor'],
+  'PATCH /api/puzzles/:id': ['editor'],
+  'POST /api/puzzles/:id/recheck': ['editor'],
+  'POST /api/puzzles/:id/cancel': ['editor'],
   'GET /api/submissions': ['setter', 'editor'],
   'POST /api/submissions': ['setter'],
   'GET /api/submissions/:id': ['setter', 'editor'],

@@ -4,6 +4,7 @@ import { seedDemoFoundry } from '../services/foundry-demo';
 import { seedDemoPayouts } from '../payments/demo-seed';
 import { seedDemoEditions } from '../services/proofs';
 import { seedDemoPublications } from '../services/publications';
+import { seedDemoPuzzles } from './puzzle-seed';
 
 // Demo seeders of each area, run in this order on a new database in demo mode, after the
 // four demo accounts exist (find them by e-mail in demoAccounts, server/demo/accounts.ts).
@@ -15,6 +16,7 @@ export const seeders: DemoSeeder[] = [
   { name: 'stock', seed: seedDemoStock },
   { name: 'foundry', seed: seedDemoFoundry },
   { name: 'publications', seed: seedDemoPublications },
+  { name: 'puzzles', seed: seedDemoPuzzles },
   // editions after the puzzles seeder (it drives the proof round with printable puzzles)
   { name: 'editions', seed: seedDemoEditions },
   // keep payouts last: it pays what earlier seeders' published editions earned

@@ -7,6 +7,7 @@ type AnyJobHandler = JobHandler<any, unknown>;
 // Loaded lazily (inside the worker), so the bundler emits each kind as its own chunk.
 export const jobKinds: Record<string, () => Promise<{ handler: AnyJobHandler }>> = {
   'foundry-run': () => import('./kinds/foundry-run'),
+  'puzzle-prove': () => import('./kinds/puzzle-prove'),
   'test-count': () => import('./kinds/test-count'),
 };
 

@@ -10,6 +10,7 @@ import { registerTilingRoutes } from './tilings';
 import { registerEditionRoutes } from './editions';
 import { registerPublicationRoutes } from './publications';
 import { registerTemplateRoutes } from './templates';
+import { registerPuzzleRoutes } from './puzzles';
 
 // Every area's router, one line each (add yours). Each registers with route().
 export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
@@ -20,6 +21,7 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerSubmissionRoutes,
   registerStockRoutes,
   registerFoundryRoutes,
+  registerPuzzleRoutes,
   registerTemplateRoutes,
   registerPublicationRoutes,
   registerEditionRoutes,

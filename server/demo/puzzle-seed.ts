@@ -1,0 +1,60 @@
+import { and, asc, eq, gte, lte } from 'drizzle-orm';
+import { user } from '../db/schema/auth';
+import { puzzle } from '../db/schema/puzzles';
+import { stock } from '../db/schema/stock';
+import type { AppDeps } from '../deps';
+import { provePuzzle, type PuzzleJobInput } from '../jobs/kinds/puzzle-prove';
+import { storeResult } from '../services/puzzles';
+import { markStockUsed, stockTiling } from '../services/stock';
+import { demoAccounts } from './accounts';
+
+// Demo puzzles: from the smallest tilings of the demo stock, three Deduction puzzles (levels
+// 2, 3 and the closure) and three Assembly puzzles, each proved by our engine at seed time
+// on the main thread (small tilings, a few milliseconds each), stored with its certificate.
+
+/** Per-puzzle time limit at seed time, so a slow case can never hold up start-up (our choice). */
+const SEED_MS_PER_PUZZLE = 3000;
+
+export function seedDemoPuzzles(deps: AppDeps): void {
+  const db = deps.db;
+  const editorEmail = demoAccounts.find((a) => a.role === 'editor')?.email;
+  const editor = editorEmail ? db.select({ id: user.id }).from(user).where(eq(user.email, editorEmail)).get() : undefined;
+  const rows = db
+    .select({ id: stock.id, title: stock.canonicalKey })
+    .from(stock)
+    .where(and(gte(stock.order, 9), lte(stock.order, 16), eq(stock.perfect, true)))
+    .orderBy(asc(stock.order), asc(stock.id))
+    .limit(6)
+    .all();
+  const plan: Pick<PuzzleJobInput, 'kind' | 'level'>[] = [
+    { kind: 'deduction', level: 2 },
+    { kind: 'assembly', level: null },
+    { kind: 'deduction', level: 3 },
+    { kind: 'assembly', level: null },
+    { kind: 'deduction', level: 'closure' },
+    { kind: 'assembly', level: null },
+  ];
+  let made = 0;
+  rows.forEach((s, i) => {
+    const p = plan[i];
+    if (!p) return;
+    const { tiling } = stockTiling(db, s.id);
+    const input: PuzzleJobInput = { kind: p.kind, tiling, level: p.level, showFrame: false, starters: null, givens: null, grade: null, seed: 7 + i };
+    const until = Date.now() + SEED_MS_PER_PUZZLE;
+    const summary = provePuzzle(input, 'make', 1, { shouldStop: () => Date.now() > until, now: () => deps.clock.now() });
+    db.transaction((tx) => {
+      const row = tx
+        .insert(puzzle)
+        .values({
+          stockId: s.id, kind: p.kind, title: `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${tiling.W} \u00d7 ${tiling.H}, ${tiling.squares.length} squares`,
+          status: 'proving', level: p.level === null ? null : JSON.stringify(p.level), inputHash: '', createdBy: editor?.id ?? null,
+        })
+        .returning({ id: puzzle.id })
+        .get();
+      markStockUsed(tx, s.id);
+      storeResult(tx, row.id, summary, deps.clock.now());
+    });
+    made++;
+  });
+  deps.log.info(`demo puzzles: ${made} made and proved from the demo stock`);
+}
