@@ -1,0 +1,55 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { verifyTiling } from '../../../shared/tiling/index';
+import { seedDemoStock } from '../../../server/demo/stock-seed';
+import { seedDemoPuzzles } from '../../../server/demo/puzzle-seed';
+import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
+import { listEditions } from '../../../server/services/editions';
+import { seedDemoEditions } from '../../../server/services/proofs';
+import { seedDemoPublications } from '../../../server/services/publications';
+import { getPuzzle, listPrintablePuzzleIds, listPuzzles } from '../../../server/services/puzzles';
+import { createTestApp, type TestApp } from '../helpers/test-app';
+
+let t: TestApp;
+let seedMs = 0;
+beforeAll(async () => {
+  t = await createTestApp({ demo: { seeders: [{ name: 'stock', seed: seedDemoStock }, { name: 'publications', seed: seedDemoPublications }] } });
+  const t0 = performance.now();
+  seedDemoPuzzles(t.deps);
+  seedMs = performance.now() - t0;
+});
+afterAll(async () => {
+  await closeJobRunner(t.db);
+  await t.close();
+});
+
+const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
+
+describe('demo puzzles', () => {
+  it('are made from the demo stock, of both kinds, proved unique at seed time, quickly', () => {
+    const runner = jobRunnerFor(t.db);
+    const list = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: 'id', dir: 'asc' });
+    expect(list.total).toBe(6);
+    expect(new Set(list.items.map((p) => p.kind))).toEqual(new Set(['assembly', 'deduction']));
+    // distinct tilings, so the editions' reuse guard lets them all in
+    expect(new Set(list.items.map((p) => p.tilingKey)).size).toBe(6);
+    for (const s of list.items) {
+      const p = getPuzzle(t.db, runner, s.id);
+      expect(p.status).toBe('unique');
+      expect(p.certificateCurrent).toBe(true);
+      expect(verifyTiling(p.tiling).ok).toBe(true);
+      for (const step of p.steps) expect(step.value).toBe(p.tiling.squares[step.square]!.s);
+    }
+    expect(listPrintablePuzzleIds(t.db)).toHaveLength(6);
+    // "keep it fast": under 5 s for all six (our budget for start-up work, common practice)
+    expect(seedMs).toBeLessThan(5000);
+  });
+
+  it('let the editions seeder publish one edition and send another to proof', async () => {
+    await seedDemoEditions(t.deps);
+    const states = listEditions(t.deps, admin, {}).map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort();
+    expect(states).toContain('The Saturday Quadrant 40 published');
+    expect(states).toContain('The Saturday Quadrant 41 in_proof');
+    const used = listPuzzles(t.db, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: 'id', dir: 'asc' }).items.filter((p) => p.usedIn.length > 0);
+    expect(used.length).toBe(4);
+  });
+});
