@@ -60,17 +60,16 @@ function check(tiling: Tiling, width: number): number {
   return height;
 }
 
-/** Renders a tiling as a PNG (RGBA). */
-export function renderTilingPng(tiling: Tiling, opts: TilingPngOptions): Buffer {
-  const width = opts.width;
-  const height = check(tiling, width);
-  // Flat colour areas: the "up" row filter with the fastest deflate level stays small and fast (pngjs's
-  // default tries every filter on every row).
+/** One filled box of an image, in the picture's own units. */
+export type PngBox = { x: number; y: number; w: number; h: number; fill: Rgb; label?: string | undefined };
+
+type Canvas = { png: PNG; width: number; height: number; line: number; fill: (x0: number, y0: number, x1: number, y1: number, c: Rgb) => void; label: (text: string, ix0: number, iy0: number, ix1: number, iy1: number) => void };
+
+function canvas(width: number, height: number): Canvas {
+  // Flat colour areas: the "up" row filter with the fastest deflate level stays small and
+  // fast (pngjs's default tries every filter on every row).
   const png = new PNG({ width, height, filterType: 2, deflateLevel: 1 });
   const data = png.data;
-  const k = width / tiling.W;
-  const line = Math.max(1, Math.round(width / 320));
-
   // One 32-bit word per pixel (RGBA bytes in memory order): rows are filled with
   // TypedArray.fill instead of byte by byte.
   const words = new Uint32Array(data.buffer, data.byteOffset, width * height);
@@ -85,9 +84,29 @@ export function renderTilingPng(tiling: Tiling, opts: TilingPngOptions): Buffer 
     const w = word(c);
     for (let y = ya; y < yb; y++) words.fill(w, y * width + xa, y * width + xb);
   };
+  const label = (text: string, ix0: number, iy0: number, ix1: number, iy1: number) => {
+    const innerW = ix1 - ix0;
+    const innerH = iy1 - iy0;
+    const cell = Math.floor(Math.min((innerW * 0.5) / textCells(text), (innerH * 0.4) / GLYPH_H));
+    if (cell < 1) return;
+    const tx = ix0 + Math.floor((innerW - textCells(text) * cell) / 2);
+    const ty = iy0 + Math.floor((innerH - GLYPH_H * cell) / 2);
+    forEachInkCell(text, (cx, cy) => fill(tx + cx * cell, ty + cy * cell, tx + (cx + 1) * cell, ty + (cy + 1) * cell, PNG_PALETTE.ink));
+  };
+  return { png, width, height, line: Math.max(1, Math.round(width / 320)), fill, label };
+}
 
+const write = (c: Canvas) => PNG.sync.write(c.png, { filterType: 2, deflateLevel: 1 });
+
+/** Renders a tiling as a PNG (RGBA). */
+export function renderTilingPng(tiling: Tiling, opts: TilingPngOptions): Buffer {
+  const width = opts.width;
+  const height = check(tiling, width);
+  const c = canvas(width, height);
+  const { line } = c;
+  const k = width / tiling.W;
   // Ink everywhere, then each square's inside: the lines are what is left between them.
-  fill(0, 0, width, height, PNG_PALETTE.ink);
+  c.fill(0, 0, width, height, PNG_PALETTE.ink);
   const sizes = [...new Set(tiling.squares.map((q) => q.s))].sort((a, b) => b - a);
   const rankOf = new Map(sizes.map((s, i) => [s, i]));
   tiling.squares.forEach((q, i) => {
@@ -101,18 +120,56 @@ export function renderTilingPng(tiling: Tiling, opts: TilingPngOptions): Buffer 
     const iy0 = y0 + line;
     const ix1 = x1 === width ? x1 - line : x1;
     const iy1 = y1 === height ? y1 - line : y1;
-    fill(ix0, iy0, ix1, iy1, colour);
-    if (opts.labels && !blank) {
-      const text = String(q.s);
-      const innerW = ix1 - ix0;
-      const innerH = iy1 - iy0;
-      const cell = Math.floor(Math.min((innerW * 0.5) / textCells(text), (innerH * 0.4) / GLYPH_H));
-      if (cell >= 1) {
-        const tx = ix0 + Math.floor((innerW - textCells(text) * cell) / 2);
-        const ty = iy0 + Math.floor((innerH - GLYPH_H * cell) / 2);
-        forEachInkCell(text, (cx, cy) => fill(tx + cx * cell, ty + cy * cell, tx + (cx + 1) * cell, ty + (cy + 1) * cell, PNG_PALETTE.ink));
-      }
+    c.fill(ix0, iy0, ix1, iy1, colour);
+    if (opts.labels && !blank) c.label(String(q.s), ix0, iy0, ix1, iy1);
+  });
+  return write(c);
+}
+
+/**
+ * A picture of boxes on white inside a W x H frame: a Deduction layout (not to scale, givens
+ * labelled) or an Assembly frame with its starter pieces. Boxes are outlined in ink.
+ */
+export function renderBoxesPng(frame: { W: number; H: number }, boxes: readonly PngBox[], width: number): Buffer {
+  const height = check({ W: frame.W, H: frame.H, squares: [] }, width);
+  boxes.forEach((b, i) => {
+    if (!(b.w > 0 && b.h > 0 && b.x >= 0 && b.y >= 0 && b.x + b.w <= frame.W && b.y + b.h <= frame.H)) {
+      throw new TilingImageError(`box ${i + 1} (${b.w} x ${b.h} at ${b.x},${b.y}) does not lie inside the ${frame.W} x ${frame.H} frame`);
     }
   });
-  return PNG.sync.write(png, { filterType: 2, deflateLevel: 1 });
+  const c = canvas(width, height);
+  const { line } = c;
+  const kx = width / frame.W;
+  const ky = height / frame.H;
+  c.fill(0, 0, width, height, PNG_PALETTE.ink);
+  c.fill(line, line, width - line, height - line, [255, 255, 255]);
+  for (const b of boxes) {
+    const x0 = Math.round(b.x * kx);
+    const y0 = Math.round(b.y * ky);
+    const x1 = Math.round((b.x + b.w) * kx);
+    const y1 = Math.round((b.y + b.h) * ky);
+    c.fill(x0, y0, x1, y1, PNG_PALETTE.ink);
+    const ix0 = x0 + line;
+    const iy0 = y0 + line;
+    const ix1 = x1 - line;
+    const iy1 = y1 - line;
+    c.fill(ix0, iy0, ix1, iy1, b.fill);
+    if (b.label) c.label(b.label, ix0, iy0, ix1, iy1);
+  }
+  return write(c);
+}
+
+/** A Deduction puzzle for the web: the not-to-scale layout with its givens. */
+export function renderDeductionPng(layout: { W: number; H: number; rects: readonly { x: number; y: number; w: number; h: number }[] }, givens: readonly { rect: number; size: number }[], width: number): Buffer {
+  const shown = new Map(givens.map((g) => [g.rect, g.size]));
+  return renderBoxesPng(
+    layout,
+    layout.rects.map((r, i) => ({ ...r, fill: shown.has(i) ? PNG_PALETTE.fills[0]! : ([255, 255, 255] as Rgb), label: shown.has(i) ? String(shown.get(i)) : undefined })),
+    width,
+  );
+}
+
+/** An Assembly puzzle for the web: the empty frame with its starter pieces placed. */
+export function renderAssemblyPng(frame: { W: number; H: number }, starters: readonly { size: number; x: number; y: number }[], width: number): Buffer {
+  return renderBoxesPng(frame, starters.map((s) => ({ x: s.x, y: s.y, w: s.size, h: s.size, fill: PNG_PALETTE.fills[1]!, label: String(s.size) })), width);
 }

@@ -67,3 +67,28 @@ describe('tiling PNG', () => {
     expect(() => renderTilingPng({ W: 1, H: 1000, squares: [] }, { width: 100 })).toThrowError(/a side may be at most 4096/);
   });
 });
+
+describe('puzzle PNGs', () => {
+  it('draws a Deduction layout with its givens labelled and the rest blank', async () => {
+    const { renderDeductionPng } = await import('../../../server/images/tiling-png');
+    const { notToScale } = await import('./fixtures/sample-edition');
+    const layout = notToScale(TILING_33x32);
+    const png = PNG.sync.read(renderDeductionPng(layout, [{ rect: 0, size: 18 }], layout.W * 20));
+    const centre = (i: number) => {
+      const r = layout.rects[i]!;
+      return [Math.floor((r.x + r.w / 2) * 20), Math.floor((r.y + r.h * 0.15) * 20)] as const;
+    };
+    expect(pixel(png, ...centre(0))).toEqual([...PNG_PALETTE.fills[0]!, 255]);
+    expect(pixel(png, ...centre(1))).toEqual([255, 255, 255, 255]);
+    // the frame's outer edge is ink
+    expect(pixel(png, 0, 0)).toEqual([...PNG_PALETTE.ink, 255]);
+  });
+
+  it('draws an Assembly frame with its starter pieces and refuses one outside', async () => {
+    const { renderAssemblyPng } = await import('../../../server/images/tiling-png');
+    const png = PNG.sync.read(renderAssemblyPng({ W: 69, H: 61 }, [{ size: 36, x: 0, y: 0 }], 690));
+    expect(pixel(png, 100, 340)).toEqual([...PNG_PALETTE.fills[1]!, 255]); // inside the 36 at (0,0)
+    expect(pixel(png, 500, 500)).toEqual([255, 255, 255, 255]); // empty frame
+    expect(() => renderAssemblyPng({ W: 10, H: 10 }, [{ size: 6, x: 5, y: 0 }], 100)).toThrowError(/box 1 \(6 x 6 at 5,0\) does not lie inside the 10 x 10 frame/);
+  });
+});
