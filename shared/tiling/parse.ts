@@ -10,6 +10,8 @@ import { MAX_SIDE, MAX_SQUARES, verifyTiling } from './verify';
 import type { Square, Tiling } from './types';
 
 export const MAX_INPUT_LENGTH = 65_536;
+/** Widths tried for table code without a header (each try is one decode). */
+export const MAX_WIDTH_GUESSES = 64;
 
 interface Token {
   kind: 'num' | 'open' | 'close';
@@ -322,9 +324,13 @@ export function parseTiling(input: string): Tiling {
     let W = 0;
     let firstError: TilingInputError | null = null;
     let found: Tiling | null = null;
+    let attempts = 0;
     for (let k = 0; k < sizes.length && !found; k++) {
       W += sizes[k]!;
       if (area % W !== 0) continue;
+      if (++attempts > MAX_WIDTH_GUESSES) {
+        throw new TilingInputError('no-frame', `table code without a header: no width found among the first ${MAX_WIDTH_GUESSES} candidates; add the header "order width height"`);
+      }
       try {
         found = decodeSizes(sizes, W, area / W, [], describe);
       } catch (e) {

@@ -158,6 +158,19 @@ describe('parseTiling: precise errors', () => {
     expect(errorOf(() => parseTiling('5 3 2')).code).toBe('no-frame');
   });
 
+  it('reads headerless table code in the W < H orientation too (32 x 33 image of the 33 x 32, reference facts)', () => {
+    expect(parseTiling('18 14 4 10 15 7 1 9 8')).toMatchObject({ W: 32, H: 33 });
+  });
+
+  it('gives up on headerless table code after a bounded number of width guesses, never hanging', () => {
+    // 1616 unit squares and one 848: the area 1616 + 848^2 = 720720 has 240 divisors, and every
+    // width below 848 made of the leading ones fails on the 848, so the guesses run out
+    const code = [...Array.from({ length: 1616 }, () => '1'), '848'].join(' ');
+    const e = errorOf(() => parseTiling(code));
+    expect(e.code).toBe('no-frame');
+    expect(e.message).toContain('first 64 candidates');
+  });
+
   it('rejects bad explicit squares with the square number', () => {
     expect(errorOf(() => tilingFromSquares({ width: 2, height: 1, squares: [{ x: 0, y: 0, size: 1 }, { x: 0, y: 0, size: 1 }] })).message).toContain('overlaps');
     const e = errorOf(() => tilingFromSquares({ width: 2, height: 1, squares: [{ x: 0, y: 0, size: 1 }, { x: 1, y: 0, size: 0 }] }));
