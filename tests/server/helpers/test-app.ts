@@ -13,6 +13,7 @@ import { closeDatabase, openDatabase, type Db } from '../../../server/db/client'
 import { user } from '../../../server/db/schema/auth';
 import { mailboxMessage } from '../../../server/db/schema/mail';
 import type { AppDeps } from '../../../server/deps';
+import type { ApiRouter } from '../../../server/http/route';
 import { loadEnv, type EnvInput } from '../../../server/env';
 import { startFakeSmtp, type FakeSmtp } from '../../../server/mail/fake-smtp';
 import { seedDemo } from '../../../server/demo/seed';
@@ -57,7 +58,8 @@ export type TestMailbox = {
 };
 
 export type TestApp = {
-  app: Express;
+  /** the Express app; `app.api.registered` lists every registered `METHOD /path` */
+  app: Express & { api: ApiRouter };
   db: Db;
   deps: AppDeps;
   clock: TestClock;
