@@ -2,6 +2,7 @@
 // A command returns its exit code (nothing = 0); a CliUsageError exits 2, anything else 1,
 // always with a one-line message and never a stack trace.
 import { runFoundryCli } from './foundry';
+import { runAssemble, runDeduce } from './puzzle';
 import { CliUsageError, runNetwork, runSolve, runVerify } from './tiling';
 
 type Command = (argv: readonly string[], write: (s: string) => void) => void | number | Promise<void | number>;
@@ -11,6 +12,8 @@ const commands: Record<string, Command> = {
   verify: runVerify,
   network: runNetwork,
   solve: runSolve,
+  assemble: runAssemble,
+  deduce: runDeduce,
 };
 
 const [name, ...rest] = process.argv.slice(2);
