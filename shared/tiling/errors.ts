@@ -1,4 +1,7 @@
-/** Where in the input a problem was found (1-based line and column, 1-based group/element/square numbers). */
+/**
+ * Where in the input a problem was found: 1-based line and column, 1-based group, element and
+ * square numbers (as in the messages); `edges` are 0-based edge indices of a drawing.
+ */
 export interface InputLocation {
   line?: number;
   column?: number;

@@ -111,6 +111,7 @@ export interface KirchhoffViolation {
   message: string;
 }
 
+/** `square` is the 0-based index into `squares` of the offending square (messages count from 1). */
 export type VerifyResult = { ok: true } | { ok: false; message: string; square?: number };
 
 export type SolveResult =

@@ -158,6 +158,9 @@ describe('solvePlaneNetwork: rejections', () => {
 
   it('too large graphs are refused before any work', () => {
     expect(solvePlaneNetwork(wheel(500), { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'too-large' });
+    // 4 vertices listing 2 x 2,002 darts: 2,002 edges, over the limit of 2,001
+    const heavy: PlaneGraph = { n: 4, adj: [Array.from({ length: 2002 }, () => 1), Array.from({ length: 2002 }, () => 0), [], []] };
+    expect(solvePlaneNetwork(heavy, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'too-large' });
   });
 
   it('networks of 40 edges leave the Number fast path (entries past 2^26.5) and still solve exactly, matching mathjs', () => {
