@@ -81,8 +81,10 @@ export function createApiRouter(deps: AppDeps): ApiRouter {
   return { express: Router(), deps, openapi: new OpenApiCollector(), registered: new Set() };
 }
 
-async function readSessionUser(deps: AppDeps, req: Request): Promise<SessionUser | null> {
-  const session = await deps.auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
+async function readSessionUser(deps: AppDeps, req: Request, res: Response): Promise<SessionUser | null> {
+  const { headers, response: session } = await deps.auth.api.getSession({ headers: fromNodeHeaders(req.headers), returnHeaders: true });
+  // a session past its update age is extended: pass the refreshed cookie on
+  for (const cookie of headers.getSetCookie()) res.append('Set-Cookie', cookie);
   if (!session) return null;
   const u = session.user as { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
   if (u.banned) return null;
@@ -133,9 +135,9 @@ export function route<
   const { deps } = router;
   const checkResponses = deps.env.NODE_ENV !== 'production';
 
-  const guard: RequestHandler = async (req, _res, next) => {
+  const guard: RequestHandler = async (req, res, next) => {
     try {
-      const user = access === 'public' ? await readSessionUser(deps, req).catch(() => null) : await readSessionUser(deps, req);
+      const user = access === 'public' ? await readSessionUser(deps, req, res).catch(() => null) : await readSessionUser(deps, req, res);
       if (user) req.user = user;
       if (!isAllowed(access, (user?.role ?? null) as Role | null)) {
         throw user ? new Forbidden(`The ${user.role} role may not call ${key}.`) : new Unauthorized();

@@ -1,4 +1,6 @@
+import { eq } from 'drizzle-orm';
 import request from 'supertest';
+import { session } from '../../../server/db/schema/auth';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { errorBodySchema } from '../../../shared/contracts/common';
 import { healthResponseSchema, meResponseSchema } from '../../../shared/contracts/auth';
@@ -34,6 +36,19 @@ describe('foundation API', () => {
     const agent = await t.signInAs('editor');
     const res = await agent.get('/api/me').expect(200);
     expect(meResponseSchema.parse(res.body).user).toMatchObject({ role: 'editor', email: 'editor@test.squarewright.test' });
+  });
+
+  it('an active session past a day old is extended, and the refreshed cookie is passed on', async () => {
+    const agent = await t.signInAs('printer');
+    const fresh = await agent.get('/api/me').expect(200);
+    expect(fresh.headers['set-cookie']).toBeUndefined();
+    // sessions last 7 days and are extended after 1 day (server/auth/auth.ts): age this one by 2 days
+    const day = 24 * 60 * 60 * 1000;
+    t.db.update(session).set({ expiresAt: new Date(Date.now() + 5 * day) }).where(eq(session.userId, fresh.body.user.id)).run();
+    const res = await agent.get('/api/me').expect(200);
+    expect(([] as string[]).concat(res.headers['set-cookie'] ?? []).join(';')).toMatch(/session_token=.*HttpOnly/i);
+    const row = t.db.select({ expiresAt: session.expiresAt }).from(session).where(eq(session.userId, fresh.body.user.id)).get();
+    expect(row!.expiresAt.getTime()).toBeGreaterThan(Date.now() + 6 * day);
   });
 
   it('answers 403 for the wrong role', async () => {
