@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, gt, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
 import { canonicalTiling, isSimple, toBouwkamp, verifyTiling, type Tiling } from '../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../shared/contracts/stock';
 import { stockFilterSchema } from '../../shared/contracts/stock';
@@ -38,6 +38,7 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   const f = stockFacts(input.tiling);
   const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, f.canonicalKey)).get();
   if (existing) return { id: existing.id, created: false, canonicalKey: f.canonicalKey };
+  stockGeneration++;
   const row = tx
     .insert(stock)
     .values({
@@ -76,6 +77,7 @@ export function stockFacts(t: Tiling) {
 
 /** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */
 export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
+  stockGeneration++;
   const r = tx
     .update(stock)
     .set({ useCount: sql`max(0, ${stock.useCount} + ${delta})` })
@@ -147,28 +149,56 @@ function toItem(r: ItemRow): StockItem {
 }
 
 const sortColumns = {
-  createdAt: stock.createdAt,
-  order: stock.order,
-  width: stock.width,
-  height: stock.height,
-  id: stock.id,
+  createdAt: 'created_at',
+  order: '"order"',
+  width: 'width',
+  height: 'height',
+  id: 'id',
 } as const;
 
+/** Totals per filter, forgotten on any stock write and after COUNT_TTL_MS (counting is the slow part of a page). */
+const COUNT_TTL_MS = 2_000;
+let stockGeneration = 0;
+const countCache = new WeakMap<object, Map<string, { n: number; generation: number; at: number }>>();
+
+function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
+  const key = JSON.stringify([f.orderMin, f.orderMax, f.widthMin, f.widthMax, f.heightMin, f.heightMax, f.square, f.perfect, f.simple, f.provenance, f.used, f.setterId]);
+  let perDb = countCache.get(db);
+  if (!perDb) countCache.set(db, (perDb = new Map()));
+  const hit = perDb.get(key);
+  const now = Date.now();
+  if (hit && hit.generation === stockGeneration && now - hit.at < COUNT_TTL_MS) return hit.n;
+  const n = db.get<{ n: number }>(sql`select count(*) as n from stock indexed by stock_filter_idx ${whereSql}`)?.n ?? 0;
+  if (perDb.size > 1000) perDb.clear();
+  perDb.set(key, { n, generation: stockGeneration, at: now });
+  return n;
+}
+
+/**
+ * GET /api/stock. Two steps so the wide rows (squares JSON) are never scanned or sorted:
+ * the page's ids come from a narrow covering index (stock_recent_idx or stock_filter_idx, as
+ * SQLite picks), the total from stock_filter_idx, then only the page's rows are read (decision 052).
+ */
 export function listStock(db: DbOrTx, q: StockListQuery): StockList {
   const where = whereOf(q);
-  const col = sortColumns[q.sort.key];
-  const dir = q.sort.desc ? desc : asc;
-  const rows = db
-    .select({ ...itemColumns, squaresJson: stock.squaresJson })
-    .from(stock)
-    .where(where)
-    .orderBy(dir(col), dir(stock.id))
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize)
-    .all();
-  const total = db.select({ n: count() }).from(stock).where(where).get()?.n ?? 0;
+  const whereSql = where ? sql`where ${where}` : sql``;
+  const dir = sql.raw(q.sort.desc ? 'desc' : 'asc');
+  const col = sql.raw(sortColumns[q.sort.key]);
+  const offset = (q.page - 1) * q.pageSize;
+  const idRows = db.all<{ id: number }>(sql`select id from stock ${whereSql} order by ${col} ${dir}, id ${dir} limit ${q.pageSize} offset ${offset}`);
+  const total = countStock(db, q, whereSql);
+  const ids = idRows.map((r) => r.id);
+  const rows = ids.length
+    ? db.select({ ...itemColumns, squaresJson: stock.squaresJson }).from(stock).where(inArray(stock.id, ids)).all()
+    : [];
+  const byId = new Map(rows.map((r) => [r.id, r]));
   return {
-    items: rows.map(({ squaresJson, ...r }) => ({ ...toItem(r), tiling: tilingFromJson(r.width, r.height, squaresJson) })),
+    items: ids.flatMap((id) => {
+      const r = byId.get(id);
+      if (!r) return [];
+      const { squaresJson, ...rest } = r;
+      return [{ ...toItem(rest), tiling: tilingFromJson(r.width, r.height, squaresJson) }];
+    }),
     total,
     page: q.page,
     pageSize: q.pageSize,

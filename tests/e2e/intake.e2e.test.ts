@@ -116,6 +116,34 @@ describe('intake in the browser', () => {
     expect(harness.consoleErrors()).toEqual([]);
   }, 240_000);
 
+  it('setter sketches a network (the wheel W4), sees its tiling live and submits it', async () => {
+    const setter = harness.page();
+    await signIn(setter, 'setter');
+    await setter.goto('/submit?tab=sketch');
+    const canvas = setter.getByRole('application', { name: /Network sketch/ });
+    await canvas.waitFor();
+    const box = (await canvas.boundingBox())!;
+    const at = (x: number, y: number) => setter.mouse.click(box.x + (x / 480) * box.width, box.y + (y / 360) * box.height);
+    const pts: [number, number][] = [[240, 180], [140, 80], [340, 80], [340, 280], [140, 280]];
+    await setter.getByLabel('Place nodes').check();
+    for (const [x, y] of pts) await at(x, y);
+    await setter.getByLabel('Draw edges').check();
+    for (const [a, b] of [[0, 1], [0, 2], [0, 3], [0, 4], [1, 2], [2, 3], [3, 4], [4, 1]] as const) {
+      await at(...pts[a]!);
+      await at(...pts[b]!);
+    }
+    await setter.getByLabel('Choose poles').check();
+    await at(...pts[1]!);
+    await at(...pts[2]!);
+    const result = setter.getByRole('region', { name: 'Tiling from the sketch' }).or(setter.locator('section[aria-label="Tiling from the sketch"]'));
+    // W4 with a rim pole edge: 7 squares in a 7 x 8 rectangle; its network has 45 spanning trees (OEIS A004146)
+    await result.first().getByRole('img', { name: /Squared rectangle 7 by 8 of 7 squares/ }).waitFor({ timeout: 15_000 });
+    expect(await result.first().innerText()).toContain('45 spanning trees');
+    await screenshot(setter, 'intake-sketch');
+    await setter.getByRole('button', { name: 'Submit this tiling' }).click();
+    await setter.getByText('Follow it on').waitFor();
+  }, 120_000);
+
   it('printers see none of it: the intake and stock API answer 403', async () => {
     const printer = harness.page();
     await signIn(printer, 'printer');

@@ -33,10 +33,11 @@ export const stock = sqliteTable(
   },
   (t) => [
     index('stock_order_idx').on(t.order, t.id),
-    index('stock_width_idx').on(t.width),
-    index('stock_height_idx').on(t.height),
-    index('stock_created_idx').on(t.createdAt, t.id),
-    index('stock_provenance_idx').on(t.provenance),
     index('stock_setter_idx').on(t.setterId),
+    // newest-first lists (the default) walk this one and stop after a page, filtering in the index
+    index('stock_recent_idx').on(t.createdAt, t.id, t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
+    // every filter and sort column: list and count queries scan this narrow index, never the
+    // wide rows (squares JSON); see server/services/stock.ts listStock and decision 052
+    index('stock_filter_idx').on(t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId, t.createdAt, t.id),
   ],
 );
