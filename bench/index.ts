@@ -3,3 +3,4 @@ import './foundry';
 import './puzzle';
 import './tiling';
 import './print';
+import './intake';
