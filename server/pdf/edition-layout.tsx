@@ -46,7 +46,7 @@ const STARTER_FILL = '#c9b48a';
 const GIVEN_FILL = '#f3efe6';
 const STAMP = '#b4462b';
 
-export { Font };
+export { Font, registerPrintFonts };
 
 export type LayoutMetrics = Pick<Preflight, 'smallestSquareMm' | 'smallestDigitPt' | 'omittedLabels'> & {
   illegibleGivens: { slot: number; size: number }[];

@@ -22,3 +22,12 @@ export async function renderEditionPdf(doc: EditionDocument, opts: RenderOptions
   const preflight = preflightPdf({ template: doc.template, pdf, fontsRegistered: built.fonts, pageSizePt: built.pageSizePt, metrics: built.metrics });
   return { pdf, pages: preflight.pages, preflight };
 }
+
+/**
+ * Loads the PDF modules and registers the fonts ahead of the first proof (call after the
+ * server listens; still lazy: nothing is loaded at import time).
+ */
+export async function warmPrint(): Promise<void> {
+  const [layout] = await loadLayout();
+  layout.registerPrintFonts(layout.Font);
+}

@@ -3,14 +3,21 @@ import { templateGeometry, templateListResponseSchema } from '../../shared/contr
 import type { AppDeps } from '../deps';
 import { NotFound } from '../http/errors';
 import { route, type ApiRouter } from '../http/route';
-import { renderEditionPdf } from '../pdf/render-edition';
+import { renderEditionPdf, warmPrint } from '../pdf/render-edition';
 import { templateSampleEdition } from '../pdf/sample-edition';
 import { pageTemplates } from '../pdf/templates';
 
-export function registerTemplateRoutes(router: ApiRouter, _deps: AppDeps) {
+export function registerTemplateRoutes(router: ApiRouter, deps: AppDeps) {
   const tags = ['templates'];
   // Loading here makes a bad template file stop the server at start-up, naming file and field.
   pageTemplates();
+  // In production, load the PDF renderer shortly after start-up so the first proof does not
+  // wait for it (about a second of import); tests and development stay lazy.
+  if (deps.env.NODE_ENV === 'production') {
+    setTimeout(() => {
+      warmPrint().catch((e: unknown) => deps.log.warn(`print: could not preload the PDF renderer: ${(e as Error).message}`));
+    }, 3_000).unref();
+  }
 
   route(
     router,
