@@ -98,3 +98,11 @@ export function classifyTiling(t: Tiling): Classification {
     maxSize,
   };
 }
+
+/** The reduced ("prime") form: every size, position and side divided by the gcd of the sizes. */
+export function reduceTiling(t: Tiling): Tiling {
+  let g = 0;
+  for (const q of t.squares) g = gcdN(g, q.s);
+  if (g <= 1) return t;
+  return { W: t.W / g, H: t.H / g, squares: t.squares.map((q) => ({ x: q.x / g, y: q.y / g, s: q.s / g })) };
+}

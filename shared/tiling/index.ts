@@ -17,7 +17,7 @@ export { TilingInputError } from './errors';
 export type { InputLocation } from './errors';
 export { parseTiling, tilingFromSquares, readCode, decodeSizes, MAX_INPUT_LENGTH } from './parse';
 export { verifyTiling, MAX_SIDE, MAX_SQUARES } from './verify';
-export { classifyTiling, isSimple, subRectangles } from './classify';
+export { classifyTiling, isSimple, subRectangles, reduceTiling } from './classify';
 export { canonicalTiling, canonicalCode, canonicalKey, orientations, readingOrder } from './orientations';
 export { toBouwkamp, toTableCode } from './bouwkamp';
 export { solvePlaneNetwork } from './solve-network';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { classifyTiling, isSimple, parseTiling, subRectangles, type Tiling } from '../../../shared/tiling/index';
+import { classifyTiling, isSimple, parseTiling, reduceTiling, subRectangles, toBouwkamp, type Tiling } from '../../../shared/tiling/index';
 import { O21_112, O24_175, O9_33x32, catalogue, greedyTiling } from './helpers';
 
 // a brute-force reference: every (x1, y1, x2, y2) rectangle over all square-corner
@@ -69,8 +69,12 @@ describe('classifyTiling', () => {
     expect(classifyTiling(t).subRectangles.length).toBe(4); // two 2x1 and two 1x2 halves
   });
 
-  it('the gcd is reported for an unreduced tiling', () => {
-    expect(classifyTiling(parseTiling('(36,30)(14,16)(28,8)(20,2)(18)')).gcd).toBe(2);
+  it('the gcd is reported for an unreduced tiling, and reduceTiling divides it out', () => {
+    // the 33 x 32 doubled (reference facts: the c-net gives it unreduced as 66 x 64 with k = 2)
+    const doubled = parseTiling('(36,30)(14,16)(28,8)(20,2)(18)');
+    expect(classifyTiling(doubled).gcd).toBe(2);
+    expect(toBouwkamp(reduceTiling(doubled))).toBe(O9_33x32);
+    expect(reduceTiling(parseTiling(O9_33x32))).toEqual(parseTiling(O9_33x32));
   });
 
   it('agrees with a brute-force sub-rectangle search on random tilings of small grids (fast-check, seeded)', () => {
