@@ -12,6 +12,7 @@ import type { AppDeps } from '../deps';
 import { Conflict, NotFound, Unprocessable } from '../http/errors';
 import { queueMail } from '../mail/outbox';
 import { renderEditionPdf } from '../pdf/render-edition';
+import type { EditionDocument } from '../pdf/types';
 import { recordPublicationFees } from './ledger';
 import { buildEditionDocument, createEdition, getEditionRow, puzzleSource, requireState, runEditionChecks, toEdition, updateEdition, visibleToPrinter } from './editions';
 import { feeFor, getPublicationRow, listPublications } from './publications';
@@ -89,7 +90,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
       requireState(fresh, 'draft', 'send to proof');
       tx.update(editionProof).set({ status: 'superseded' }).where(and(eq(editionProof.editionId, editionId), eq(editionProof.status, 'pending'))).run();
       tx.insert(editionProof)
-        .values({ editionId, version, sha256: hash, path: rel, bytes: rendered.pdf.length, pages: rendered.pages, preflightJson: JSON.stringify(rendered.preflight), status: 'pending', createdBy: who.id, createdAt: now })
+        .values({ editionId, version, sha256: hash, path: rel, bytes: rendered.pdf.length, pages: rendered.pages, preflightJson: JSON.stringify(rendered.preflight), documentJson: JSON.stringify(built.doc), status: 'pending', createdBy: who.id, createdAt: now })
         .run();
       tx.update(edition).set({ state: 'in_proof', returnNotes: null, updatedAt: now }).where(eq(edition.id, editionId)).run();
       const warnings = rendered.preflight.warnings.length;
@@ -173,9 +174,11 @@ function mailEditor(tx: DbOrTx, deps: Deps, createdBy: string | null, template: 
 
 /** In proof -> approved: the press file is rendered without the stamp, hashed and stored. */
 export async function approveProof(deps: Deps, who: SessionUser, editionId: string, version: number): Promise<void> {
-  const { r } = decidable(deps.db, editionId, version);
-  const built = buildEditionDocument(deps, editionId);
-  const press = await renderEditionPdf(built.doc, { stamp: null });
+  const { r, p: proof } = decidable(deps.db, editionId, version);
+  // The press file is the approved proof's own document without the stamp (a later change
+  // to a puzzle cannot slip into it).
+  const doc = proof.documentJson ? (JSON.parse(proof.documentJson) as EditionDocument) : buildEditionDocument(deps, editionId).doc;
+  const press = await renderEditionPdf(doc, { stamp: null });
   const rel = pressRel(editionId, version);
   const file = join(dataDir(deps), rel);
   writeFileAtomic(file, press.pdf);

@@ -68,6 +68,8 @@ export const editionProof = sqliteTable(
     bytes: integer('bytes').notNull(),
     pages: integer('pages').notNull(),
     preflightJson: text('preflight_json').notNull(),
+    /** the EditionDocument this proof was rendered from (JSON): the press file is rendered from it */
+    documentJson: text('document_json'),
     status: text('status', { enum: ['pending', 'approved', 'returned', 'superseded'] }).notNull().default('pending'),
     notes: text('notes'),
     createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),

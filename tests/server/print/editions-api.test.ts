@@ -185,7 +185,11 @@ describe('the edition round', () => {
     await editor.patch(`/api/editions/${edId}`).send({ introduction: plainRichText('Welcome back.') }).expect(200);
     const sent = await editor.post(`/api/editions/${edId}/proofs`).expect(201);
     expect(sent.body.proofs.map((p: { version: number; status: string }) => `${p.version}:${p.status}`)).toEqual(['1:returned', '2:pending']);
+    // a change to a puzzle after the proof went out must not reach the press file
+    const original = puzzles.get('pz-a')!;
+    puzzles.set('pz-a', { ...original, title: 'Changed after the proof' });
     const ok = await printer.post(`/api/editions/${edId}/proofs/2/approve`).expect(200);
+    puzzles.set('pz-a', original);
     expect(ok.body.state).toBe('approved');
     expect(ok.body.pressFile).toMatchObject({ version: 2 });
     const press = await printer.get(`/api/editions/${edId}/press.pdf`).buffer(true).parse(binary).expect(200);
@@ -194,6 +198,8 @@ describe('the edition round', () => {
       const text = pdftotext(writeTemp(press.body as Buffer));
       expect(text).not.toMatch(/PROOF/);
       expect(text).toContain('Welcome back.');
+      expect(text).toContain('assembly pz-a');
+      expect(text).not.toContain('Changed after the proof');
     }
     await t.mailbox.waitFor({ to: 'editor@test.squarewright.test', subject: 'Proof 2 approved' });
   });

@@ -1,0 +1,1 @@
+ALTER TABLE `edition_proof` ADD `document_json` text;
