@@ -340,13 +340,13 @@ export function listPuzzles(db: Db, runner: JobRunner, q: PuzzleListQuery): Puzz
   if (q.printable === true) w.push(printableWhere());
   if (q.printable === false) w.push(sql`not (${printableWhere()})`);
   const where = w.length > 0 ? and(...w) : undefined;
-  const dir = q.dir === 'asc' ? asc : desc;
+  const dir = q.sort.desc ? desc : asc;
   const rows = db
     .select(summaryColumns)
     .from(puzzle)
     .innerJoin(stock, eq(stock.id, puzzle.stockId))
     .where(where)
-    .orderBy(dir(sortColumns[q.sort]), dir(puzzle.id))
+    .orderBy(dir(sortColumns[q.sort.key]), dir(puzzle.id))
     .limit(q.pageSize)
     .offset((q.page - 1) * q.pageSize)
     .all();

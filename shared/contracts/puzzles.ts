@@ -149,8 +149,11 @@ export const puzzleListQuerySchema = z
     grade: z.coerce.number().int().min(1).max(5).optional(),
     stockId: z.coerce.number().int().positive().optional(),
     printable: boolQuery.optional(),
-    sort: z.enum(puzzleSortKeys).default('createdAt'),
-    dir: z.enum(['asc', 'desc']).default('desc'),
+    /** column, '-' in front for descending (default: newest first) */
+    sort: z
+      .enum([...puzzleSortKeys, ...puzzleSortKeys.map((k) => `-${k}` as const)])
+      .default('-createdAt')
+      .transform((v) => ({ key: v.replace(/^-/, '') as (typeof puzzleSortKeys)[number], desc: v.startsWith('-') })),
   })
   .strict();
 export type PuzzleListQuery = z.infer<typeof puzzleListQuerySchema>;

@@ -27,7 +27,7 @@ const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
 describe('demo puzzles', () => {
   it('are made from the demo stock, of both kinds, proved unique at seed time, quickly', () => {
     const runner = jobRunnerFor(t.db);
-    const list = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: 'id', dir: 'asc' });
+    const list = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } });
     expect(list.total).toBe(6);
     expect(new Set(list.items.map((p) => p.kind))).toEqual(new Set(['assembly', 'deduction']));
     // distinct tilings, so the editions' reuse guard lets them all in
@@ -49,7 +49,7 @@ describe('demo puzzles', () => {
     const states = listEditions(t.deps, admin, {}).map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort();
     expect(states).toContain('The Saturday Quadrant 40 published');
     expect(states).toContain('The Saturday Quadrant 41 in_proof');
-    const used = listPuzzles(t.db, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: 'id', dir: 'asc' }).items.filter((p) => p.usedIn.length > 0);
+    const used = listPuzzles(t.db, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
     expect(used.length).toBe(4);
   });
 });

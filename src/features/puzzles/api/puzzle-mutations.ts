@@ -1,0 +1,35 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { okSchema } from '../../../../shared/contracts/common';
+import { puzzleStartedSchema, type PuzzleCreate, type PuzzlePatch } from '../../../../shared/contracts/puzzles';
+import { apiRequest } from '../../../lib/api-client';
+import { puzzleKeys } from './puzzles-queries';
+
+/** POST /api/puzzles (editor): make a puzzle; the proof starts in the worker pool (202). */
+export async function createPuzzle(body: PuzzleCreate) {
+  return apiRequest('/api/puzzles', { method: 'POST', body, schema: puzzleStartedSchema });
+}
+
+/** PATCH /api/puzzles/:id (editor): change starters / givens / level; proved again (202). */
+export async function updatePuzzle({ id, patch }: { id: number; patch: PuzzlePatch }) {
+  return apiRequest(`/api/puzzles/${id}`, { method: 'PATCH', body: patch, schema: puzzleStartedSchema });
+}
+
+/** POST /api/puzzles/:id/recheck (editor): recompute the certificate (202). */
+export async function recheckPuzzle(id: number) {
+  return apiRequest(`/api/puzzles/${id}/recheck`, { method: 'POST', schema: puzzleStartedSchema });
+}
+
+/** POST /api/puzzles/:id/cancel (editor). */
+export async function cancelPuzzle(id: number) {
+  return apiRequest(`/api/puzzles/${id}/cancel`, { method: 'POST', schema: okSchema });
+}
+
+function useInvalidating<A, R>(fn: (a: A) => Promise<R>) {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: fn, onSettled: () => queryClient.invalidateQueries({ queryKey: puzzleKeys.all }) });
+}
+
+export const useCreatePuzzle = () => useInvalidating(createPuzzle);
+export const useUpdatePuzzle = () => useInvalidating(updatePuzzle);
+export const useRecheckPuzzle = () => useInvalidating(recheckPuzzle);
+export const useCancelPuzzle = () => useInvalidating(cancelPuzzle);
