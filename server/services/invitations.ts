@@ -58,6 +58,10 @@ export function lookupInvitation(deps: AppDeps, token: string): InvitationLookup
   const row = findByToken(deps, token);
   if (!row) throw new NotFound('This invitation link is not known.');
   if (row.acceptedAt) return { email: row.email, role: row.role, valid: false, reason: 'used' };
+  // an account with this e-mail was made meanwhile (another invitation): nothing left to accept
+  if (deps.db.select({ id: user.id }).from(user).where(eq(user.email, row.email)).get()) {
+    return { email: row.email, role: row.role, valid: false, reason: 'used' };
+  }
   if (row.expiresAt.getTime() <= deps.clock.now().getTime()) return { email: row.email, role: row.role, valid: false, reason: 'expired' };
   return { email: row.email, role: row.role, valid: true };
 }

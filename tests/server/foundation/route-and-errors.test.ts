@@ -3,6 +3,8 @@ import multer from 'multer';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { APIError } from 'better-auth/api';
+import { eq } from 'drizzle-orm';
+import { invitation } from '../../../server/db/schema/auth';
 import { z } from 'zod';
 import { isAllowed, permissions } from '../../../server/auth/permissions';
 import { apiNotFound, errorHandler } from '../../../server/http/error-handler';
@@ -166,6 +168,8 @@ describe('errors from better-auth calls inside our handlers', () => {
     await t.createUser('setter', { email: 'raced@example.test' });
     const res = await request(t.app).post(`/api/invitations/${token}/accept`).send({ name: 'Raced', password: 'a-good-long-password' }).expect(409);
     expect(errorBodySchema.parse(res.body).error.code).toBe('conflict');
-    expect((await request(t.app).get(`/api/invitations/${token}`).expect(200)).body.valid).toBe(true);
+    // the claim was released, and the link now says it cannot be used
+    expect((await request(t.app).get(`/api/invitations/${token}`).expect(200)).body).toMatchObject({ valid: false, reason: 'used' });
+    expect(t.db.select({ acceptedAt: invitation.acceptedAt }).from(invitation).where(eq(invitation.email, 'raced@example.test')).get()?.acceptedAt).toBeNull();
   });
 });
