@@ -3,6 +3,7 @@
 // lexicographically largest (squaring.net, "canonical Bouwkamp code is the highest code").
 
 import type { Square, Tiling } from './types';
+import { sortKeys } from './sort-keys';
 import { toBouwkamp } from './bouwkamp';
 
 /** Indices of squares in Bouwkamp reading order (top y, then left x), for corners (xs[i], ys[i]). */
@@ -13,7 +14,7 @@ function readingIndices(xs: ArrayLike<number>, ys: ArrayLike<number>, W: number,
   if ((H + 1) * (W + 1) * n < 2 ** 52) {
     const keys = new Float64Array(n);
     for (let i = 0; i < n; i++) keys[i] = (ys[i]! * (W + 1) + xs[i]!) * n + i;
-    keys.sort();
+    sortKeys(keys);
     for (let i = 0; i < n; i++) order[i] = keys[i]! % n;
   } else {
     for (let i = 0; i < n; i++) order[i] = i;

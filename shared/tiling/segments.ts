@@ -3,6 +3,7 @@
 // a "cross") belong to one segment (engine.md section 4).
 
 import type { Tiling } from './types';
+import { sortKeys } from './sort-keys';
 
 export interface Segments {
   /** per segment: line coordinate (y for horizontal) and extent [start, end] along it */
@@ -45,7 +46,7 @@ export function maximalSegments(t: Tiling, vertical = false): Segments {
     const keys = new Float64Array(m);
     const span = maxLo + 1;
     for (let e = 0; e < m; e++) keys[e] = (line[e]! * span + lo[e]!) * m + e;
-    keys.sort();
+    sortKeys(keys);
     for (let r = 0; r < m; r++) order[r] = keys[r]! % m;
   } else {
     for (let e = 0; e < m; e++) order[e] = e;

@@ -3,6 +3,7 @@
 // (common practice; engine.md section 3).
 
 import type { Tiling, VerifyResult } from './types';
+import { sortKeys } from './sort-keys';
 
 export const MAX_SIDE = 2 ** 31;
 export const MAX_SQUARES = 2000;
@@ -41,7 +42,7 @@ export function verifyTiling(t: Tiling): VerifyResult {
   // indices sorted by x: packed keys x * n + i (below 2^53 since x <= 2^31, n <= 2000)
   const keys = new Float64Array(n);
   for (let i = 0; i < n; i++) keys[i] = squares[i]!.x * n + i;
-  keys.sort();
+  sortKeys(keys);
   const order = new Int32Array(n);
   for (let i = 0; i < n; i++) order[i] = keys[i]! % n;
   for (let a = 0; a < n; a++) {
