@@ -23,6 +23,8 @@ function featureRoute(route: AppRoute): RouteObject {
     path: route.path,
     handle: { title: route.title },
     element: <RoleGuard roles={route.roles} />,
+    // A failing page shows its error inside the layout, keeping the navigation.
+    errorElement: <RouteError />,
     children: [page],
   };
 }
@@ -51,7 +53,7 @@ export function buildRoutes(queryClient: QueryClient): RouteObject[] {
           errorElement: <RouteError />,
           hydrateFallbackElement: <Loading />,
           children: [
-            { index: true, element: <HomePage /> },
+            { index: true, element: <HomePage />, errorElement: <RouteError /> },
             ...appRoutes.map(featureRoute),
             { path: '*', element: <NotFoundPage /> },
           ],

@@ -65,3 +65,16 @@ describe('an expired session', () => {
     expect(router.state.location.search).toBe(`?next=${encodeURIComponent('/admin/users')}`);
   });
 });
+
+describe('a page whose data is not what the contract says', () => {
+  it('refuses the answer and says so inside the layout, keeping the navigation', async () => {
+    stubFetch({
+      'GET /api/me': meAs('admin'),
+      // not the contract's shape: the page's fetcher must refuse it and the page must say so
+      'GET /api/mailbox': { body: { messages: 'nope' } },
+    });
+    renderApp('/admin/mailbox');
+    expect(await screen.findByText('Could not read the mailbox')).toBeTruthy();
+    expect(screen.getByRole('navigation', { name: 'Main' })).toBeTruthy();
+  });
+});
