@@ -36,6 +36,7 @@ export function ChooseSquares({ tiling, chosen, onToggle, what, disabled = false
               width={q.s}
               height={q.s}
               fill="transparent"
+              pointerEvents="all"
               role="checkbox"
               aria-checked={on}
               aria-disabled={disabled || undefined}
