@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { canonicalCode, parseTiling, toBouwkamp, toTableCode } from '../../../shared/tiling/index';
+import { canonicalCode, edgeList, mulberry32, parseTiling, randomCNet, solvePlaneNetwork, toBouwkamp, toTableCode } from '../../../shared/tiling/index';
 import { O24_175, O9_33x32, catalogue, withoutCaption, greedyTiling } from './helpers';
 
 describe('toBouwkamp', () => {
@@ -27,5 +27,21 @@ describe('toBouwkamp', () => {
       }),
       { seed: 99, numRuns: 500 },
     );
+  });
+
+  it('round-trips tilings solved from seeded random c-nets of orders 9 to 40', () => {
+    const rng = mulberry32(77);
+    let n = 0;
+    while (n < 150) {
+      const g = randomCNet(10 + Math.floor(rng() * 31), rng);
+      const es = edgeList(g);
+      const [p, q] = es[Math.floor(rng() * es.length)]!;
+      const r = solvePlaneNetwork(g, { p, q });
+      if (!r.ok) continue;
+      n++;
+      const code = toBouwkamp(r.tiling);
+      expect(toBouwkamp(parseTiling(code))).toBe(code);
+      expect(canonicalCode(parseTiling(canonicalCode(r.tiling)))).toBe(canonicalCode(r.tiling));
+    }
   });
 });
