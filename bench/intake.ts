@@ -76,8 +76,8 @@ async function run(): Promise<void> {
   ];
 
   console.log(`\nintake: seeded ${created.toLocaleString('en-GB')} stock tilings in ${(seedMs / 1000).toFixed(1)} s`);
-  console.log(`| route | requests | rate (req/s) | p50 ms | p95 ms | p99 ms | max ms | non-200 |`);
-  console.log(`|---|---|---|---|---|---|---|---|`);
+  console.log(`| route | requests | rate (req/s) | p50 ms | p95 ms | p99 ms | max ms | non-200 | CPU ms/request |`);
+  console.log(`|---|---|---|---|---|---|---|---|---|`);
   let failed = false;
   for (const [name, path] of scenarios) {
     for (let i = 0; i < 50; i++) await get(path()); // warm-up
@@ -85,6 +85,7 @@ async function run(): Promise<void> {
     let bad = 0;
     const total = RATE * SECONDS;
     const started = Date.now();
+    const cpu0 = process.cpuUsage();
     const pending: Promise<void>[] = [];
     for (let i = 0; i < total; i++) {
       const due = started + (i * 1000) / RATE;
@@ -97,11 +98,15 @@ async function run(): Promise<void> {
     }
     await Promise.all(pending);
     const secs = (Date.now() - started) / 1000;
+    const cpu = process.cpuUsage(cpu0);
+    const cpuPerReq = (cpu.user + cpu.system) / 1000 / lat.length;
     lat.sort((a, b) => a - b);
     const p95 = percentile(lat, 95);
     if (!(p95 < 50) || bad > 0) failed = true;
-    console.log(`| ${name} | ${lat.length} | ${(lat.length / secs).toFixed(0)} | ${percentile(lat, 50).toFixed(1)} | ${p95.toFixed(1)} | ${percentile(lat, 99).toFixed(1)} | ${lat[lat.length - 1]!.toFixed(1)} | ${bad} |`);
+    console.log(`| ${name} | ${lat.length} | ${(lat.length / secs).toFixed(0)} | ${percentile(lat, 50).toFixed(1)} | ${p95.toFixed(1)} | ${percentile(lat, 99).toFixed(1)} | ${lat[lat.length - 1]!.toFixed(1)} | ${bad} | ${cpuPerReq.toFixed(2)} |`);
   }
+  const [l1, l5] = (await import('node:os')).loadavg();
+  console.log(`(load average ${l1!.toFixed(1)} / ${l5!.toFixed(1)} over 1 / 5 min; CPU time includes the load generator, same process)`);
   console.log(failed ? 'intake: TARGET MISSED (p95 < 50 ms, all 200)' : 'intake: p95 < 50 ms on both routes');
   agent.destroy();
   await new Promise<void>((r) => server.close(() => r()));

@@ -7,7 +7,7 @@ import type { DbOrTx } from '../db/client';
 import { stock } from '../db/schema/stock';
 import { submission } from '../db/schema/submissions';
 import { NotFound, Unprocessable } from '../http/errors';
-import { analyseTiling, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-check';
+import { classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-check';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
 // (review, foundry, demo seed all call it).
@@ -223,8 +223,8 @@ export function getStockDetail(db: DbOrTx, id: number): StockDetail {
     .get();
   if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
   const { squaresJson, paramsJson, ...item } = r;
+  // the stored orientation is the canonical one: its Bouwkamp code is the canonical code
   const tiling = tilingFromJson(r.width, r.height, squaresJson);
-  const a = analyseTiling(tiling);
   const subs = db
     .select({ id: submission.id, createdAt: submission.createdAt, reviewedAt: submission.reviewedAt, status: submission.status })
     .from(submission)
@@ -239,11 +239,11 @@ export function getStockDetail(db: DbOrTx, id: number): StockDetail {
   }
   return {
     ...toItem(item),
-    bouwkamp: a.bouwkamp,
+    bouwkamp: r.canonicalCode,
     params: paramsJson ? (JSON.parse(paramsJson) as Record<string, unknown>) : null,
     tiling,
     smith: smithDrawingOf(tiling),
-    classification: a.classification,
+    classification: classificationOf(tiling),
     history: { events, puzzles: usage.puzzlesFor(db, id), editions: usage.editionsFor(db, id) },
   };
 }

@@ -35,29 +35,33 @@ function toError(e: unknown): TilingError {
   throw e;
 }
 
+/** The engine's classification in our contract's shape (sub-rectangles capped at 200). */
+export function classificationOf(tiling: Tiling): ClassificationData {
+  const c = classifyTiling(tiling);
+  return {
+    order: c.order,
+    width: c.width,
+    height: c.height,
+    square: c.square,
+    perfect: c.perfect,
+    simple: c.simple,
+    trivialCompound: c.trivialCompound,
+    subRectangles: c.subRectangles.slice(0, 200),
+    gcd: c.gcd,
+    minSize: c.minSize,
+    maxSize: c.maxSize,
+  };
+}
+
 /** Analyse a tiling that the engine already decoded and verified. */
 export function analyseTiling(tiling: Tiling): TilingAnalysis {
-  const c = classifyTiling(tiling);
-  const canonical = canonicalTiling(tiling);
   return {
     tiling,
-    canonical,
+    canonical: canonicalTiling(tiling),
     canonicalCode: canonicalCode(tiling),
     canonicalKey: canonicalKey(tiling),
     bouwkamp: toBouwkamp(tiling, { header: true }),
-    classification: {
-      order: c.order,
-      width: c.width,
-      height: c.height,
-      square: c.square,
-      perfect: c.perfect,
-      simple: c.simple,
-      trivialCompound: c.trivialCompound,
-      subRectangles: c.subRectangles.slice(0, 200),
-      gcd: c.gcd,
-      minSize: c.minSize,
-      maxSize: c.maxSize,
-    },
+    classification: classificationOf(tiling),
   };
 }
 
