@@ -3,6 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { seriousAxeViolations } from './helpers/axe';
 import { screenshot, signIn, useBrowser } from './helpers/browser';
 import { waitForMail } from './helpers/mailbox';
 
@@ -100,5 +101,28 @@ describe('the proof round in the browser', () => {
     expect((await printer.request.get(`/api/editions/${draft!.id}`)).status()).toBe(404);
     expect((await printer.request.get(`/api/editions/${draft!.id}/preview.pdf`)).status()).toBe(403);
     expect((await printer.request.get('/api/stock')).status()).toBe(403);
+  });
+
+  it('shows the admin the publications and each template with a sample page, without serious accessibility findings', async () => {
+    const admin = harness.page();
+    await signIn(admin, 'admin');
+    await admin.goto('/admin/publications');
+    await admin.getByRole('button', { name: 'Edit The Saturday Quadrant' }).waitFor();
+    expect(await admin.getByText('Payouts are subject to local tax rules', { exact: false }).count()).toBeGreaterThan(0);
+    // axe-core WCAG 2.1 A/AA rules: no serious or critical finding
+    expect(await seriousAxeViolations(admin)).toEqual([]);
+    await screenshot(admin, 'admin-publications');
+    await admin.goto('/admin/templates');
+    for (const name of ['A4 magazine page', 'US Letter page', 'Newspaper column']) await admin.getByRole('heading', { name }).waitFor();
+    expect(await seriousAxeViolations(admin)).toEqual([]);
+    const sample = await admin.request.get('/api/templates/newspaper-column/sample.pdf');
+    expect(sample.ok()).toBe(true);
+    expect((await sample.body()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    await screenshot(admin, 'admin-templates');
+    const editor = await (await harness.newContext()).newPage();
+    await signIn(editor, 'editor');
+    await editor.goto('/editions');
+    await editor.getByRole('heading', { name: 'Editions', level: 1 }).waitFor();
+    expect(await seriousAxeViolations(editor)).toEqual([]);
   });
 });
