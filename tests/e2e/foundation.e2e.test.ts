@@ -49,6 +49,7 @@ async function signInWithKeyboard(page: Page): Promise<void> {
   await page.getByRole('navigation', { name: 'Main' }).waitFor();
   await page.keyboard.press('Tab');
   expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Skip to content');
+  await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
 }
 
 describe('foundation in the browser', () => {
