@@ -6,11 +6,13 @@ import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { Card, Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
+import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
 import { errorMessage, isApiError } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useChecks } from '../api/get-checks';
 import { useEdition } from '../api/get-edition';
+import { usePrintablePuzzles } from '../api/list-printable-puzzles';
 import { usePublishEdition } from '../api/publish-edition';
 import { useSendProof } from '../api/send-proof';
 import { useUpdateEdition } from '../api/update-edition';
@@ -45,6 +47,7 @@ function Slots({ edition }: { edition: Edition }) {
   const [slots, setSlots] = useState<SlotInput[]>(() => edition.slots.map((s) => ({ puzzleId: s.puzzleId, instructions: s.instructions })));
   const [newId, setNewId] = useState('');
   const [open, setOpen] = useState<number | null>(null);
+  const printable = usePrintablePuzzles();
   const info = new Map(edition.slots.map((s) => [s.puzzleId, s.puzzle]));
   const move = (i: number, by: number) =>
     setSlots((list) => {
@@ -56,7 +59,7 @@ function Slots({ edition }: { edition: Edition }) {
     });
   return (
     <Card title="Slots">
-      {slots.length === 0 ? <p className="text-sm text-ink-muted">No puzzles yet. Add one by its id (from the Puzzles page).</p> : null}
+      {slots.length === 0 ? <p className="text-sm text-ink-muted">No puzzles yet. Add one with a current certificate from the list below.</p> : null}
       <ol className="flex flex-col gap-2">
         {slots.map((s, i) => {
           const p = info.get(s.puzzleId);
@@ -96,7 +99,19 @@ function Slots({ edition }: { edition: Edition }) {
       </ol>
       {editable ? (
         <div className="flex flex-wrap items-end gap-2">
-          <TextField label="Puzzle id" value={newId} onChange={(e) => setNewId(e.target.value)} />
+          {(printable.data ?? []).length > 0 ? (
+            <SelectField
+              label="Puzzle"
+              placeholder="Choose a puzzle…"
+              value={newId}
+              onChange={(e) => setNewId(e.target.value)}
+              options={(printable.data ?? [])
+                .filter((p) => !slots.some((s) => s.puzzleId === String(p.id)))
+                .map((p) => ({ value: String(p.id), label: `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${p.id}: ${p.title} (${p.width} x ${p.height}${p.grade ? `, Grade ${p.grade}` : ''})` }))}
+            />
+          ) : (
+            <TextField label="Puzzle id" value={newId} onChange={(e) => setNewId(e.target.value)} />
+          )}
           <Button
             disabled={newId.trim() === '' || slots.some((s) => s.puzzleId === newId.trim())}
             onClick={() => {
