@@ -19,7 +19,7 @@ import type { TableSearchParams } from './use-table-search-params';
 
 /**
  * The table features every DataTable uses (TanStack Table v9 API, see
- * docs/decisions/001-data-table-on-table-v9.md): sorting and pagination, both manual
+ * docs/decisions/010-data-table-on-table-v9-with-url-state.md): sorting and pagination, both manual
  * (the server sorts and pages), state owned by the URL.
  */
 export const dataTableFeatures = tableFeatures({ rowSortingFeature, rowPaginationFeature });
