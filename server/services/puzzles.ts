@@ -112,7 +112,8 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
     startersJson: JSON.stringify(s.starters),
     givensJson: JSON.stringify(s.givens),
     stepsJson: JSON.stringify(s.steps),
-    grade: s.grade,
+    // a grade only means something for a puzzle with one solution
+    grade: cert.verdict === 'unique' ? s.grade : null,
     level: row.kind === 'deduction' ? JSON.stringify(s.level ?? DEFAULT_LEVEL) : null,
     secondJson: s.second ? JSON.stringify(s.second) : null,
     notesJson: JSON.stringify(s.notes),
@@ -245,12 +246,20 @@ function certificateOf(r: Pick<PuzzleRow, 'certificateJson'>) {
   return p.success ? p.data : null;
 }
 
+const verdictWords: Record<string, string> = {
+  multiple: 'the pieces fit together in more than one way: not unique',
+  none: 'the pieces cannot fill the frame',
+  undecided: 'the search ran out of time before it could decide',
+  stuck: 'unique by rank, but steps at this level do not reach every size',
+  'not-unique': 'the givens leave some sizes free: not unique',
+};
+
 /** Why the puzzle's certificate does not make it printable (empty: it does). */
 export function staleReasons(r: Pick<PuzzleRow, 'certificateJson' | 'inputHash' | 'status'>): string[] {
   const cert = certificateOf(r);
   if (!cert) return [r.status === 'proving' ? 'the first proof is still running' : 'there is no certificate'];
   const out: string[] = [];
-  if (cert.verdict !== 'unique') out.push(`the verdict is ${cert.verdict}, not unique`);
+  if (cert.verdict !== 'unique') out.push(verdictWords[cert.verdict] ?? `the verdict is ${cert.verdict}`);
   if (!isCertificateCurrent(cert)) out.push(`issued by engine ${cert.engineVersion}; the engine in use is ${PUZZLE_ENGINE_VERSION}`);
   if (cert.inputHash !== r.inputHash) out.push('the puzzle changed since the certificate was issued (input hash differs)');
   if (r.status === 'proving') out.push('a new proof is running');

@@ -134,14 +134,33 @@ describe('puzzles API', () => {
     expect(back.certificate?.inputHash).toBe(firstHash);
   });
 
-  it('an edition refuses a stale puzzle: the check before proof names the certificate', async () => {
+  it('an edition refuses a stale puzzle; proved again it goes to proof, and then it is locked', async () => {
     const editor = await t.signInAs('editor');
+    const admin = await t.signInAs('admin');
+    const pub = await admin.post('/api/publications').send({
+      title: 'The Saturday Quadrant', publisher: 'Larkspur & Quill Press', templateId: 'newspaper-column', cadence: 'weekly',
+      solutionRule: 'same_edition', reuseWindowDays: 90, currency: 'GBP', feeAssemblyMinor: 4500, feeDeductionMinor: 6000,
+    }).expect(201);
+    const ed = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 7, date: '2026-12-05' }).expect(201);
     const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction', givens: [] }).expect(202)).body);
     const p = await settled(editor, id);
     expect(p.status).toBe('not-unique');
-    const print = t.deps.puzzlesForPrint!.getPuzzleForPrint(t.db, String(id));
-    expect(print?.certificate?.current).toBe(false);
-    expect(print?.certificate?.summary).toMatch(/not unique/);
+    await editor.patch(`/api/editions/${ed.body.id}`).send({ slots: [{ puzzleId: String(id) }] }).expect(200);
+    const checks = (await editor.get(`/api/editions/${ed.body.id}/checks`).expect(200)).body as { ok: boolean; checks: { code: string; ok: boolean; slot?: number; message: string }[] };
+    expect(checks.ok).toBe(false);
+    expect(checks.checks).toContainEqual(expect.objectContaining({ code: 'certificate', ok: false, slot: 1 }));
+    await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(422);
+
+    // print every size: trivially deduced, proved unique again, current
+    await editor.patch(`/api/puzzles/${id}`).send({ givens: p.tiling.squares.map(({ x, y }) => ({ x, y })) }).expect(202);
+    expect((await settled(editor, id)).status).toBe('unique');
+    const again = (await editor.get(`/api/editions/${ed.body.id}/checks`).expect(200)).body as typeof checks;
+    expect(again.checks.filter((c) => c.code === 'certificate').every((c) => c.ok)).toBe(true);
+    await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(201);
+    const listed = puzzleListSchema.parse((await editor.get(`/api/puzzles?pageSize=200`).expect(200)).body).items.find((x) => x.id === id)!;
+    expect(listed.usedIn).toEqual([expect.objectContaining({ publicationTitle: 'The Saturday Quadrant', number: 7, state: 'in_proof' })]);
+    // in proof: the puzzle may no longer change
+    await editor.patch(`/api/puzzles/${id}`).send({ givens: [] }).expect(409);
   });
 
   it('an Assembly puzzle of a set with two ways gets the fewest starter pieces; without them it is reported multiple', async () => {
