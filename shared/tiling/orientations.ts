@@ -50,12 +50,13 @@ const GROUP: [boolean, boolean, boolean][] = [
   [true, true, true],
 ];
 
-function transformed(t: Tiling, transpose: boolean, flipX: boolean, flipY: boolean) {
+function coordinates(t: Tiling, transpose: boolean, flipX: boolean, flipY: boolean) {
   const W = transpose ? t.H : t.W;
   const H = transpose ? t.W : t.H;
   const n = t.squares.length;
   const xs = new Float64Array(n);
   const ys = new Float64Array(n);
+  let corner = -1;
   for (let i = 0; i < n; i++) {
     const q = t.squares[i]!;
     let x = transpose ? q.y : q.x;
@@ -64,8 +65,14 @@ function transformed(t: Tiling, transpose: boolean, flipX: boolean, flipY: boole
     if (flipY) y = H - y - q.s;
     xs[i] = x;
     ys[i] = y;
+    if (x === 0 && y === 0) corner = i;
   }
-  return { W, H, xs, ys, order: readingIndices(xs, ys, W, H) };
+  return { W, H, xs, ys, corner };
+}
+
+function transformed(t: Tiling, transpose: boolean, flipX: boolean, flipY: boolean) {
+  const c = coordinates(t, transpose, flipX, flipY);
+  return { ...c, order: readingIndices(c.xs, c.ys, c.W, c.H) };
 }
 
 function build(t: Tiling, o: ReturnType<typeof transformed>): Tiling {
@@ -88,15 +95,30 @@ export function orientations(t: Tiling, opts?: { all?: boolean }): Tiling[] {
   return out;
 }
 
-/** The lexicographically largest orientation with W >= H. */
+/**
+ * The lexicographically largest orientation with W >= H. The first size of an orientation is
+ * its top-left corner square, so only the orientations whose corner square is largest need
+ * sorting (for a perfect tiling that is usually one).
+ */
 export function canonicalTiling(t: Tiling): Tiling {
   const sq = t.squares;
-  let best: ReturnType<typeof transformed> | null = null;
+  const cands: ReturnType<typeof coordinates>[] = [];
+  let top = -1;
   for (const [tr, fx, fy] of GROUP) {
     const W = tr ? t.H : t.W;
     const H = tr ? t.W : t.H;
     if (W < H) continue;
-    const o = transformed(t, tr, fx, fy);
+    const c = coordinates(t, tr, fx, fy);
+    const first = c.corner >= 0 ? sq[c.corner]!.s : -1;
+    if (first > top) {
+      top = first;
+      cands.length = 0;
+    }
+    if (first === top) cands.push(c);
+  }
+  let best: ReturnType<typeof transformed> | null = null;
+  for (const c of cands) {
+    const o = { ...c, order: readingIndices(c.xs, c.ys, c.W, c.H) };
     if (best === null) {
       best = o;
       continue;
