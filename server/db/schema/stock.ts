@@ -38,6 +38,9 @@ export const stock = sqliteTable(
     index('stock_recent_idx').on(t.createdAt, t.id, t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
     // every filter and sort column: list and count queries scan this narrow index, never the
     // wide rows (squares JSON); see server/services/stock.ts listStock and decision 052
+    // lists sorted by width or height walk these in order and stop after a page
+    index('stock_width_sort_idx').on(t.width, t.id, t.order, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
+    index('stock_height_sort_idx').on(t.height, t.id, t.order, t.width, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
     index('stock_filter_idx').on(t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId, t.createdAt, t.id),
   ],
 );

@@ -1,0 +1,2 @@
+CREATE INDEX `stock_width_sort_idx` ON `stock` (`width`,`id`,`order`,`height`,`square`,`perfect`,`simple`,`provenance`,`use_count`,`setter_id`);--> statement-breakpoint
+CREATE INDEX `stock_height_sort_idx` ON `stock` (`height`,`id`,`order`,`width`,`square`,`perfect`,`simple`,`provenance`,`use_count`,`setter_id`);
