@@ -36,6 +36,7 @@ declare namespace el {
 void [el, Fragment];
 import type { RichTextDoc, RichTextNode } from '../../shared/contracts/editions';
 import { templateGeometry, type PageTemplate } from '../../shared/contracts/templates';
+import { squareLabel } from '../../shared/puzzle/index';
 import { PRINT_FONTS, registerPrintFonts } from './fonts';
 import type { EditionDocument, Preflight, PuzzlePrint, SolutionPrint, SolvedTiling } from './types';
 
@@ -103,6 +104,22 @@ function label(ctx: Ctx, text: string, x: number, y: number, w: number, h: numbe
   );
 }
 
+/**
+ * The square's letter (A, B, ..., AA: the names the Deduction step list uses) small in its
+ * top-left corner, when there is room beside the size label.
+ */
+function cornerLetter(ctx: Ctx, i: number, x: number, y: number, w: number, h: number, key: string): ReactElement | null {
+  const size = Math.max(ctx.t.minimums.digitPt, Math.min(ctx.t.type.captionPt, Math.min(w, h) * 0.22));
+  const text = squareLabel(i);
+  if (Math.min(w, h) < size * 2.6 || w < size * (0.7 * text.length + 0.8)) return null;
+  const props = { x: x + size * 0.35, y: y + size * 1.05, textAnchor: 'start', fill: INK, fontFamily: PRINT_FONTS.sans, fontWeight: 400, fontSize: size } as unknown as { x: number; y: number };
+  return (
+    <Text key={key} {...props}>
+      {text}
+    </Text>
+  );
+}
+
 type Box = { widthPt: number; maxHeightPt: number };
 
 function fitScale(W: number, H: number, box: Box) {
@@ -110,7 +127,7 @@ function fitScale(W: number, H: number, box: Box) {
 }
 
 /** A solved tiling drawn to scale, every square labelled where it can be read. */
-function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number): ReactElement {
+function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number, letters = false): ReactElement {
   const k = fitScale(tiling.W, tiling.H, box);
   const stroke = ctx.t.drawing.strokePt;
   const children: ReactNode[] = [];
@@ -121,6 +138,8 @@ function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number): 
     const l = label(ctx, String(sq.s), sq.x * k, sq.y * k, side, side, `t${i}`);
     if (l) children.push(l);
     else ctx.metrics.omittedLabels.push({ slot, where: 'solution', size: sq.s });
+    const letter = letters ? cornerLetter(ctx, i, sq.x * k, sq.y * k, side, side, `c${i}`) : null;
+    if (letter) children.push(letter);
   });
   const w = tiling.W * k;
   const h = tiling.H * k;
@@ -203,6 +222,8 @@ function deductionDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'deduction' 
     const hPt = r.h * k;
     noteSquare(ctx, Math.min(wPt, hPt));
     children.push(<Rect key={`d${i}`} x={r.x * k} y={r.y * k} width={wPt} height={hPt} fill={given === undefined ? '#ffffff' : GIVEN_FILL} stroke={INK} strokeWidth={stroke} />);
+    const letter = cornerLetter(ctx, i, r.x * k, r.y * k, wPt, hPt, `dc${i}`);
+    if (letter) children.push(letter);
     if (given !== undefined) {
       const l = label(ctx, String(given), r.x * k, r.y * k, wPt, hPt, `g${i}`);
       if (l) children.push(l);
@@ -385,7 +406,7 @@ function solutionBlock(ctx: Ctx, s: SolutionPrint, colW: number): ReactElement {
   return (
     <View key={`s${s.slot}`} style={{ width: colW, marginBottom: 5 * PT_PER_MM }} wrap={false}>
       <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: t.type.headingPt * 0.9 }}>{s.caption ?? `Puzzle ${s.slot}`}</Text>
-      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{tilingDrawing(ctx, s.tiling, box, s.slot)}</View>
+      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{tilingDrawing(ctx, s.tiling, box, s.slot, s.kind === 'deduction')}</View>
       <Text style={{ fontSize: t.type.captionPt }}>{`${s.tiling.W} \u00d7 ${s.tiling.H}: ${sizes.join(', ')}.`}</Text>
       {s.steps && s.steps.length > 0 ? (
         <View style={{ marginTop: 1 * PT_PER_MM }}>
