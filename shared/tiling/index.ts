@@ -1,4 +1,7 @@
 // The tiling engine's public API (the contract other areas code against).
+// Entry points for outside data (parseTiling, tilingFromSquares, verifyTiling, checkKirchhoff,
+// solvePlaneNetwork, planeGraphFromDrawing) validate everything; the others (classify,
+// canonical forms, orientations, Smith diagrams, codes) expect a verified tiling.
 export type {
   Square,
   Tiling,

@@ -76,6 +76,15 @@ export function checkKirchhoff(t: Tiling): { ok: boolean; violations: KirchhoffV
   if (t === null || typeof t !== 'object' || !Array.isArray(t.squares)) {
     return { ok: false, violations: [{ law: 'current', message: 'not a tiling: expected { W, H, squares: [] }' }] };
   }
+  if (!Number.isInteger(t.W) || !Number.isInteger(t.H) || t.W <= 0 || t.H <= 0) {
+    return { ok: false, violations: [{ law: 'current', message: `not a tiling: width and height must be positive integers (got ${String(t.W)} x ${String(t.H)})` }] };
+  }
+  for (let i = 0; i < t.squares.length; i++) {
+    const q = t.squares[i];
+    if (!q || !Number.isInteger(q.x) || !Number.isInteger(q.y) || !Number.isInteger(q.s) || q.s <= 0 || Math.abs(q.x) > 2 ** 31 || Math.abs(q.y) > 2 ** 31 || q.s > 2 ** 31) {
+      return { ok: false, violations: [{ law: 'current', square: i, message: `not a tiling: square ${i + 1} needs integer x, y and a positive integer size up to 2^31` }] };
+    }
+  }
   const violations: KirchhoffViolation[] = [];
   checkOne(t, 'horizontal', violations);
   checkOne(t, 'vertical', violations);

@@ -16,7 +16,7 @@ export interface Segments {
   after: Int32Array;
 }
 
-/** Horizontal segments ('horizontal') or vertical segments ('vertical') of a verified tiling. */
+/** Horizontal segments (or vertical ones) of a tiling whose coordinates and sizes are integers. */
 export function maximalSegments(t: Tiling, vertical = false): Segments {
   const sq = t.squares;
   const n = sq.length;
@@ -36,16 +36,20 @@ export function maximalSegments(t: Tiling, vertical = false): Segments {
   // sort entries by (line, lo): one packed numeric key per entry when it fits below 2^53
   // (a native numeric sort of a Float64Array is far faster than a comparator sort)
   const order = new Int32Array(m);
+  let minLine = 0;
+  let minLo = 0;
   let maxLine = 0;
   let maxLo = 0;
   for (let e = 0; e < m; e++) {
     if (line[e]! > maxLine) maxLine = line[e]!;
     if (lo[e]! > maxLo) maxLo = lo[e]!;
+    if (line[e]! < minLine) minLine = line[e]!;
+    if (lo[e]! < minLo) minLo = lo[e]!;
   }
-  if ((maxLine + 1) * (maxLo + 1) * m < 2 ** 52) {
+  if ((maxLine - minLine + 1) * (maxLo - minLo + 1) * m < 2 ** 52) {
     const keys = new Float64Array(m);
-    const span = maxLo + 1;
-    for (let e = 0; e < m; e++) keys[e] = (line[e]! * span + lo[e]!) * m + e;
+    const span = maxLo - minLo + 1;
+    for (let e = 0; e < m; e++) keys[e] = ((line[e]! - minLine) * span + lo[e]! - minLo) * m + e;
     sortKeys(keys);
     for (let r = 0; r < m; r++) order[r] = keys[r]! % m;
   } else {
