@@ -42,4 +42,13 @@ describe("checkKirchhoff: Kirchhoff's current and voltage laws on both Smith dia
     expect(checkKirchhoff({ W: 3, H: 3, squares: [{ x: 1, y: 1, s: 1 }] }).violations[0]!.message).toMatch(/no top pole/);
     expect(checkKirchhoff(null as never).ok).toBe(false);
   });
+
+  it('regression (found by fuzzing): a zero-size square at y = -1 is reported, not a crash', () => {
+    const r = checkKirchhoff({ W: 0, H: 0, squares: [{ x: 0, y: -1, s: 0 }] });
+    expect(r.ok).toBe(false);
+    expect(r.violations[0]!.message).toMatch(/^not a tiling/);
+    // negative coordinates with valid sizes reach the segment builder and are reported too
+    const shifted = checkKirchhoff({ W: 2, H: 1, squares: [{ x: -1, y: 0, s: 1 }, { x: 1, y: 0, s: 1 }] });
+    expect(shifted.ok).toBe(false);
+  });
 });
