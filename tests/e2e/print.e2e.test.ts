@@ -7,8 +7,8 @@ import { seriousAxeViolations } from './helpers/axe';
 import { screenshot, signIn, useBrowser } from './helpers/browser';
 import { waitForMail } from './helpers/mailbox';
 
-// The proof round in a real browser against the built app in demo mode: the editor sends
-// The Saturday Quadrant No. 42 (a demo draft) to proof, the printer returns it with a
+// The proof round in a real browser against the built app in demo mode: the editor composes
+// The Saturday Quadrant No. 42 (a demo draft) from two demo puzzles and sends it to proof, the printer returns it with a
 // note, the editor changes the introduction and sends proof 2, the printer approves it
 // and downloads the press file, which carries no PROOF stamp.
 
@@ -33,6 +33,23 @@ describe('the proof round in the browser', () => {
     await editor.getByRole('link', { name: /The Saturday Quadrant No\. 42/ }).first().click();
     await editor.getByRole('heading', { name: 'The Saturday Quadrant No. 42', level: 1 }).waitFor();
     expect(await editor.getByText('Check the proof before press').count()).toBeGreaterThan(0);
+
+    // Compose: two puzzles the demo has not printed yet (the demo puzzles are made by the
+    // engine from stock tilings at start-up), added through the slot picker, then reordered.
+    const picker = editor.getByLabel('Puzzle', { exact: true });
+    await picker.waitFor();
+    const unused = await picker.locator('option').evaluateAll((os) => os.map((o) => ({ value: (o as HTMLOptionElement).value, text: o.textContent ?? '' })).filter((o) => o.value && o.text.includes('(unused)')));
+    expect(unused.length).toBeGreaterThanOrEqual(2);
+    for (const o of unused.slice(0, 2)) {
+      await picker.selectOption(o.value);
+      await editor.getByRole('button', { name: 'Add slot' }).click();
+    }
+    await editor.getByRole('button', { name: 'Move slot 2 up' }).click();
+    await editor.getByRole('button', { name: 'Save slots' }).click();
+    await editor.getByText('Slot 2', { exact: true }).waitFor();
+    await expect.poll(async () => (await (await editor.request.get(`/api/editions/${id}`)).json()).slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual([unused[1]!.value, unused[0]!.value]);
+    await editor.getByRole('button', { name: 'Run the checks again' }).click();
+    await editor.getByText('Every puzzle has a current certificate.').waitFor({ timeout: 30_000 });
     await editor.getByRole('button', { name: 'Send to proof' }).click();
     await editor.getByText('Proof v1 sent').waitFor({ timeout: 30_000 });
     await screenshot(editor, 'edition-in-proof');
@@ -53,7 +70,7 @@ describe('the proof round in the browser', () => {
     await editor.getByText('Please add the printing date to the introduction.').first().waitFor();
     const intro = editor.getByRole('textbox', { name: 'Introduction' });
     await intro.click();
-    await editor.keyboard.press('End');
+    await editor.keyboard.press('Control+End');
     await editor.keyboard.type(' Printed for Saturday.');
     await editor.getByRole('button', { name: 'Save details' }).click();
     await editor.getByText('Saved.').waitFor();
@@ -77,6 +94,10 @@ describe('the proof round in the browser', () => {
       writeFileSync(file, bytes);
       const text = spawnSync('pdftotext', [file, '-'], { encoding: 'utf8' }).stdout;
       expect(text).toContain('Printed for Saturday.');
+      expect(text).toContain('Puzzle 1');
+      expect(text).toContain('Puzzle 2');
+      // the solutions of No. 41 (a demo edition) print here: The Saturday Quadrant puts them in the next edition
+      expect(text).toMatch(/No\.? 41, puzzle 1/); // pdftotext sometimes drops the full stop after No
       expect(text).not.toMatch(/PROOF/);
     }
 

@@ -107,7 +107,10 @@ function Slots({ edition }: { edition: Edition }) {
               onChange={(e) => setNewId(e.target.value)}
               options={(printable.data ?? [])
                 .filter((p) => !slots.some((s) => s.puzzleId === String(p.id)))
-                .map((p) => ({ value: String(p.id), label: `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${p.id}: ${p.title} (${p.width} x ${p.height}${p.grade ? `, Grade ${p.grade}` : ''})` }))}
+                .map((p) => ({
+                  value: String(p.id),
+                  label: `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${p.id}: ${p.title}${p.grade ? `, Grade ${p.grade}` : ''}${p.usedIn.length > 0 ? ` (used in ${p.usedIn.map((u) => `${u.publicationTitle} No. ${u.number}`).join(', ')})` : ' (unused)'}`,
+                }))}
             />
           ) : (
             <TextField label="Puzzle id" value={newId} onChange={(e) => setNewId(e.target.value)} />
