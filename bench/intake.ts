@@ -2,7 +2,7 @@
 // GET /api/stock (with filters) and GET /api/stock/:id at a fixed 200 requests per second
 // over loopback (open loop: a request is started every 5 ms whether or not the last one
 // has answered) and report the latency percentiles. Target (issue 6): p95 < 50 ms.
-// BENCH_QUICK=1 seeds 5,000 and runs 5 s per scenario.
+// BENCH_QUICK=1 seeds 5,000 and runs 5 s per scenario; BENCH_RATE=N changes the rate.
 import http from 'node:http';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -16,7 +16,7 @@ import { seedBulkStock } from '../server/demo/stock-seed';
 
 const quick = process.env.BENCH_QUICK === '1';
 const N = quick ? 5_000 : 50_000;
-const RATE = 200;
+const RATE = Number(process.env.BENCH_RATE ?? 200);
 const SECONDS = quick ? 5 : 10;
 
 function percentile(sorted: number[], p: number): number {
