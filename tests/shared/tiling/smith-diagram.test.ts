@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { parseTiling, smithDiagram } from '../../../shared/tiling/index';
-import { O9_33x32 } from './helpers';
+import { O9_33x32, catalogue } from './helpers';
 
 describe('smithDiagram (Brooks, Smith, Stone & Tutte 1940)', () => {
   const t = parseTiling(O9_33x32);
@@ -64,5 +64,26 @@ describe('smithDiagram (Brooks, Smith, Stone & Tutte 1940)', () => {
     expect(d.graph.n).toBe(6);
     expect(d.graph.adj.reduce((a, l) => a + l.length, 0)).toBe(2 * 10); // 9 squares + pole edge
     expect(d.graph.adj[0]).toContain(5);
+  });
+
+  it('the c-net of every simple catalogue tiling is 3-connected (BSST 1940; reference facts), brute force', () => {
+    for (const { code } of catalogue()) {
+      const g = smithDiagram(parseTiling(code)).graph;
+      for (let a = 0; a < g.n; a++) {
+        for (let b = a + 1; b < g.n; b++) {
+          const start = [...Array(g.n).keys()].find((v) => v !== a && v !== b)!;
+          const seen = new Set([start]);
+          const stack = [start];
+          while (stack.length > 0) {
+            for (const u of g.adj[stack.pop()!]!) {
+              if (u === a || u === b || seen.has(u)) continue;
+              seen.add(u);
+              stack.push(u);
+            }
+          }
+          expect(seen.size, `${code} without ${a}, ${b}`).toBe(g.n - 2);
+        }
+      }
+    }
   });
 });
