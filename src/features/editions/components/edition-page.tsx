@@ -67,7 +67,7 @@ function Slots({ edition }: { edition: Edition }) {
             <li key={s.puzzleId} className="flex flex-col gap-2 rounded-md border border-rule p-2">
               <div className="flex flex-wrap items-center gap-2">
                 <span className="font-semibold tabular-nums">{`Slot ${i + 1}`}</span>
-                <span>{p ? `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} · ${p.title} · ${p.size} · Grade ${p.grade}` : `Puzzle ${s.puzzleId}`}</span>
+                <span>{p ? `${p.title.startsWith(p.kind === 'assembly' ? 'Assembly' : 'Deduction') ? p.title : `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} · ${p.title} · ${p.size}`} · Grade ${p.grade}` : `Puzzle ${s.puzzleId}`}</span>
                 {p ? <StatusBadge tone={p.certificateCurrent ? 'success' : 'danger'}>{p.certificateCurrent ? 'Certificate current' : 'Certificate out of date'}</StatusBadge> : null}
                 {editable ? (
                   <span className="ml-auto flex gap-1">
@@ -290,16 +290,18 @@ export function EditionPage() {
       {send.isSuccess ? <Alert tone="success">{`Proof v${send.data.proofs.at(-1)?.version ?? ''} sent; the printers have been mailed.`}</Alert> : null}
       <ErrorBox title="Could not send to proof" error={send.error} />
       <ErrorBox title="Could not publish" error={publish.error} />
-      <div className="grid gap-6 lg:grid-cols-2">
+      <div className={e.state === 'draft' ? 'grid gap-6 lg:grid-cols-2' : 'grid gap-6 lg:grid-cols-2 [&>*]:lg:col-span-1'}>
         <div className="flex flex-col gap-6">
           <Introduction key={`${e.id}-${e.state}`} edition={e} />
           <Slots key={`${e.id}-${e.state}-${e.slots.map((s) => s.puzzleId).join(',')}`} edition={e} />
         </div>
-        <div className="flex flex-col gap-6">
-          {e.state === 'draft' ? <Checks edition={e} /> : null}
-          <Proofs edition={e} />
-        </div>
+        {e.state === 'draft' ? (
+          <div className="flex flex-col gap-6">
+            <Checks edition={e} />
+          </div>
+        ) : null}
       </div>
+      <Proofs edition={e} />
     </Page>
   );
 }
