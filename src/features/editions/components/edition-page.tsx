@@ -290,7 +290,7 @@ export function EditionPage() {
       {send.isSuccess ? <Alert tone="success">{`Proof v${send.data.proofs.at(-1)?.version ?? ''} sent; the printers have been mailed.`}</Alert> : null}
       <ErrorBox title="Could not send to proof" error={send.error} />
       <ErrorBox title="Could not publish" error={publish.error} />
-      <div className={e.state === 'draft' ? 'grid gap-6 lg:grid-cols-2' : 'grid gap-6 lg:grid-cols-2 [&>*]:lg:col-span-1'}>
+      <div className="grid gap-6 lg:grid-cols-2">
         <div className="flex flex-col gap-6">
           <Introduction key={`${e.id}-${e.state}`} edition={e} />
           <Slots key={`${e.id}-${e.state}-${e.slots.map((s) => s.puzzleId).join(',')}`} edition={e} />
