@@ -80,11 +80,12 @@ function currentInputHash(kind: 'assembly' | 'deduction', tiling: Tiling, level:
 
 // ---- the job and its result ------------------------------------------------------------
 
-function sinkFor(puzzleId: number) {
+/** The job's sink: stores its result; a cancelled job marks only its own revision cancelled (a PATCH cancels the previous proof). */
+function sinkFor(puzzleId: number, revision: number) {
   return {
     onFinish(summary: unknown, tx: Db, state: 'done' | 'cancelled') {
       if (state === 'cancelled' || summary === null) {
-        tx.update(puzzle).set({ status: 'cancelled', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.status, 'proving'))).run();
+        tx.update(puzzle).set({ status: 'cancelled', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'))).run();
         return;
       }
       storeResult(tx, puzzleId, summary as PuzzleJobSummary);
@@ -123,7 +124,7 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
 
 function submitJob(db: Db, runner: JobRunner, puzzleId: number, revision: number, task: PuzzleJobParams['task'], input: PuzzleJobInput, userId: string | null): string {
   const params: PuzzleJobParams = { puzzleId, revision, task };
-  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink: sinkFor(puzzleId) });
+  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink: sinkFor(puzzleId, revision) });
   db.update(puzzle).set({ jobId }).where(eq(puzzle.id, puzzleId)).run();
   // a failed or interrupted job leaves no result: say so on the puzzle
   void runner.wait(jobId).then((r) => {

@@ -60,4 +60,25 @@ describe('puzzles in the browser', () => {
     await expect.poll(() => page.getByRole('table', { name: 'Puzzles' }).innerText()).toMatch(/Not unique/);
     expect(harness.consoleErrors()).toEqual([]);
   }, 240_000);
+
+  it('the demo carries proved Assembly puzzles: list filtered by kind, workbench with frame and pieces', async () => {
+    const page = harness.page();
+    await signIn(page, 'editor');
+    await page.goto('/puzzles?kind=assembly');
+    const table = page.getByRole('table', { name: 'Puzzles' });
+    await expect.poll(() => table.innerText(), { timeout: 20_000 }).toMatch(/Assembly/);
+    expect(await table.innerText()).not.toMatch(/Deduction \d/);
+    await table.getByRole('link', { name: /^Assembly / }).first().click();
+    await page.waitForURL(/\/puzzles\/\d+$/);
+    const verdict = page.getByRole('region', { name: 'Verdict' });
+    await expect.poll(() => verdict.innerText(), { timeout: 30_000 }).toMatch(/Unique/);
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
+    const api = puzzleDetailSchema.parse(await (await page.request.get(`/api/puzzles/${id}`)).json());
+    expect(api.kind).toBe('assembly');
+    // the pieces drawn beside the frame are the tiling's sizes less the starter pieces
+    const pieces = page.getByRole('img', { name: /pieces to place/ });
+    expect(await pieces.getAttribute('aria-label')).toBe(`${api.tiling.squares.length - api.starters.length} pieces to place`);
+    await screenshot(page, 'puzzle-workbench-assembly');
+    expect(harness.consoleErrors()).toEqual([]);
+  }, 120_000);
 });

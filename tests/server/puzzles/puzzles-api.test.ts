@@ -185,6 +185,19 @@ describe('puzzles API', () => {
     expect(JSON.stringify(bad.body.error.details)).toMatch(/body\.givens/);
   });
 
+  it('a second change while the first is still being proved wins; cancel needs a running proof', async () => {
+    const editor = await t.signInAs('editor');
+    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction' }).expect(202)).body);
+    const first = await settled(editor, id);
+    await editor.post(`/api/puzzles/${id}/cancel`).expect(409);
+    await editor.patch(`/api/puzzles/${id}`).send({ givens: [] }).expect(202);
+    await editor.patch(`/api/puzzles/${id}`).send({ givens: first.tiling.squares.map(({ x, y }) => ({ x, y })) }).expect(202);
+    const last = await settled(editor, id);
+    expect(last.status).toBe('unique');
+    expect(last.givens).toHaveLength(9);
+    expect(last.certificateCurrent).toBe(true);
+  });
+
   it('recheck recomputes the certificate and it holds', async () => {
     const editor = await t.signInAs('editor');
     const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'assembly' }).expect(202)).body);
