@@ -44,8 +44,11 @@ export function writeFileAtomic(file: string, data: Buffer): void {
   }
 }
 
-const proofRel = (editionId: string, version: number) => join('proofs', editionId, `proof-v${version}.pdf`);
-const pressRel = (editionId: string, version: number) => join('proofs', editionId, `press-v${version}.pdf`);
+// A random part in each name: two racing requests never write (or clean up) the same file;
+// the loser's transaction fails and removes only its own.
+const tag = () => randomUUID().slice(0, 8);
+const proofRel = (editionId: string, version: number) => join('proofs', editionId, `proof-v${version}-${tag()}.pdf`);
+const pressRel = (editionId: string, version: number) => join('proofs', editionId, `press-v${version}-${tag()}.pdf`);
 
 function activeUsersWithRole(db: DbOrTx, role: string) {
   return db

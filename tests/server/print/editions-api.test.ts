@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { existsSync, readdirSync } from 'node:fs';
+import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
@@ -147,7 +147,7 @@ describe('the edition round', () => {
     expect(proof).toMatchObject({ version: 1, status: 'pending' });
     const dir = join(t.deps.env.DATA_DIR, 'proofs', edId);
     expect(readdirSync(dir).filter((f) => f.endsWith('.tmp'))).toEqual([]);
-    expect(existsSync(join(dir, 'proof-v1.pdf'))).toBe(true);
+    expect(readdirSync(dir).filter((f) => /^proof-v1-[0-9a-f]{8}\.pdf$/.test(f))).toHaveLength(1);
 
     const file = await printer.get(`/api/editions/${edId}/proofs/1.pdf`).buffer(true).parse(binary).expect(200);
     expect(file.headers['content-type']).toMatch(/application\/pdf/);
@@ -273,5 +273,20 @@ describe('the solution rule', () => {
     expect(doc1.solutions).toEqual([]);
     expect(doc2.puzzles).toEqual([]);
     expect(doc2.solutions).toEqual([expect.objectContaining({ slot: 1, caption: 'No. 1, puzzle 1', tiling: TILING_69x61 })]);
+  });
+});
+
+describe('racing requests', () => {
+  it('sends one proof when two requests race, and keeps its file', async () => {
+    const pubId = (await editor.get('/api/publications')).body.items.find((p: { title: string }) => p.title === 'The Saturday Quadrant').id;
+    const ed = await editor.post('/api/editions').send({ publicationId: pubId, number: 77, date: '2027-06-05' }).expect(201);
+    const [a, b] = await Promise.all([editor.post(`/api/editions/${ed.body.id}/proofs`), editor.post(`/api/editions/${ed.body.id}/proofs`)]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+    const file = await editor.get(`/api/editions/${ed.body.id}/proofs/1.pdf`).buffer(true).parse(binary).expect(200);
+    const stored = (await editor.get(`/api/editions/${ed.body.id}`).expect(200)).body.proofs;
+    expect(stored).toHaveLength(1);
+    expect(createHash('sha256').update(file.body as Buffer).digest('hex')).toBe(stored[0].sha256);
+    const dir = join(t.deps.env.DATA_DIR, 'proofs', ed.body.id);
+    expect(readdirSync(dir)).toHaveLength(1);
   });
 });
