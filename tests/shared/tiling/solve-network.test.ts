@@ -3,6 +3,7 @@ import { all, create } from 'mathjs';
 import {
   canonicalCode,
   checkKirchhoff,
+  countSpanningTrees,
   edgeList,
   mulberry32,
   parseTiling,
@@ -115,6 +116,25 @@ describe('solvePlaneNetwork against mathjs (exact fractions) on seeded random ne
       expect(checkKirchhoff(r.tiling).ok).toBe(true);
     }
     expect(solved).toBeGreaterThan(40);
+  });
+});
+
+describe('deletion-contraction: tau(G) = tau(G - e) + tau(G / e) (engine.md test plan 5; matrix-tree theorem)', () => {
+  it('holds for every pole edge of 20 seeded random c-nets', () => {
+    const rng = mulberry32(88);
+    let checked = 0;
+    for (let i = 0; i < 20; i++) {
+      const g = randomCNet(8 + Math.floor(rng() * 20), rng);
+      const es = edgeList(g);
+      const tau = countSpanningTrees(g.n, es);
+      for (const [p, q] of es) {
+        const r = solvePlaneNetwork(g, { p, q });
+        if (!r.ok) continue;
+        expect(r.fullWidth + r.fullHeight).toBe(tau);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(100);
   });
 });
 
