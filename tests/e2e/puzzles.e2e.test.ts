@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { puzzleDetailSchema } from '../../shared/contracts/puzzles';
 import { verifyTiling } from '../../shared/tiling/index';
+import { seriousAxeViolations } from './helpers/axe';
 import { screenshot, signIn, useBrowser } from './helpers/browser';
 
 // Puzzles in a real browser against the built app (the proof runs in the worker bundle):
@@ -31,6 +32,8 @@ describe('puzzles in the browser', () => {
     await expect.poll(() => verdict.innerText(), { timeout: 60_000, interval: 300 }).toMatch(/Unique/);
     expect(await verdict.innerText()).toMatch(/Certificate current: printable/);
     await screenshot(page, 'puzzle-workbench-unique');
+    // axe-core WCAG A/AA: no serious or critical finding on the workbench (screens.md)
+    expect(await seriousAxeViolations(page)).toEqual([]);
 
     const id = Number(new URL(page.url()).pathname.split('/').pop());
     const api = puzzleDetailSchema.parse(await (await page.request.get(`/api/puzzles/${id}`)).json());
@@ -58,6 +61,7 @@ describe('puzzles in the browser', () => {
     await page.goto('/puzzles');
     await page.getByRole('heading', { name: 'Puzzles', level: 1 }).waitFor();
     await expect.poll(() => page.getByRole('table', { name: 'Puzzles' }).innerText()).toMatch(/Not unique/);
+    expect(await seriousAxeViolations(page)).toEqual([]);
     expect(harness.consoleErrors()).toEqual([]);
   }, 240_000);
 
@@ -79,6 +83,7 @@ describe('puzzles in the browser', () => {
     const pieces = page.getByRole('img', { name: /pieces to place/ });
     expect(await pieces.getAttribute('aria-label')).toBe(`${api.tiling.squares.length - api.starters.length} pieces to place`);
     await screenshot(page, 'puzzle-workbench-assembly');
+    expect(await seriousAxeViolations(page)).toEqual([]);
     expect(harness.consoleErrors()).toEqual([]);
   }, 120_000);
 });
