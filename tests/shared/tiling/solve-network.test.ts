@@ -4,6 +4,8 @@ import {
   canonicalCode,
   checkKirchhoff,
   countSpanningTrees,
+  dual,
+  faces,
   edgeList,
   mulberry32,
   parseTiling,
@@ -135,6 +137,28 @@ describe('deletion-contraction: tau(G) = tau(G - e) + tau(G / e) (engine.md test
       }
     }
     expect(checked).toBeGreaterThan(100);
+  });
+});
+
+describe('duality: (G, e) and (G*, e*) give the same rectangle turned 90 degrees (BSST 1940)', () => {
+  it('holds for 40 seeded random c-nets and pole edges', () => {
+    const rng = mulberry32(606);
+    let checked = 0;
+    for (let i = 0; i < 40; i++) {
+      const g = randomCNet(9 + Math.floor(rng() * 20), rng);
+      const es = edgeList(g);
+      const [p, q] = es[Math.floor(rng() * es.length)]!;
+      const r = solvePlaneNetwork(g, { p, q });
+      if (!r.ok) continue;
+      const fs = faces(g);
+      const faceOf = (u: number, v: number) => fs.findIndex((f) => f.some(([a, b]) => a === u && b === v));
+      const d = solvePlaneNetwork(dual(g), { p: faceOf(p, q), q: faceOf(q, p) });
+      if (!d.ok) throw new Error(d.message);
+      expect(canonicalCode(d.tiling)).toBe(canonicalCode(r.tiling));
+      expect([d.tiling.W, d.tiling.H]).toEqual([r.tiling.H, r.tiling.W]);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(25);
   });
 });
 
