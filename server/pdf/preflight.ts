@@ -13,13 +13,29 @@ export function countEmbeddedFontFiles(pdf: Buffer): number {
   return (pdf.toString('latin1').match(/\/FontFile2\s+\d+\s+\d+\s+R/g) ?? []).length;
 }
 
-/** Names of fonts used without an embedded program (the PDF standard 14, e.g. Helvetica). */
+/**
+ * Names of fonts used without an embedded program: simple Type 1 font dictionaries (the
+ * standard 14, e.g. Helvetica) carry no font file (PDF 32000-1, 9.6.2.2).
+ */
 export function unembeddedFontNames(pdf: Buffer): string[] {
   const text = pdf.toString('latin1');
   const names = new Set<string>();
-  for (const m of text.matchAll(/\/Type\s*\/Font\s*\/Subtype\s*\/Type1\s*\/BaseFont\s*\/([A-Za-z0-9-]+)/g)) names.add(m[1] ?? '');
-  for (const m of text.matchAll(/\/BaseFont\s*\/([A-Za-z0-9-]+)\s*\/Subtype\s*\/Type1/g)) names.add(m[1] ?? '');
-  return [...names].filter(Boolean);
+  for (const m of text.matchAll(/<<([^<>]*)>>/g)) {
+    const dict = m[1] ?? '';
+    if (!/\/Type\s*\/Font\b/.test(dict) || !/\/Subtype\s*\/Type1\b/.test(dict)) continue;
+    const name = /\/BaseFont\s*\/([^\s/<>\[\]]+)/.exec(dict)?.[1];
+    if (name) names.add(name);
+  }
+  return [...names];
+}
+
+/** The MediaBox (width, height in pt) of every page object. */
+export function pageSizes(pdf: Buffer): { width: number; height: number }[] {
+  const text = pdf.toString('latin1');
+  return [...text.matchAll(/\/MediaBox\s*\[\s*([-\d.]+)\s+([-\d.]+)\s+([-\d.]+)\s+([-\d.]+)\s*\]/g)].map((m) => ({
+    width: Number(m[3]) - Number(m[1]),
+    height: Number(m[4]) - Number(m[2]),
+  }));
 }
 
 export type PreflightInput = {
@@ -51,6 +67,11 @@ export function preflightPdf(input: PreflightInput): Preflight {
     });
   }
   if (pages === 0) errors.push({ code: 'no-pages', message: 'the file has no pages' });
+  // Page size must be trim + 2 x bleed on every page (0.5 pt tolerance for rounding).
+  const wrong = pageSizes(pdf).filter((p) => Math.abs(p.width - input.pageSizePt.width) > 0.5 || Math.abs(p.height - input.pageSizePt.height) > 0.5);
+  if (wrong.length > 0) {
+    errors.push({ code: 'page-size', message: `${wrong.length} page(s) are ${wrong[0]!.width.toFixed(1)} x ${wrong[0]!.height.toFixed(1)} pt, not trim + bleed (${input.pageSizePt.width.toFixed(1)} x ${input.pageSizePt.height.toFixed(1)} pt)` });
+  }
   for (const g of metrics.illegibleGivens) {
     errors.push({ code: 'given-illegible', message: `puzzle ${g.slot}: the given ${g.size} cannot be printed at ${t.minimums.digitPt} pt or more in its box` });
   }
