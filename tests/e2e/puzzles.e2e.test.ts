@@ -23,6 +23,9 @@ describe('puzzles in the browser', () => {
     await firstRow.getByRole('cell').nth(1).click();
     await page.getByRole('link', { name: 'Make a puzzle' }).click();
     await page.getByRole('heading', { name: 'Make a puzzle', level: 1 }).waitFor();
+    await page.getByRole('img', { name: /Squared rectangle/ }).waitFor();
+    await screenshot(page, 'puzzle-new');
+    expect(await seriousAxeViolations(page)).toEqual([]);
     const form = page.getByRole('form', { name: 'Make a puzzle' });
     await form.getByLabel('Deduction').check();
     await form.getByLabel('Level').selectOption('2');
