@@ -5,7 +5,7 @@
 //     -> {"givens":[{x,y,size}],"steps":[...],"grade","unique","level"}
 // Exit codes as for `verify`: 0 answered (unique / puzzle found), 1 not (multiple, none,
 // undecided, not unique, bad tiling), 2 usage error.
-import { parseArgs } from 'node:util';
+import { parseArgs, type ParseArgsConfig } from 'node:util';
 import {
   PuzzleInputError,
   assembleAnswer,
@@ -22,9 +22,15 @@ import { CliUsageError } from './tiling';
 
 type Write = (s: string) => void;
 
-function parse(argv: readonly string[], options: Parameters<typeof parseArgs>[0]['options'], usage: string) {
+type Options = NonNullable<ParseArgsConfig['options']>;
+
+/** Parsed flags as strings (every flag of these commands takes a value). */
+function parse(argv: readonly string[], options: Options, usage: string): { values: Record<string, string | undefined>; positionals: string[] } {
   try {
-    return parseArgs({ args: [...argv], options, allowPositionals: true, strict: true });
+    const r = parseArgs({ args: [...argv], options, allowPositionals: true, strict: true });
+    const values: Record<string, string | undefined> = {};
+    for (const [k, v] of Object.entries(r.values)) values[k] = typeof v === 'string' ? v : undefined;
+    return { values, positionals: r.positionals };
   } catch (e) {
     throw new CliUsageError(`${(e as Error).message}\n${usage}`);
   }
