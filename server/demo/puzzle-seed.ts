@@ -4,7 +4,7 @@ import { puzzle } from '../db/schema/puzzles';
 import { stock } from '../db/schema/stock';
 import type { AppDeps } from '../deps';
 import { provePuzzle, type PuzzleJobInput } from '../jobs/kinds/puzzle-prove';
-import { storeResult } from '../services/puzzles';
+import { puzzleTitle, storeResult } from '../services/puzzles';
 import { markStockUsed, stockTiling } from '../services/stock';
 import { demoAccounts } from './accounts';
 
@@ -46,7 +46,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
       const row = tx
         .insert(puzzle)
         .values({
-          stockId: s.id, kind: p.kind, title: `${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${tiling.W} \u00d7 ${tiling.H}, ${tiling.squares.length} squares`,
+          stockId: s.id, kind: p.kind, title: puzzleTitle(p.kind, tiling),
           status: 'proving', level: p.level === null ? null : JSON.stringify(p.level), inputHash: '', createdBy: editor?.id ?? null,
         })
         .returning({ id: puzzle.id })

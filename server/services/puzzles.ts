@@ -53,8 +53,9 @@ function levelOf(r: Pick<PuzzleRow, 'level'>): PuzzleLevel | null {
   return parseJson<PuzzleLevel | null>(r.level, null);
 }
 
-function titleOf(kind: 'assembly' | 'deduction', t: Tiling): string {
-  return `${kind === 'assembly' ? 'Assembly' : 'Deduction'} ${t.W} \u00d7 ${t.H}, ${t.squares.length} squares`;
+/** The printed title: an Assembly names its frame (the solver gets it); a Deduction must not give its sizes away. */
+export function puzzleTitle(kind: 'assembly' | 'deduction', t: Tiling): string {
+  return kind === 'assembly' ? `Assembly ${t.W} \u00d7 ${t.H}, ${t.squares.length} squares` : `Deduction, ${t.squares.length} squares`;
 }
 
 /** Editor's square references -> placed sizes of the tiling; 422 naming each bad one. */
@@ -164,7 +165,7 @@ export function createPuzzle(db: Db, runner: JobRunner, who: SessionUser, body: 
     const row = tx
       .insert(puzzle)
       .values({
-        stockId: body.stockId, kind: body.kind, title: titleOf(body.kind, tiling), status: 'proving',
+        stockId: body.stockId, kind: body.kind, title: puzzleTitle(body.kind, tiling), status: 'proving',
         level: level === null ? null : JSON.stringify(level), showFrame,
         startersJson: JSON.stringify(starters ?? []), givensJson: JSON.stringify(givens ?? []),
         inputHash: hash, createdBy: who.id,

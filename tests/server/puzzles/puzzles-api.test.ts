@@ -68,6 +68,8 @@ describe('puzzles API', () => {
     const started = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction', level: 2 }).expect(202)).body);
     const p = await settled(editor, started.id);
     expect(p.status).toBe('unique');
+    // the printed title of a Deduction puzzle must not give the frame's sizes away
+    expect(p.title).toBe('Deduction, 9 squares');
     expect(p.certificateCurrent).toBe(true);
     expect(p.certificate?.engineVersion).toMatch(/^puzzle-engine\//);
     expect(p.certificate?.inputHash).toMatch(/^[0-9a-f]{64}$/);

@@ -18,7 +18,7 @@ const tiling = {
 };
 
 const base: PuzzleDetail = puzzleDetailSchema.parse({
-  id: 5, kind: 'deduction', title: 'Deduction 33 × 32, 9 squares', status: 'unique', grade: 2, level: 2, stockId: 3,
+  id: 5, kind: 'deduction', title: 'Deduction, 9 squares', status: 'unique', grade: 2, level: 2, stockId: 3,
   tilingKey: '33x32:18,15,7,8,14,4,10,1,9', order: 9, width: 33, height: 32, certificateCurrent: true, usedIn: [],
   createdAt: '2026-12-02T01:00:00.000Z', updatedAt: '2026-12-02T01:00:00.000Z', showFrame: false, tiling,
   starters: [], givens: [{ x: 0, y: 0, size: 18 }, { x: 18, y: 0, size: 15 }],
