@@ -168,7 +168,16 @@ function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
   const hit = perDb.get(key);
   const now = Date.now();
   if (hit && hit.generation === stockGeneration && now - hit.at < COUNT_TTL_MS) return hit.n;
-  const n = db.get<{ n: number }>(sql`select count(*) as n from stock indexed by stock_filter_idx ${whereSql}`)?.n ?? 0;
+  // count in a narrow index, as a range scan where a range filter allows
+  const idx =
+    f.orderMin !== undefined || f.orderMax !== undefined
+      ? 'stock_filter_idx'
+      : f.widthMin !== undefined || f.widthMax !== undefined
+        ? 'stock_width_sort_idx'
+        : f.heightMin !== undefined || f.heightMax !== undefined
+          ? 'stock_height_sort_idx'
+          : 'stock_filter_idx';
+  const n = db.get<{ n: number }>(sql`select count(*) as n from stock indexed by ${sql.raw(idx)} ${whereSql}`)?.n ?? 0;
   if (perDb.size > 1000) perDb.clear();
   perDb.set(key, { n, generation: stockGeneration, at: now });
   return n;
@@ -179,7 +188,25 @@ function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
  * the page's ids come from a narrow covering index (stock_recent_idx or stock_filter_idx, as
  * SQLite picks), the total from stock_filter_idx, then only the page's rows are read (decision 052).
  */
+const LIST_TTL_MS = 5_000;
+const listCache = new WeakMap<object, Map<string, { value: StockList; generation: number; at: number }>>();
+
 export function listStock(db: DbOrTx, q: StockListQuery): StockList {
+  // the same page of the same view (editors page back and forth) is answered from memory until
+  // the stock changes or LIST_TTL_MS passes
+  const key = JSON.stringify(q);
+  let perDb = listCache.get(db);
+  if (!perDb) listCache.set(db, (perDb = new Map()));
+  const hit = perDb.get(key);
+  const now = Date.now();
+  if (hit && hit.generation === stockGeneration && now - hit.at < LIST_TTL_MS) return hit.value;
+  const value = listStockUncached(db, q);
+  if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
+  perDb.set(key, { value, generation: stockGeneration, at: now });
+  return value;
+}
+
+function listStockUncached(db: DbOrTx, q: StockListQuery): StockList {
   const where = whereOf(q);
   const whereSql = where ? sql`where ${where}` : sql``;
   const dir = sql.raw(q.sort.desc ? 'desc' : 'asc');
