@@ -3,13 +3,15 @@ import { user } from '../db/schema/auth';
 import { puzzle } from '../db/schema/puzzles';
 import { stock } from '../db/schema/stock';
 import type { AppDeps } from '../deps';
+import { solveAssembly } from '../../shared/puzzle/index';
 import { provePuzzle, type PuzzleJobInput } from '../jobs/kinds/puzzle-prove';
 import { puzzleTitle, storeResult } from '../services/puzzles';
 import { markStockUsed, stockTiling } from '../services/stock';
 import { demoAccounts } from './accounts';
 
 // Demo puzzles: from the smallest tilings of the demo stock, three Deduction puzzles (levels
-// 2, 3 and the closure) and three Assembly puzzles, each proved by our engine at seed time
+// 2, 3 and the closure) and three Assembly puzzles (the last, when the stock has one, from a
+// tiling whose bare set assembles in several ways, so it carries starter pieces), each proved by our engine at seed time
 // on the main thread (small tilings, a few milliseconds each), stored with its certificate.
 
 /** Per-puzzle time limit at seed time, so a slow case can never hold up start-up (our choice). */
@@ -20,12 +22,18 @@ export function seedDemoPuzzles(deps: AppDeps): void {
   const editorEmail = demoAccounts.find((a) => a.role === 'editor')?.email;
   const editor = editorEmail ? db.select({ id: user.id }).from(user).where(eq(user.email, editorEmail)).get() : undefined;
   const rows = db
-    .select({ id: stock.id, title: stock.canonicalKey })
+    .select({ id: stock.id })
     .from(stock)
     .where(and(gte(stock.order, 9), lte(stock.order, 16), eq(stock.perfect, true)))
     .orderBy(asc(stock.order), asc(stock.id))
-    .limit(6)
     .all();
+  const chosen = rows.slice(0, 6);
+  // show starter pieces too: the last Assembly goes to a tiling whose bare set assembles in more than one way, if the stock has one
+  const several = rows.slice(6).find((r) => {
+    const { tiling } = stockTiling(db, r.id);
+    return solveAssembly({ width: tiling.W, height: tiling.H, pieces: tiling.squares.map((q) => q.s) }, { budget: { maxMs: 500 } }).verdict === 'multiple';
+  });
+  if (several && chosen.length === 6) chosen[5] = several;
   const plan: Pick<PuzzleJobInput, 'kind' | 'level'>[] = [
     { kind: 'deduction', level: 2 },
     { kind: 'assembly', level: null },
@@ -35,7 +43,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
     { kind: 'assembly', level: null },
   ];
   let made = 0;
-  rows.forEach((s, i) => {
+  chosen.forEach((s, i) => {
     const p = plan[i];
     if (!p) return;
     const { tiling } = stockTiling(db, s.id);

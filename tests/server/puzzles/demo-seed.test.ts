@@ -40,6 +40,8 @@ describe('demo puzzles', () => {
       for (const step of p.steps) expect(step.value).toBe(p.tiling.squares[step.square]!.s);
     }
     expect(listPrintablePuzzleIds(t.db)).toHaveLength(6);
+    // the demo stock has a perfect order-16 set with two ways to assemble it: one demo Assembly carries starter pieces
+    expect(list.items.some((s) => s.kind === 'assembly' && getPuzzle(t.db, runner, s.id).starters.length > 0)).toBe(true);
     // "keep it fast": under 5 s for all six (our budget for start-up work, common practice)
     expect(seedMs).toBeLessThan(5000);
   });
