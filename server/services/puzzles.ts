@@ -212,7 +212,9 @@ export function patchPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: num
   const level = r.kind === 'deduction' ? (body.level ?? levelOf(r) ?? DEFAULT_LEVEL) : null;
   const showFrame = body.showFrame ?? r.showFrame;
   const revision = r.revision + 1;
-  const hash = currentInputHash(r.kind, tiling, level, showFrame, starters, givens);
+  const propose = body.propose === true;
+  // when the engine proposes, the input is known only once it has chosen (stored with the result)
+  const hash = propose ? '' : currentInputHash(r.kind, tiling, level, showFrame, starters, givens);
   if (r.jobId) runner.cancel(r.jobId);
   db.update(puzzle)
     .set({
@@ -221,8 +223,8 @@ export function patchPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: num
     })
     .where(eq(puzzle.id, id))
     .run();
-  const input = jobInputOf({ ...r, level: level === null ? null : JSON.stringify(level), showFrame }, tiling, { starters, givens });
-  return { id, jobId: submitJob(db, runner, id, revision, 'prove', input, who.id) };
+  const input = jobInputOf({ ...r, level: level === null ? null : JSON.stringify(level), showFrame }, tiling, propose ? { starters: null, givens: null } : { starters, givens });
+  return { id, jobId: submitJob(db, runner, id, revision, propose ? 'make' : 'prove', input, who.id) };
 }
 
 export function recheckPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: number): PuzzleStarted {

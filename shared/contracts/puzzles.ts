@@ -59,9 +59,12 @@ export const puzzlePatchSchema = z
     givens: refList.optional(),
     level: puzzleLevelSchema.optional(),
     showFrame: z.boolean().optional(),
+    /** let the engine propose the starter pieces / givens again (for the level, if given) */
+    propose: z.literal(true).optional(),
   })
   .strict()
-  .refine((v) => Object.keys(v).length > 0, { message: 'send at least one of starters, givens, level, showFrame' });
+  .refine((v) => Object.keys(v).length > 0, { message: 'send at least one of starters, givens, level, showFrame, propose' })
+  .refine((v) => !(v.propose && (v.starters !== undefined || v.givens !== undefined)), { path: ['propose'], message: 'propose lets the engine choose: send no starters or givens with it' });
 export type PuzzlePatch = z.infer<typeof puzzlePatchSchema>;
 
 export const puzzleCertificateSchema = z.object({

@@ -183,6 +183,14 @@ describe('puzzles API', () => {
     expect(verifyTiling(bare.second!.tiling).ok).toBe(true);
     expect(bare.certificateCurrent).toBe(false);
 
+    // the engine proposes again: unique with starter pieces once more
+    await editor.patch(`/api/puzzles/${id}`).send({ propose: true, starters: [] }).expect(400);
+    await editor.patch(`/api/puzzles/${id}`).send({ propose: true }).expect(202);
+    const proposed = await settled(editor, id);
+    expect(proposed.status).toBe('unique');
+    expect(proposed.starters.length).toBeGreaterThanOrEqual(1);
+    expect(proposed.certificateCurrent).toBe(true);
+
     const bad = await editor.patch(`/api/puzzles/${id}`).send({ givens: [] }).expect(422);
     expect(JSON.stringify(bad.body.error.details)).toMatch(/body\.givens/);
   });

@@ -110,6 +110,12 @@ function Workbench({ p }: { p: PuzzleDetail }) {
           <div className="flex gap-2">
             <Button variant="primary" onClick={proveAgain} disabled={!changed} busy={update.isPending}>Prove again</Button>
             <Button onClick={discard} disabled={!changed}>Discard changes</Button>
+            <Button
+              onClick={() => update.mutate({ id: p.id, patch: { propose: true, ...(p.kind === 'deduction' && draftLevel !== null ? { level: draftLevel } : {}) } }, { onSuccess: discard })}
+              disabled={update.isPending || proving}
+            >
+              Let the engine propose
+            </Button>
           </div>
         </Card>
         <Card title="Print preview">
