@@ -23,7 +23,7 @@ export function unembeddedFontNames(pdf: Buffer): string[] {
   for (const m of text.matchAll(/<<([^<>]*)>>/g)) {
     const dict = m[1] ?? '';
     if (!/\/Type\s*\/Font\b/.test(dict) || !/\/Subtype\s*\/Type1\b/.test(dict)) continue;
-    const name = /\/BaseFont\s*\/([^\s/<>\[\]]+)/.exec(dict)?.[1];
+    const name = /\/BaseFont\s*\/([^\s/<>[\]]+)/.exec(dict)?.[1];
     if (name) names.add(name);
   }
   return [...names];
