@@ -3,13 +3,15 @@ import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 
 // Client build goes to dist/client. The server is bundled separately with
-// `vite build --ssr server/index.ts --outDir dist/server` (see package.json).
+// `vite build --ssr --outDir dist/server` with the entries listed below (see package.json).
 export default defineConfig(({ isSsrBuild }) => ({
   plugins: isSsrBuild ? [] : [react(), tailwindcss()],
   build: isSsrBuild
     ? {
         target: 'node20',
         emptyOutDir: true,
+        // public/ belongs to the client build only.
+        copyPublicDir: false,
         rollupOptions: {
           // Extra server entries (worker threads) are listed here by the job runner. The build runs
           // `vite build --ssr` without an entry argument, which would override this list.
