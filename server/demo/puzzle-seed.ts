@@ -31,7 +31,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
   // show starter pieces too: the last Assembly goes to a tiling whose bare set assembles in more than one way, if the stock has one
   const several = rows.slice(6).find((r) => {
     const { tiling } = stockTiling(db, r.id);
-    return solveAssembly({ width: tiling.W, height: tiling.H, pieces: tiling.squares.map((q) => q.s) }, { budget: { maxMs: 500 } }).verdict === 'multiple';
+    return solveAssembly({ width: tiling.W, height: tiling.H, pieces: tiling.squares.map((q) => q.s) }, { budget: { maxNodes: 200_000 } }).verdict === 'multiple';
   });
   if (several && chosen.length === 6) chosen[5] = several;
   const plan: Pick<PuzzleJobInput, 'kind' | 'level'>[] = [

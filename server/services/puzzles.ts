@@ -411,7 +411,20 @@ export function installStockUsage(): void {
     puzzlesFor: (db, stockId) =>
       db.select({ id: puzzle.id, kind: puzzle.kind, grade: puzzle.grade, createdAt: puzzle.createdAt }).from(puzzle).where(eq(puzzle.stockId, stockId)).orderBy(asc(puzzle.createdAt)).all()
         .map((p) => ({ id: p.id, kind: p.kind, grade: p.grade, createdAt: p.createdAt.toISOString() })),
-    editionsFor: () => [],
+    // editions whose slots hold a puzzle made from this tiling, one entry per edition
+    editionsFor: (db, stockId) => {
+      const rows = db
+        .select({ id: edition.id, number: edition.number, date: edition.editionDate, title: publication.title })
+        .from(editionSlot)
+        .innerJoin(edition, eq(edition.id, editionSlot.editionId))
+        .innerJoin(publication, eq(publication.id, edition.publicationId))
+        .innerJoin(puzzle, sql`${puzzle.id} = cast(${editionSlot.puzzleId} as integer)`)
+        .where(eq(puzzle.stockId, stockId))
+        .orderBy(asc(edition.editionDate))
+        .all();
+      const seen = new Set<string>();
+      return rows.filter((r) => !seen.has(r.id) && seen.add(r.id)).map((r) => ({ id: r.id, title: `${r.title} No. ${r.number}`, date: r.date }));
+    },
     gradeCounts: (db) =>
       db.select({ grade: puzzle.grade, count: count() }).from(puzzle).where(sql`${puzzle.grade} is not null`).groupBy(puzzle.grade).orderBy(asc(puzzle.grade)).all()
         .map((g) => ({ grade: g.grade ?? 0, count: g.count })),

@@ -113,7 +113,7 @@ export const stockDetailSchema = stockItemSchema.extend({
   history: z.object({
     events: z.array(stockHistoryEventSchema),
     puzzles: z.array(z.object({ id: z.number().int(), kind: z.string(), grade: z.number().int().nullable(), createdAt: z.string() })),
-    editions: z.array(z.object({ id: z.number().int(), title: z.string(), date: z.string() })),
+    editions: z.array(z.object({ id: z.string(), title: z.string(), date: z.string() })),
   }),
 });
 export type StockDetail = z.infer<typeof stockDetailSchema>;

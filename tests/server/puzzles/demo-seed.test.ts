@@ -6,7 +6,8 @@ import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
 import { listEditions } from '../../../server/services/editions';
 import { seedDemoEditions } from '../../../server/services/proofs';
 import { seedDemoPublications } from '../../../server/services/publications';
-import { getPuzzle, listPrintablePuzzleIds, listPuzzles } from '../../../server/services/puzzles';
+import { getPuzzle, installStockUsage, listPrintablePuzzleIds, listPuzzles } from '../../../server/services/puzzles';
+import { getStockDetail } from '../../../server/services/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;
@@ -53,5 +54,17 @@ describe('demo puzzles', () => {
     expect(states).toContain('The Saturday Quadrant 41 in_proof');
     const used = listPuzzles(t.db, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
     expect(used.length).toBe(4);
+  });
+
+  it("show on each stock tiling's history the editions its puzzles went into", () => {
+    installStockUsage();
+    const runner = jobRunnerFor(t.db);
+    const used = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
+    for (const p of used) {
+      const detail = getStockDetail(t.db, getPuzzle(t.db, runner, p.id).stockId);
+      const expected = p.usedIn.map((u) => `${u.publicationTitle} No. ${u.number}`);
+      expect(detail.history.editions.map((e) => e.title)).toEqual(expected);
+      expect(detail.history.editions.map((e) => e.id)).toEqual(p.usedIn.map((u) => u.editionId));
+    }
   });
 });
