@@ -9,7 +9,7 @@ import { addToStock, markStockUsed } from '../../../server/services/stock';
 import { seedDemoStock, wheelWithChords } from '../../../server/demo/stock-seed';
 import { solvePlaneNetwork } from '../../../shared/tiling/index';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { order9Code, order9bCode } from '../../fixtures/intake/order9';
+import { order9Code, order9bCode } from '../../fixtures/order9';
 import { order10Codes, order21Square, order24Compound } from '../../fixtures/intake/order10';
 
 let t: TestApp;

@@ -8,7 +8,7 @@ import { stock } from '../../../server/db/schema/stock';
 import { mailOutbox } from '../../../server/db/schema/mail';
 import { uploadSubmissions } from '../../../server/services/submissions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { order9Code, order9bCode } from '../../fixtures/intake/order9';
+import { order9Code, order9bCode } from '../../fixtures/order9';
 import { order10Codes } from '../../fixtures/intake/order10';
 
 let t: TestApp;

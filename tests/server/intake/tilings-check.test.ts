@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { order9Code, order9bCode } from '../../fixtures/intake/order9';
+import { order9Code, order9bCode } from '../../fixtures/order9';
 import { order21Square, order24Compound } from '../../fixtures/intake/order10';
 
 let t: TestApp;

@@ -6,7 +6,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { canonicalCode, canonicalKey, classifyTiling, parseTiling, toBouwkamp } from '../../../shared/tiling/index';
 import type { Verdict } from '../../../shared/contracts/tilings';
 import { PasteTab } from '../../../src/features/submit/components/paste-tab';
-import { order9Code } from '../../fixtures/intake/order9';
+import { order9Code } from '../../fixtures/order9';
 
 /** The verdict the server gives, built here from the same engine (the server test checks the route itself). */
 function verdictFor(code: string): Verdict {

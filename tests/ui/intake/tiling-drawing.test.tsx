@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { render, screen } from '@testing-library/react';
 import { TilingDrawing } from '../../../src/components/tiling-drawing';
-import { order9Tiling } from '../../fixtures/intake/order9';
+import { order9Tiling } from '../../fixtures/order9';
 
 describe('TilingDrawing', () => {
   it('draws one square per square of the published 33 x 32 rectangle with its size written in it', () => {

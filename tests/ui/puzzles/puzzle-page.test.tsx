@@ -3,19 +3,13 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { puzzleDetailSchema, type PuzzleDetail } from '../../../shared/contracts/puzzles';
 import { verifyTiling } from '../../../shared/tiling/index';
+import { order9Tiling } from '../../fixtures/order9';
 import { meAs, renderApp, stubFetch } from '../app/render-app';
 
 // The workbench of one puzzle against a stubbed API. The tiling is the published order-9
 // rectangle 33 x 32, code (18,15)(7,8)(14,4)(10,1)(9) (squaring.net catalogue; MathWorld
-// credits Moron 1925), with the placements of that code.
-const tiling = {
-  W: 33,
-  H: 32,
-  squares: [
-    { x: 0, y: 0, s: 18 }, { x: 18, y: 0, s: 15 }, { x: 18, y: 15, s: 7 }, { x: 25, y: 15, s: 8 }, { x: 0, y: 18, s: 14 },
-    { x: 14, y: 18, s: 4 }, { x: 14, y: 22, s: 10 }, { x: 24, y: 22, s: 1 }, { x: 24, y: 23, s: 9 },
-  ],
-};
+// credits Moron 1925), with the placements of that code (tests/fixtures/order9).
+const tiling = order9Tiling;
 
 const base: PuzzleDetail = puzzleDetailSchema.parse({
   id: 5, kind: 'deduction', title: 'Deduction, 9 squares', status: 'unique', grade: 2, level: 2, stockId: 3,
