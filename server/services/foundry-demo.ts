@@ -16,16 +16,12 @@ import { FOUNDRY_KIND, storeItems } from './foundry';
 // seed 2026), their tilings in the stock with provenance 'foundry'. Runs in the main thread
 // at first start (well under a second).
 
-function toItem(t: FoundTiling): FoundryItem {
-  return { key: t.key, code: t.code, order: t.order, width: t.width, height: t.height, perfect: t.perfect, simple: t.simple, square: t.square, maxSize: t.maxSize, tiling: t.tiling, origin: t.origin };
-}
-
 function record(db: Db, request: RunRequest, createdBy: string | null, run: (found: (t: FoundTiling) => void) => object): void {
   const params = runRequestSchema.parse(request);
   const id = randomUUID();
   const items: FoundryItem[] = [];
   const started = new Date();
-  const summary = run((t) => items.push(toItem(t)));
+  const summary = run((t) => items.push(t));
   db.transaction((tx) => {
     tx.insert(job).values({ id, kind: FOUNDRY_KIND, state: 'done', params: JSON.stringify(params), createdBy, startedAt: started, finishedAt: new Date(), summary: JSON.stringify(summary), progress: JSON.stringify({ phase: 'done', done: items.length, total: items.length, found: items.length }) }).run();
     storeItems(tx as unknown as Db, id, params, items);

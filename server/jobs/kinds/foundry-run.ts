@@ -7,19 +7,8 @@ import { defineJob } from '../types';
 // Input from the main thread: `knownKeys` (random mode: the stock's canonical keys) and
 // `parts` (joining: the stock's perfect rectangles).
 
-export interface FoundryItem {
-  key: string;
-  code: string;
-  order: number;
-  width: number;
-  height: number;
-  perfect: boolean;
-  simple: boolean;
-  square: boolean;
-  maxSize: number;
-  tiling: Tiling;
-  origin: Record<string, unknown>;
-}
+/** One result of a run, as the engine describes it (verified and classified). */
+export type FoundryItem = FoundTiling;
 
 export interface FoundryInput {
   knownKeys?: string[];
@@ -32,10 +21,6 @@ const phaseLabel = {
   solving: 'graphs solved',
 } as const;
 
-function item(t: FoundTiling): FoundryItem {
-  return { key: t.key, code: t.code, order: t.order, width: t.width, height: t.height, perfect: t.perfect, simple: t.simple, square: t.square, maxSize: t.maxSize, tiling: t.tiling, origin: t.origin };
-}
-
 export const handler = defineJob({
   kind: 'foundry-run',
   parseParams: (raw) => runRequestSchema.parse(raw),
@@ -45,7 +30,7 @@ export const handler = defineJob({
     let found = 0;
     const onFound = (t: FoundTiling) => {
       found++;
-      ctx.emit(item(t));
+      ctx.emit(t);
     };
     if (p.mode === 'exhaustive') {
       return exhaustiveTilings({
