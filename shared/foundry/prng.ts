@@ -1,14 +1,5 @@
-// mulberry32: a small seeded 32-bit PRNG (Tommy Ettinger's public-domain generator) [common practice].
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+// mulberry32: the seeded PRNG of the tiling engine (one implementation for all engines).
+export { mulberry32 } from '../tiling/index';
 
 /** Integer in [0, n). */
 export function randomInt(rnd: () => number, n: number): number {
