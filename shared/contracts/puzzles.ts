@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isoDateTimeSchema, pageOf } from './common';
+import { isoDateTimeSchema, pageOf, pageQuerySchema } from './common';
 
 // Puzzles: Assembly and Deduction puzzles made from stock tilings, proved unique in the
 // worker pool and stored with their certificate.
@@ -145,8 +145,7 @@ const boolQuery = z.enum(['true', 'false']).transform((v) => v === 'true');
 export const puzzleSortKeys = ['createdAt', 'updatedAt', 'grade', 'order', 'id'] as const;
 export const puzzleListQuerySchema = z
   .object({
-    page: z.coerce.number().int().min(1).default(1),
-    pageSize: z.coerce.number().int().min(1).max(200).default(25),
+    ...pageQuerySchema.shape,
     kind: puzzleKindSchema.optional(),
     status: puzzleStatusSchema.optional(),
     grade: z.coerce.number().int().min(1).max(5).optional(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { numericIdParamSchema, pageOf } from './common';
 import { sortParam } from './stock';
 import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema } from './tilings';
 
@@ -88,15 +89,10 @@ export const submissionListQuerySchema = z
   .strict();
 export type SubmissionListQuery = z.infer<typeof submissionListQuerySchema>;
 
-export const submissionListSchema = z.object({
-  items: z.array(submissionSchema),
-  total: z.number().int(),
-  page: z.number().int(),
-  pageSize: z.number().int(),
-});
+export const submissionListSchema = pageOf(submissionSchema);
 export type SubmissionList = z.infer<typeof submissionListSchema>;
 
-export const idParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+export const idParamsSchema = numericIdParamSchema;
 
 export const reviewSchema = z.object({ note: noteSchema.optional() }).strict();
 export const rejectSchema = z
