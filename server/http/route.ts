@@ -4,6 +4,7 @@ import { z } from 'zod';
 import type { SessionUser } from '../../shared/contracts/auth';
 import { roleSchema, type Role } from '../../shared/contracts/common';
 import { isAllowed, permissions, type Access } from '../auth/permissions';
+import { readSessionFast } from '../auth/session-reader';
 import type { AppDeps } from '../deps';
 import { Forbidden, Unauthorized } from './errors';
 import { OpenApiCollector } from './openapi';
@@ -81,16 +82,24 @@ export function createApiRouter(deps: AppDeps): ApiRouter {
   return { express: Router(), deps, openapi: new OpenApiCollector(), registered: new Set() };
 }
 
-async function readSessionUser(deps: AppDeps, req: Request, res: Response): Promise<SessionUser | null> {
-  const { headers, response: session } = await deps.auth.api.getSession({ headers: fromNodeHeaders(req.headers), returnHeaders: true });
-  // a session past its update age is extended: pass the refreshed cookie on
-  for (const cookie of headers.getSetCookie()) res.append('Set-Cookie', cookie);
-  if (!session) return null;
-  const u = session.user as { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
+function toSessionUser(u: { id: string; email: string; name: string; role?: string | null; banned?: boolean | number | null }): SessionUser | null {
   if (u.banned) return null;
   const role = roleSchema.safeParse(u.role);
   if (!role.success) return null;
   return { id: u.id, email: u.email, name: u.name, role: role.data };
+}
+
+async function readSessionUser(deps: AppDeps, req: Request, res: Response): Promise<SessionUser | null> {
+  // the common case (a live session that needs no extension) is read straight from the database,
+  // fresh on every request; anything else is better-auth's (server/auth/session-reader.ts)
+  const fast = await readSessionFast(deps.auth, deps.db, req.headers.cookie);
+  if (fast.kind === 'none') return null;
+  if (fast.kind === 'session') return toSessionUser(fast.user);
+  const { headers, response: session } = await deps.auth.api.getSession({ headers: fromNodeHeaders(req.headers), returnHeaders: true });
+  // a session past its update age is extended: pass the refreshed cookie on
+  for (const cookie of headers.getSetCookie()) res.append('Set-Cookie', cookie);
+  if (!session) return null;
+  return toSessionUser(session.user as { id: string; email: string; name: string; role?: string | null; banned?: boolean | null });
 }
 
 function parsePart<T extends z.ZodType>(schema: T, value: unknown, where: 'params' | 'query' | 'body'): z.output<T> {
