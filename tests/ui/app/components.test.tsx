@@ -3,6 +3,7 @@ import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { describe, expect, it, vi } from 'vitest';
+import { FramedTable } from '../../../src/components/framed-table';
 import { ProgressBar } from '../../../src/components/progress-bar';
 import { StatusBadge } from '../../../src/components/status-badge';
 import { Tabs } from '../../../src/components/tabs';
@@ -37,6 +38,20 @@ describe('shared components', () => {
     await user.keyboard('{ArrowLeft}{ArrowLeft}');
     expect(screen.getByRole('tab', { name: 'Sketch network' }).getAttribute('aria-selected')).toBe('true');
     expect(document.activeElement).toBe(screen.getByRole('tab', { name: 'Sketch network' }));
+  });
+
+  it('FramedTable is named by its caption and names an empty heading for screen readers (HTML table caption; WAI-ARIA columnheader)', () => {
+    render(
+      <FramedTable caption="Caught mail" headings={['Subject', '']}>
+        <tr>
+          <td>Hello</td>
+          <td>Open</td>
+        </tr>
+      </FramedTable>,
+    );
+    const table = screen.getByRole('table', { name: 'Caught mail' });
+    expect(screen.getAllByRole('columnheader').map((h) => h.textContent)).toEqual(['Subject', 'Actions']);
+    expect(table.querySelectorAll('tbody tr')).toHaveLength(1);
   });
 
   it('ProgressBar reports its value to assistive technology, and says when it is indeterminate', () => {

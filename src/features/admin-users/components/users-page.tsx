@@ -4,6 +4,7 @@ import type { AdminUser } from '../../../../shared/contracts/users';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
@@ -50,25 +51,11 @@ export function UsersPage() {
       ) : users.data.length === 0 ? (
         <EmptyState title="No users yet" />
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-          <table className="w-full border-collapse text-sm">
-            <caption className="sr-only">Users</caption>
-            <thead className="bg-paper-deep text-left">
-              <tr>
-                {['Name', 'E-mail', 'Role', 'State', 'Since', ''].map((h, i) => (
-                  <th key={i} scope="col" className="border-b border-rule px-3 py-2 font-semibold">
-                    {h || <span className="sr-only">Actions</span>}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {users.data.map((user) => (
-                <UserRow key={user.id} user={user} isSelf={me.data?.id === user.id} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => update.mutate({ id: user.id, ...change })} />
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <FramedTable caption="Users" headings={['Name', 'E-mail', 'Role', 'State', 'Since', '']} ruledHead>
+          {users.data.map((user) => (
+            <UserRow key={user.id} user={user} isSelf={me.data?.id === user.id} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => update.mutate({ id: user.id, ...change })} />
+          ))}
+        </FramedTable>
       )}
       <InviteDialog
         open={inviting}

@@ -8,6 +8,7 @@ import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
@@ -161,35 +162,21 @@ export function EditionsPage() {
           {editions.data.length === 0 ? (
             <EmptyState title="No editions this month">Create one with “New edition”, or look at another month.</EmptyState>
           ) : (
-            <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-              <table className="w-full border-collapse text-sm">
-                <caption className="sr-only">Editions this month</caption>
-                <thead className="bg-paper-deep text-left">
-                  <tr>
-                    <th scope="col" className="px-3 py-2">Date</th>
-                    <th scope="col" className="px-3 py-2">Edition</th>
-                    <th scope="col" className="px-3 py-2">State</th>
-                    <th scope="col" className="px-3 py-2">Slots</th>
-                    <th scope="col" className="px-3 py-2">Latest proof</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {editions.data.map((e) => (
-                    <tr key={e.id} className="border-t border-rule">
-                      <td className="px-3 py-2 tabular-nums whitespace-nowrap">{formatDate(e.date)}</td>
-                      <td className="px-3 py-2">
-                        <Link to={`/editions/${e.id}`}>{`${e.publicationTitle} No. ${e.number}`}</Link>
-                      </td>
-                      <td className="px-3 py-2">
-                        <EditionStateBadge state={e.state} />
-                      </td>
-                      <td className="px-3 py-2 tabular-nums">{e.slotCount}</td>
-                      <td className="px-3 py-2">{e.latestProofVersion ? `v${e.latestProofVersion} (${e.latestProofStatus ?? ''})` : '—'}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
+            <FramedTable caption="Editions this month" headings={['Date', 'Edition', 'State', 'Slots', 'Latest proof']}>
+              {editions.data.map((e) => (
+                <tr key={e.id} className="border-t border-rule">
+                  <td className="px-3 py-2 tabular-nums whitespace-nowrap">{formatDate(e.date)}</td>
+                  <td className="px-3 py-2">
+                    <Link to={`/editions/${e.id}`}>{`${e.publicationTitle} No. ${e.number}`}</Link>
+                  </td>
+                  <td className="px-3 py-2">
+                    <EditionStateBadge state={e.state} />
+                  </td>
+                  <td className="px-3 py-2 tabular-nums">{e.slotCount}</td>
+                  <td className="px-3 py-2">{e.latestProofVersion ? `v${e.latestProofVersion} (${e.latestProofStatus ?? ''})` : '—'}</td>
+                </tr>
+              ))}
+            </FramedTable>
           )}
         </>
       )}

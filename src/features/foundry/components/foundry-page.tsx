@@ -3,6 +3,7 @@ import type { Run, RunState } from '../../../../shared/contracts/foundry';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
@@ -49,25 +50,11 @@ export function FoundryPage() {
         ) : runs.data.length === 0 ? (
           <EmptyState title="No runs yet" />
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-            <table className="w-full border-collapse text-sm">
-              <caption className="sr-only">Foundry runs</caption>
-              <thead className="bg-paper-deep text-left">
-                <tr>
-                  {['Run', 'State', 'Found', 'New in stock', 'Started', ''].map((h, i) => (
-                    <th key={i} scope="col" className="border-b border-rule px-3 py-2 font-semibold">
-                      {h || <span className="sr-only">Actions</span>}
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                {runs.data.map((run) => (
-                  <RunRow key={run.id} run={run} cancelling={cancel.isPending && cancel.variables === run.id} onCancel={() => cancel.mutate(run.id)} />
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <FramedTable caption="Foundry runs" headings={['Run', 'State', 'Found', 'New in stock', 'Started', '']} ruledHead>
+            {runs.data.map((run) => (
+              <RunRow key={run.id} run={run} cancelling={cancel.isPending && cancel.variables === run.id} onCancel={() => cancel.mutate(run.id)} />
+            ))}
+          </FramedTable>
         )}
       </section>
     </Page>

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Alert } from '../../../components/alert';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
@@ -23,31 +24,18 @@ export function MailboxPage() {
       ) : mail.data.length === 0 ? (
         <EmptyState title="No mail caught yet">Invitations, password resets and proof notices appear here as they are sent.</EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-          <table className="w-full border-collapse text-sm">
-            <caption className="sr-only">Caught mail</caption>
-            <thead className="bg-paper-deep text-left">
-              <tr>
-                <th scope="col" className="border-b border-rule px-3 py-2 font-semibold">Subject</th>
-                <th scope="col" className="border-b border-rule px-3 py-2 font-semibold">To</th>
-                <th scope="col" className="border-b border-rule px-3 py-2 font-semibold">From</th>
-                <th scope="col" className="border-b border-rule px-3 py-2 font-semibold">Received</th>
-              </tr>
-            </thead>
-            <tbody>
-              {mail.data.map((m) => (
-                <tr key={m.id} className="border-b border-rule last:border-b-0">
-                  <td className="px-3 py-2">
-                    <Link to={`/admin/mailbox/${m.id}`}>{m.subject || '(no subject)'}</Link>
-                  </td>
-                  <td className="px-3 py-2"><code className="text-ink-soft">{m.to}</code></td>
-                  <td className="px-3 py-2 text-ink-muted">{m.from}</td>
-                  <td className="px-3 py-2 tabular-nums whitespace-nowrap text-ink-muted">{formatDateTime(m.receivedAt)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <FramedTable caption="Caught mail" headings={['Subject', 'To', 'From', 'Received']} ruledHead>
+          {mail.data.map((m) => (
+            <tr key={m.id} className="border-b border-rule last:border-b-0">
+              <td className="px-3 py-2">
+                <Link to={`/admin/mailbox/${m.id}`}>{m.subject || '(no subject)'}</Link>
+              </td>
+              <td className="px-3 py-2"><code className="text-ink-soft">{m.to}</code></td>
+              <td className="px-3 py-2 text-ink-muted">{m.from}</td>
+              <td className="px-3 py-2 tabular-nums whitespace-nowrap text-ink-muted">{formatDateTime(m.receivedAt)}</td>
+            </tr>
+          ))}
+        </FramedTable>
       )}
     </Page>
   );

@@ -3,6 +3,7 @@ import { editionStateLabels, type EditionSummary } from '../../../../shared/cont
 import { Alert } from '../../../components/alert';
 import { PrintCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
@@ -11,47 +12,30 @@ import { useSentEditions } from '../api/list-proofs';
 
 function SentTable({ rows, label, press }: { rows: EditionSummary[]; label: string; press: boolean }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-      <table className="w-full border-collapse text-sm">
-        <caption className="sr-only">{label}</caption>
-        <thead className="bg-paper-deep text-left">
-          <tr>
-            <th scope="col" className="px-3 py-2">Edition</th>
-            <th scope="col" className="px-3 py-2">Date</th>
-            <th scope="col" className="px-3 py-2">State</th>
-            <th scope="col" className="px-3 py-2">Version</th>
-            <th scope="col" className="px-3 py-2">Sent</th>
-            <th scope="col" className="px-3 py-2">Pages</th>
-            <th scope="col" className="px-3 py-2">Preflight</th>
-            <th scope="col" className="px-3 py-2">File</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((e) => (
-            <tr key={e.id} className="border-t border-rule">
-              <td className="px-3 py-2">
-                <Link to={`/proofs/${e.id}`}>{`${e.publicationTitle} No. ${e.number}`}</Link>
-              </td>
-              <td className="px-3 py-2 whitespace-nowrap">{formatDate(e.date)}</td>
-              <td className="px-3 py-2">
-                <StatusBadge tone={e.state === 'in_proof' ? 'info' : e.state === 'draft' ? 'warning' : 'success'}>{e.state === 'draft' ? 'Returned' : editionStateLabels[e.state]}</StatusBadge>
-              </td>
-              <td className="px-3 py-2 tabular-nums">{e.latestProofVersion ? `v${e.latestProofVersion}` : '—'}</td>
-              <td className="px-3 py-2 whitespace-nowrap">{e.latestProofAt ? formatDateTime(e.latestProofAt) : '—'}</td>
-              <td className="px-3 py-2 tabular-nums">{e.latestProofPages ?? '—'}</td>
-              <td className="px-3 py-2">{e.latestPreflightOk === null ? '—' : `${e.latestPreflightOk ? 'Passed' : 'Failed'}${e.latestWarnings ? `, ${e.latestWarnings} warning(s)` : ''}`}</td>
-              <td className="px-3 py-2">
-                {press ? (
-                  <a href={`/api/editions/${e.id}/press.pdf?download=1`}>Download press file</a>
-                ) : e.latestProofVersion ? (
-                  <a href={`/api/editions/${e.id}/proofs/${e.latestProofVersion}.pdf?download=1`}>{`Download v${e.latestProofVersion}`}</a>
-                ) : null}
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <FramedTable caption={label} headings={['Edition', 'Date', 'State', 'Version', 'Sent', 'Pages', 'Preflight', 'File']}>
+      {rows.map((e) => (
+        <tr key={e.id} className="border-t border-rule">
+          <td className="px-3 py-2">
+            <Link to={`/proofs/${e.id}`}>{`${e.publicationTitle} No. ${e.number}`}</Link>
+          </td>
+          <td className="px-3 py-2 whitespace-nowrap">{formatDate(e.date)}</td>
+          <td className="px-3 py-2">
+            <StatusBadge tone={e.state === 'in_proof' ? 'info' : e.state === 'draft' ? 'warning' : 'success'}>{e.state === 'draft' ? 'Returned' : editionStateLabels[e.state]}</StatusBadge>
+          </td>
+          <td className="px-3 py-2 tabular-nums">{e.latestProofVersion ? `v${e.latestProofVersion}` : '—'}</td>
+          <td className="px-3 py-2 whitespace-nowrap">{e.latestProofAt ? formatDateTime(e.latestProofAt) : '—'}</td>
+          <td className="px-3 py-2 tabular-nums">{e.latestProofPages ?? '—'}</td>
+          <td className="px-3 py-2">{e.latestPreflightOk === null ? '—' : `${e.latestPreflightOk ? 'Passed' : 'Failed'}${e.latestWarnings ? `, ${e.latestWarnings} warning(s)` : ''}`}</td>
+          <td className="px-3 py-2">
+            {press ? (
+              <a href={`/api/editions/${e.id}/press.pdf?download=1`}>Download press file</a>
+            ) : e.latestProofVersion ? (
+              <a href={`/api/editions/${e.id}/proofs/${e.latestProofVersion}.pdf?download=1`}>{`Download v${e.latestProofVersion}`}</a>
+            ) : null}
+          </td>
+        </tr>
+      ))}
+    </FramedTable>
   );
 }
 

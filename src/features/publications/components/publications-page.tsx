@@ -7,6 +7,7 @@ import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
@@ -108,43 +109,27 @@ export function PublicationsPage() {
       ) : list.data.length === 0 ? (
         <EmptyState title="No publications yet" />
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-          <table className="w-full border-collapse text-sm">
-            <caption className="sr-only">Publications</caption>
-            <thead className="bg-paper-deep text-left">
-              <tr>
-                <th scope="col" className="px-3 py-2">Title</th>
-                <th scope="col" className="px-3 py-2">Template</th>
-                <th scope="col" className="px-3 py-2">Cadence</th>
-                <th scope="col" className="px-3 py-2">Solutions</th>
-                <th scope="col" className="px-3 py-2">Reuse window</th>
-                <th scope="col" className="px-3 py-2">Fees (Assembly / Deduction)</th>
-                <th scope="col" className="px-3 py-2"><span className="sr-only">Actions</span></th>
-              </tr>
-            </thead>
-            <tbody>
-              {list.data.map((p) => (
-                <tr key={p.id} className="border-t border-rule">
-                  <td className="px-3 py-2">
-                    <span className="font-semibold">{p.title}</span>
-                    <br />
-                    <span className="text-ink-muted">{p.publisher}</span>
-                  </td>
-                  <td className="px-3 py-2">{p.templateId}</td>
-                  <td className="px-3 py-2">{p.cadence}</td>
-                  <td className="px-3 py-2">{p.solutionRule === 'same_edition' ? 'Same edition' : 'Next edition'}</td>
-                  <td className="px-3 py-2 tabular-nums">{`${p.reuseWindowDays} days`}</td>
-                  <td className="px-3 py-2 tabular-nums">{`${formatFee(p.feeAssemblyMinor, p.currency)} / ${formatFee(p.feeDeductionMinor, p.currency)}`}</td>
-                  <td className="px-3 py-2">
-                    <Button size="sm" onClick={() => setEditing(p)} aria-label={`Edit ${p.title}`}>
-                      Edit
-                    </Button>
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <FramedTable caption="Publications" headings={['Title', 'Template', 'Cadence', 'Solutions', 'Reuse window', 'Fees (Assembly / Deduction)', '']}>
+          {list.data.map((p) => (
+            <tr key={p.id} className="border-t border-rule">
+              <td className="px-3 py-2">
+                <span className="font-semibold">{p.title}</span>
+                <br />
+                <span className="text-ink-muted">{p.publisher}</span>
+              </td>
+              <td className="px-3 py-2">{p.templateId}</td>
+              <td className="px-3 py-2">{p.cadence}</td>
+              <td className="px-3 py-2">{p.solutionRule === 'same_edition' ? 'Same edition' : 'Next edition'}</td>
+              <td className="px-3 py-2 tabular-nums">{`${p.reuseWindowDays} days`}</td>
+              <td className="px-3 py-2 tabular-nums">{`${formatFee(p.feeAssemblyMinor, p.currency)} / ${formatFee(p.feeDeductionMinor, p.currency)}`}</td>
+              <td className="px-3 py-2">
+                <Button size="sm" onClick={() => setEditing(p)} aria-label={`Edit ${p.title}`}>
+                  Edit
+                </Button>
+              </td>
+            </tr>
+          ))}
+        </FramedTable>
       )}
     </Page>
   );

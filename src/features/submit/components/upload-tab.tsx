@@ -2,6 +2,7 @@ import { useId, useState, type DragEvent } from 'react';
 import type { UploadLine, UploadReport } from '../../../../shared/contracts/submissions';
 import { MAX_UPLOAD_BYTES, MAX_UPLOAD_LINES } from '../../../../shared/contracts/submissions';
 import { Alert } from '../../../components/alert';
+import { FramedTable } from '../../../components/framed-table';
 import { ProgressBar } from '../../../components/progress-bar';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
@@ -79,39 +80,27 @@ export function UploadReportView({ report }: { report: UploadReport }) {
       <Alert tone={summary.invalid ? 'warning' : 'success'} title={`${report.fileName}: ${summary.created} new submission${summary.created === 1 ? '' : 's'}`}>
         {summary.valid} valid, {summary.duplicate} duplicate, {summary.invalid} invalid. Invalid lines were not stored; fix them and upload again.
       </Alert>
-      <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-        <table className="w-full border-collapse text-sm">
-          <caption className="sr-only">Report per line</caption>
-          <thead className="bg-paper-deep text-left">
-            <tr>
-              {['Line', 'Verdict', 'Tiling', 'Details'].map((h) => (
-                <th key={h} scope="col" className="border-b border-rule px-3 py-2 font-semibold">{h}</th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {report.lines.map((l) => (
-              <tr key={l.line} className="border-b border-rule last:border-b-0">
-                <td className="px-3 py-2 tabular-nums">{l.line}</td>
-                <td className="px-3 py-2">{verdictBadge(l)}</td>
-                <td className="px-3 py-2 tabular-nums">{l.width ? `${l.width} × ${l.height}, order ${l.order}` : '–'}</td>
-                <td className="px-3 py-2">
-                  {l.error ? (
-                    <span>
-                      {l.error.message}
-                      {whereText(l.error.where) ? <span className="text-ink-muted"> ({whereText(l.error.where)})</span> : null}
-                    </span>
-                  ) : l.duplicateOf ? (
-                    <span>{dupText[l.duplicateOf]}{l.submissionId ? ` – sent as submission ${l.submissionId}, flagged` : ' – not sent again'}</span>
-                  ) : (
-                    <span>submission {l.submissionId}</span>
-                  )}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <FramedTable caption="Report per line" headings={['Line', 'Verdict', 'Tiling', 'Details']} ruledHead>
+        {report.lines.map((l) => (
+          <tr key={l.line} className="border-b border-rule last:border-b-0">
+            <td className="px-3 py-2 tabular-nums">{l.line}</td>
+            <td className="px-3 py-2">{verdictBadge(l)}</td>
+            <td className="px-3 py-2 tabular-nums">{l.width ? `${l.width} × ${l.height}, order ${l.order}` : '–'}</td>
+            <td className="px-3 py-2">
+              {l.error ? (
+                <span>
+                  {l.error.message}
+                  {whereText(l.error.where) ? <span className="text-ink-muted"> ({whereText(l.error.where)})</span> : null}
+                </span>
+              ) : l.duplicateOf ? (
+                <span>{dupText[l.duplicateOf]}{l.submissionId ? ` – sent as submission ${l.submissionId}, flagged` : ' – not sent again'}</span>
+              ) : (
+                <span>submission {l.submissionId}</span>
+              )}
+            </td>
+          </tr>
+        ))}
+      </FramedTable>
     </section>
   );
 }
