@@ -2,54 +2,130 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
+import { puzzleDetailSchema, type PuzzleDetail } from '../../shared/contracts/puzzles';
+import { verifyTiling } from '../../shared/tiling/index';
 import { seriousAxeViolations } from './helpers/axe';
 import { screenshot, signIn, useBrowser } from './helpers/browser';
 import { waitForMail } from './helpers/mailbox';
 
-// The proof round in a real browser against the built app in demo mode: the editor composes
-// The Saturday Quadrant No. 42 (a demo draft) from two demo puzzles and sends it to proof, the printer returns it with a
-// note, the editor changes the introduction and sends proof 2, the printer approves it
-// and downloads the press file, which carries no PROOF stamp.
+// The proof round in a real browser against the built app in demo mode (issue 7 item 8): the
+// editor derives two puzzles from stock tilings that no puzzle uses yet (Stock -> a tiling ->
+// "Make a puzzle", one Assembly and one Deduction) and waits on the workbench until each is
+// proved unique with a current certificate; then creates a new draft edition of Squared Away
+// Monthly, composes it from exactly those two puzzles and sends it to proof. The printer
+// returns it with a note, the editor changes the introduction and sends proof 2, the printer
+// approves it and downloads the press file, which carries no PROOF stamp and prints the
+// solutions of both derived puzzles (the Monthly prints them in the same edition).
+// Check values: each derived tiling verifies with the tiling engine (itself checked against
+// the published catalogue), every step of the Deduction solution names the true size of its
+// square, and the press file lists each tiling's square sizes.
 
 const hasPdftotext = spawnSync('pdftotext', ['-v']).status === 0;
+
+type Derived = { id: string; kind: 'assembly' | 'deduction'; stockId: number; tiling: PuzzleDetail['tiling'] };
+
+/** Stock page -> the first tiling no puzzle uses -> "Make a puzzle" -> the workbench, until it is proved unique. */
+async function derivePuzzle(editor: Page, kind: 'assembly' | 'deduction', notStock: number[]): Promise<Derived> {
+  // unused tilings, smallest order first (small tilings prove in well under a second)
+  await editor.goto('/stock?used=unused&perfect=true&sort=order');
+  await editor.getByRole('heading', { name: 'Stock', level: 1 }).waitFor();
+  const rows = editor.getByRole('table', { name: 'Stock tilings' }).getByRole('row');
+  await rows.nth(1).waitFor();
+  let stockId = 0;
+  for (let i = 1; stockId === 0; i++) {
+    const row = rows.nth(i);
+    const n = Number((await row.getByRole('cell').nth(1).innerText()).trim());
+    expect(Number.isInteger(n) && n > 0).toBe(true);
+    if (notStock.includes(n)) continue;
+    stockId = n;
+    await row.getByRole('cell').nth(1).click();
+  }
+  await editor.getByRole('heading', { name: `Stock tiling ${stockId}`, level: 1 }).waitFor();
+  // no puzzle (demo or otherwise) has been made from it yet
+  const provenance = editor.getByText('Puzzles derived', { exact: true }).locator('..');
+  await expect.poll(() => provenance.innerText()).toMatch(/Puzzles derived\s+None yet\./);
+  await editor.getByRole('link', { name: 'Make a puzzle' }).click();
+  await editor.waitForURL(new RegExp(`/puzzles/new\\?stockId=${stockId}$`));
+  await editor.getByRole('heading', { name: 'Make a puzzle', level: 1 }).waitFor();
+  await editor.getByRole('img', { name: /Squared rectangle/ }).waitFor();
+  const form = editor.getByRole('form', { name: 'Make a puzzle' });
+  await form.getByLabel(kind === 'assembly' ? 'Assembly' : 'Deduction').check();
+  await form.getByRole('button', { name: 'Make and prove' }).click();
+  await editor.waitForURL(/\/puzzles\/\d+$/);
+  const verdict = editor.getByRole('region', { name: 'Verdict' });
+  await expect.poll(() => verdict.innerText(), { timeout: 90_000, interval: 300 }).toMatch(/\bUnique\b[\s\S]*Certificate current: printable/);
+  const id = new URL(editor.url()).pathname.split('/').pop()!;
+  const api = puzzleDetailSchema.parse(await (await editor.request.get(`/api/puzzles/${id}`)).json());
+  expect(api.kind).toBe(kind);
+  expect(api.stockId).toBe(stockId);
+  expect(api.status).toBe('unique');
+  expect(api.certificateCurrent).toBe(true);
+  expect(verifyTiling(api.tiling).ok).toBe(true);
+  for (const s of api.steps) expect(s.value).toBe(api.tiling.squares[s.square]!.s);
+  return { id, kind, stockId, tiling: api.tiling };
+}
 
 describe('the proof round in the browser', () => {
   const harness = useBrowser();
 
-  it('editor sends a proof, printer returns it, editor resends, printer approves and gets the press file', async () => {
+  it('editor derives two puzzles, composes an edition, sends a proof; printer returns it; editor resends; printer approves and gets the press file', async () => {
     const editor = harness.page();
     await signIn(editor, 'editor');
+
+    // Derive one Assembly and one Deduction puzzle from two different unused tilings.
+    const assembly = await derivePuzzle(editor, 'assembly', []);
+    const deduction = await derivePuzzle(editor, 'deduction', [assembly.stockId]);
+    expect(deduction.stockId).not.toBe(assembly.stockId);
+
+    // A new draft edition of Squared Away Monthly, the month after its latest one.
     const list = await editor.request.get('/api/editions');
     expect(list.ok()).toBe(true);
     const { items } = (await list.json()) as { items: { id: string; number: number; publicationTitle: string; state: string; date: string }[] };
-    const target = items.find((e) => e.publicationTitle === 'The Saturday Quadrant' && e.number === 42);
-    expect(target?.state).toBe('draft');
-    const id = target!.id;
-
-    // The calendar shows it in its month with its state as text.
-    await editor.goto(`/editions?month=${target!.date.slice(0, 7)}`);
+    const monthly = items.filter((e) => e.publicationTitle === 'Squared Away Monthly');
+    expect(monthly.length).toBeGreaterThan(0);
+    const number = Math.max(...monthly.map((e) => e.number)) + 1;
+    const last = monthly.map((e) => e.date).sort().at(-1)!;
+    const next = new Date(Date.UTC(Number(last.slice(0, 4)), Number(last.slice(5, 7)), 1));
+    const date = next.toISOString().slice(0, 10);
+    const title = `Squared Away Monthly No. ${number}`;
+    await editor.goto(`/editions?month=${date.slice(0, 7)}`);
     await editor.getByRole('heading', { name: 'Editions', level: 1 }).waitFor();
-    await editor.getByRole('link', { name: /The Saturday Quadrant No\. 42/ }).first().click();
-    await editor.getByRole('heading', { name: 'The Saturday Quadrant No. 42', level: 1 }).waitFor();
+    await editor.getByRole('button', { name: 'New edition' }).click();
+    await editor.getByLabel('Publication').selectOption({ label: 'Squared Away Monthly' });
+    await editor.getByLabel('Number').fill(String(number));
+    await editor.getByLabel('Date').fill(date);
+    await editor.getByRole('button', { name: 'Create draft' }).click();
+    await editor.waitForURL(/\/editions\/[^/?]+$/);
+    await editor.getByRole('heading', { name: title, level: 1 }).waitFor();
+    const id = new URL(editor.url()).pathname.split('/').pop()!;
     expect(await editor.getByText('Check the proof before press').count()).toBeGreaterThan(0);
 
-    // Compose: two puzzles the demo has not printed yet (the demo puzzles are made by the
-    // engine from stock tilings at start-up), added through the slot picker, then reordered.
+    // The calendar shows it in its month with its state as text.
+    await editor.goto(`/editions?month=${date.slice(0, 7)}`);
+    await editor.getByRole('link', { name: new RegExp(title.replace(/\./g, '\\.')) }).first().click();
+    await editor.getByRole('heading', { name: title, level: 1 }).waitFor();
+
+    // Compose: exactly the two derived puzzles, added through the slot picker (both
+    // unused so far), then reordered.
     const picker = editor.getByLabel('Puzzle', { exact: true });
     await picker.waitFor();
-    const unused = await picker.locator('option').evaluateAll((os) => os.map((o) => ({ value: (o as HTMLOptionElement).value, text: o.textContent ?? '' })).filter((o) => o.value && o.text.includes('(unused)')));
-    expect(unused.length).toBeGreaterThanOrEqual(2);
-    for (const o of unused.slice(0, 2)) {
-      await picker.selectOption(o.value);
+    const options = await picker.locator('option').evaluateAll((os) => os.map((o) => ({ value: (o as HTMLOptionElement).value, text: o.textContent ?? '' })));
+    for (const p of [assembly, deduction]) {
+      const o = options.find((x) => x.value === p.id);
+      expect(o?.text).toMatch(new RegExp(`^${p.kind === 'assembly' ? 'Assembly' : 'Deduction'} ${p.id}: .*\\(unused\\)$`));
+      await picker.selectOption(p.id);
       await editor.getByRole('button', { name: 'Add slot' }).click();
     }
     await editor.getByRole('button', { name: 'Move slot 2 up' }).click();
     await editor.getByRole('button', { name: 'Save slots' }).click();
     await editor.getByText('Slot 2', { exact: true }).waitFor();
-    await expect.poll(async () => (await (await editor.request.get(`/api/editions/${id}`)).json()).slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual([unused[1]!.value, unused[0]!.value]);
+    await expect.poll(async () => (await (await editor.request.get(`/api/editions/${id}`)).json()).slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual([deduction.id, assembly.id]);
     await editor.getByRole('button', { name: 'Run the checks again' }).click();
     await editor.getByText('Every puzzle has a current certificate.').waitFor({ timeout: 30_000 });
+    // the reuse guard: the two tilings differ and no other Monthly edition used them
+    await editor.getByText('No tiling repeats within 365 days in Squared Away Monthly.').waitFor();
     await editor.getByRole('button', { name: 'Send to proof' }).click();
     await editor.getByText('Proof v1 sent').waitFor({ timeout: 30_000 });
     await screenshot(editor, 'edition-in-proof');
@@ -59,19 +135,19 @@ describe('the proof round in the browser', () => {
     const printer = await printerContext.newPage();
     await signIn(printer, 'printer');
     await printer.goto('/proofs');
-    await printer.getByRole('link', { name: 'The Saturday Quadrant No. 42' }).click();
+    await printer.getByRole('link', { name: title }).click();
     await printer.getByRole('heading', { name: 'Proof v1' }).waitFor();
-    await printer.getByLabel('Notes for the desk').fill('Please add the printing date to the introduction.');
+    await printer.getByLabel('Notes for the desk').fill('Please add the printing month to the introduction.');
     await printer.getByRole('button', { name: 'Return with notes' }).click();
     await printer.getByText('Returned to the desk with your notes.').waitFor();
 
     // The editor sees the note, changes the introduction and resends.
     await editor.reload();
-    await editor.getByText('Please add the printing date to the introduction.').first().waitFor();
+    await editor.getByText('Please add the printing month to the introduction.').first().waitFor();
     const intro = editor.getByRole('textbox', { name: 'Introduction' });
     await intro.click();
     await editor.keyboard.press('Control+End');
-    await editor.keyboard.type(' Printed for Saturday.');
+    await editor.keyboard.type(' Printed for the new month.');
     await editor.getByRole('button', { name: 'Save details' }).click();
     await editor.getByText('Saved.').waitFor();
     await editor.getByRole('button', { name: 'Send to proof' }).click();
@@ -92,12 +168,13 @@ describe('the proof round in the browser', () => {
     if (hasPdftotext) {
       const file = join(mkdtempSync(join(tmpdir(), 'sw-e2e-press-')), 'press.pdf');
       writeFileSync(file, bytes);
-      const text = spawnSync('pdftotext', [file, '-'], { encoding: 'utf8' }).stdout;
-      expect(text).toContain('Printed for Saturday.');
+      const text = spawnSync('pdftotext', [file, '-'], { encoding: 'utf8' }).stdout.replace(/\s+/g, ' ');
+      expect(text).toContain('Printed for the new month.');
       expect(text).toContain('Puzzle 1');
       expect(text).toContain('Puzzle 2');
-      // the solutions of No. 41 (a demo edition) print here: The Saturday Quadrant puts them in the next edition
-      expect(text).toMatch(/No\.? 41, puzzle 1/); // pdftotext sometimes drops the full stop after No
+      // Squared Away Monthly prints the solutions in the same edition: each derived tiling's sizes, largest first
+      expect(text).toContain('Solutions');
+      for (const p of [assembly, deduction]) expect(text).toContain(`${[...p.tiling.squares].map((q) => q.s).sort((a, b) => b - a).join(', ')}.`);
       expect(text).not.toMatch(/PROOF/);
     }
 
@@ -105,10 +182,11 @@ describe('the proof round in the browser', () => {
     const adminContext = await harness.newContext();
     const admin = await adminContext.newPage();
     await signIn(admin, 'admin');
-    await waitForMail(admin.request, { to: 'printer@demo.squarewright.test', subject: /Proof 2 ready: The Saturday Quadrant No\. 42/ });
-    await waitForMail(admin.request, { to: 'editor@demo.squarewright.test', subject: /Proof 1 returned/ });
-    await waitForMail(admin.request, { to: 'editor@demo.squarewright.test', subject: /Proof 2 approved/ });
-  });
+    const subject = (s: string) => new RegExp(`${s}: ${title.replace(/\./g, '\\.')}`);
+    await waitForMail(admin.request, { to: 'printer@demo.squarewright.test', subject: subject('Proof 2 ready') });
+    await waitForMail(admin.request, { to: 'editor@demo.squarewright.test', subject: subject('Proof 1 returned') });
+    await waitForMail(admin.request, { to: 'editor@demo.squarewright.test', subject: subject('Proof 2 approved') });
+  }, 300_000);
 
   it('keeps the printer out of drafts and the stock, even by direct URL', async () => {
     const printer = harness.page();
