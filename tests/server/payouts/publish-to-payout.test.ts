@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
 import type { PuzzleForPrint } from '../../../server/services/editions';
-import { notToScale, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 // From print to payment through the real publish step: an edition of the Saturday
@@ -15,22 +15,6 @@ import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 let t: MoneyTestApp;
 let setterId: string;
 const puzzles = new Map<string, PuzzleForPrint>();
-
-function stubPuzzle(id: string, tiling: typeof TILING_33x32, kind: 'assembly' | 'deduction'): PuzzleForPrint {
-  const largest = [...tiling.squares].sort((a, b) => b.s - a.s)[0]!;
-  return {
-    id,
-    kind,
-    title: `${kind} ${id}`,
-    grade: 2,
-    tilingKey: `${tiling.W}x${tiling.H}:${tiling.squares.map((q) => q.s).join(',')}`,
-    setterId,
-    certificate: { current: true, summary: 'stub certificate' },
-    assembly: kind === 'assembly' ? { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [{ size: largest.s, x: largest.x, y: largest.y }] } : undefined,
-    deduction: kind === 'deduction' ? { layout: notToScale(tiling), givens: [0, 1, 4].map((i) => ({ rect: i, size: tiling.squares[i]!.s })) } : undefined,
-    solution: { tiling, steps: kind === 'deduction' ? ['18 + 15 = 33.'] : undefined },
-  };
-}
 
 beforeAll(async () => {
   t = await createMoneyTestApp();
@@ -45,8 +29,8 @@ describe('publish, then pay', () => {
     const email = 'printed@test.squarewright.test';
     const setter = await t.signInAs('setter', { email, name: 'Printed Setter' });
     setterId = await t.createUser('setter', { email });
-    puzzles.set('pz-a', stubPuzzle('pz-a', TILING_69x61, 'assembly'));
-    puzzles.set('pz-d', stubPuzzle('pz-d', TILING_33x32, 'deduction'));
+    puzzles.set('pz-a', stubPuzzleForPrint('pz-a', TILING_69x61, 'assembly', setterId));
+    puzzles.set('pz-d', stubPuzzleForPrint('pz-d', TILING_33x32, 'deduction', setterId));
     const admin = await t.signInAs('admin');
     const editor = await t.signInAs('editor');
     const printer = await t.signInAs('printer');

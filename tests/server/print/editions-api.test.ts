@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import type { PuzzleForPrint, PuzzleSource } from '../../../server/services/editions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { notToScale, TILING_33x32, TILING_69x61 } from './fixtures/sample-edition';
+import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from './fixtures/sample-edition';
 import { hasPoppler, pdftotext, writeTemp } from './poppler';
 
 // The print API end to end on a fresh database: publications, editions, the state
@@ -27,22 +27,6 @@ function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => 
   res.on('end', () => cb(null, Buffer.concat(chunks)));
 }
 
-function stubPuzzle(id: string, tiling: typeof TILING_33x32, kind: 'assembly' | 'deduction', current = true): PuzzleForPrint {
-  const largest = [...tiling.squares].sort((a, b) => b.s - a.s)[0]!;
-  return {
-    id,
-    kind,
-    title: `${kind} ${id}`,
-    grade: 2,
-    tilingKey: `${tiling.W}x${tiling.H}:${tiling.squares.map((q) => q.s).join(',')}`,
-    setterId,
-    certificate: { current, summary: 'stub certificate' },
-    assembly: kind === 'assembly' ? { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [{ size: largest.s, x: largest.x, y: largest.y }] } : undefined,
-    deduction: kind === 'deduction' ? { layout: notToScale(tiling), givens: [0, 1, 4].map((i) => ({ rect: i, size: tiling.squares[i]!.s })) } : undefined,
-    solution: { tiling, steps: kind === 'deduction' ? ['18 + 15 = 33.'] : undefined },
-  };
-}
-
 const source: PuzzleSource = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null };
 
 beforeAll(async () => {
@@ -53,10 +37,10 @@ beforeAll(async () => {
   printer = await t.signInAs('printer');
   setter = await t.signInAs('setter');
   setterId = await t.createUser('setter');
-  puzzles.set('pz-a', stubPuzzle('pz-a', TILING_69x61, 'assembly'));
-  puzzles.set('pz-d', stubPuzzle('pz-d', TILING_33x32, 'deduction'));
-  puzzles.set('pz-same-tiling', stubPuzzle('pz-same-tiling', TILING_33x32, 'assembly'));
-  puzzles.set('pz-stale', stubPuzzle('pz-stale', TILING_69x61, 'deduction', false));
+  puzzles.set('pz-a', stubPuzzleForPrint('pz-a', TILING_69x61, 'assembly', setterId));
+  puzzles.set('pz-d', stubPuzzleForPrint('pz-d', TILING_33x32, 'deduction', setterId));
+  puzzles.set('pz-same-tiling', stubPuzzleForPrint('pz-same-tiling', TILING_33x32, 'assembly', setterId));
+  puzzles.set('pz-stale', stubPuzzleForPrint('pz-stale', TILING_69x61, 'deduction', setterId, false));
 });
 afterAll(() => t.close());
 
