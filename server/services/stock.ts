@@ -1,9 +1,10 @@
-import { and, asc, count, desc, eq, gt, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, gte, lte, sql, type SQL } from 'drizzle-orm';
 import { canonicalTiling, isSimple, toBouwkamp, verifyTiling, type Tiling } from '../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../shared/contracts/stock';
 import { stockFilterSchema } from '../../shared/contracts/stock';
 import type { z } from 'zod';
-import type { DbOrTx } from '../db/client';
+import type { Statement } from 'better-sqlite3';
+import type { Db, DbOrTx } from '../db/client';
 import { stock } from '../db/schema/stock';
 import { submission } from '../db/schema/submissions';
 import { NotFound, Unprocessable } from '../http/errors';
@@ -156,12 +157,54 @@ const sortColumns = {
   id: 'id',
 } as const;
 
+/**
+ * The list's SQL, written out once per filter shape and prepared once per database (Drizzle
+ * would build and SQLite would prepare the same text on every request). Column names and
+ * directions come from whitelists; every value is a bound parameter. Mirrors whereOf.
+ */
+function listWhere(f: StockFilter): { text: string; params: (string | number)[] } {
+  const w: string[] = [];
+  const params: (string | number)[] = [];
+  const add = (cond: string, v: string | number) => {
+    w.push(cond);
+    params.push(v);
+  };
+  if (f.orderMin !== undefined) add('"order" >= ?', f.orderMin);
+  if (f.orderMax !== undefined) add('"order" <= ?', f.orderMax);
+  if (f.widthMin !== undefined) add('width >= ?', f.widthMin);
+  if (f.widthMax !== undefined) add('width <= ?', f.widthMax);
+  if (f.heightMin !== undefined) add('height >= ?', f.heightMin);
+  if (f.heightMax !== undefined) add('height <= ?', f.heightMax);
+  if (f.square !== undefined) add('square = ?', f.square ? 1 : 0);
+  if (f.perfect !== undefined) add('perfect = ?', f.perfect ? 1 : 0);
+  if (f.simple !== undefined) add('simple = ?', f.simple ? 1 : 0);
+  if (f.provenance !== undefined) add('provenance = ?', f.provenance);
+  if (f.used === 'used') w.push('use_count > 0');
+  if (f.used === 'unused') w.push('use_count = 0');
+  if (f.setterId !== undefined) add('setter_id = ?', f.setterId);
+  return { text: w.length ? `where ${w.join(' and ')}` : '', params };
+}
+
+type Sqlite = Db['$client'];
+const statementCache = new WeakMap<Sqlite, Map<string, Statement>>();
+function prepared(client: Sqlite, text: string): Statement {
+  let perDb = statementCache.get(client);
+  if (!perDb) statementCache.set(client, (perDb = new Map()));
+  let st = perDb.get(text);
+  if (!st) {
+    // filter shapes x sorts are finitely many (a few thousand at most); keep the recent ones
+    if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
+    perDb.set(text, (st = client.prepare(text)));
+  }
+  return st;
+}
+
 /** Totals per filter, forgotten on any stock write and after COUNT_TTL_MS (counting is the slow part of a page). */
 const COUNT_TTL_MS = 2_000;
 let stockGeneration = 0;
 const countCache = new WeakMap<object, Map<string, { n: number; generation: number; at: number }>>();
 
-function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
+function countStock(db: Db, f: StockFilter, where: { text: string; params: (string | number)[] }): number {
   const key = JSON.stringify([f.orderMin, f.orderMax, f.widthMin, f.widthMax, f.heightMin, f.heightMax, f.square, f.perfect, f.simple, f.provenance, f.used, f.setterId]);
   let perDb = countCache.get(db);
   if (!perDb) countCache.set(db, (perDb = new Map()));
@@ -177,7 +220,8 @@ function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
         : f.heightMin !== undefined || f.heightMax !== undefined
           ? 'stock_height_sort_idx'
           : 'stock_filter_idx';
-  const n = db.get<{ n: number }>(sql`select count(*) as n from stock indexed by ${sql.raw(idx)} ${whereSql}`)?.n ?? 0;
+  const row = prepared(db.$client, `select count(*) as n from stock indexed by ${idx} ${where.text}`).get(...where.params) as { n: number } | undefined;
+  const n = row?.n ?? 0;
   if (perDb.size > 1000) perDb.clear();
   perDb.set(key, { n, generation: stockGeneration, at: now });
   return n;
@@ -191,7 +235,7 @@ function countStock(db: DbOrTx, f: StockFilter, whereSql: SQL): number {
 const LIST_TTL_MS = 5_000;
 const listCache = new WeakMap<object, Map<string, { value: StockList; generation: number; at: number }>>();
 
-export function listStock(db: DbOrTx, q: StockListQuery): StockList {
+export function listStock(db: Db, q: StockListQuery): StockList {
   // the same page of the same view (editors page back and forth) is answered from memory until
   // the stock changes or LIST_TTL_MS passes
   const key = JSON.stringify(q);
@@ -206,25 +250,63 @@ export function listStock(db: DbOrTx, q: StockListQuery): StockList {
   return value;
 }
 
-function listStockUncached(db: DbOrTx, q: StockListQuery): StockList {
-  const where = whereOf(q);
-  const whereSql = where ? sql`where ${where}` : sql``;
-  const dir = sql.raw(q.sort.desc ? 'desc' : 'asc');
-  const col = sql.raw(sortColumns[q.sort.key]);
+type ListRow = {
+  id: number;
+  canonicalKey: string;
+  canonicalCode: string;
+  width: number;
+  height: number;
+  order: number;
+  square: number;
+  perfect: number;
+  simple: number;
+  provenance: Provenance;
+  setterId: string | null;
+  useCount: number;
+  createdAt: number;
+  acceptedAt: number | null;
+  squaresJson: string;
+};
+
+const listRowsSql =
+  'select id, canonical_key as canonicalKey, canonical_code as canonicalCode, width, height, "order", square, perfect, simple, provenance, ' +
+  'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt, squares_json as squaresJson ' +
+  'from stock where id in (select value from json_each(?))';
+
+function listStockUncached(db: Db, q: StockListQuery): StockList {
+  const where = listWhere(q);
+  const dir = q.sort.desc ? 'desc' : 'asc';
+  const col = sortColumns[q.sort.key];
   const offset = (q.page - 1) * q.pageSize;
-  const idRows = db.all<{ id: number }>(sql`select id from stock ${whereSql} order by ${col} ${dir}, id ${dir} limit ${q.pageSize} offset ${offset}`);
-  const total = countStock(db, q, whereSql);
-  const ids = idRows.map((r) => r.id);
-  const rows = ids.length
-    ? db.select({ ...itemColumns, squaresJson: stock.squaresJson }).from(stock).where(inArray(stock.id, ids)).all()
-    : [];
+  const idRows = prepared(db.$client, `select id from stock ${where.text} order by ${col} ${dir}, id ${dir} limit ? offset ?`)
+    .pluck()
+    .all(...where.params, q.pageSize, offset) as number[];
+  const total = countStock(db, q, where);
+  const rows = idRows.length ? (prepared(db.$client, listRowsSql).all(JSON.stringify(idRows)) as ListRow[]) : [];
   const byId = new Map(rows.map((r) => [r.id, r]));
   return {
-    items: ids.flatMap((id) => {
+    items: idRows.flatMap((id) => {
       const r = byId.get(id);
       if (!r) return [];
-      const { squaresJson, ...rest } = r;
-      return [{ ...toItem(rest), tiling: tilingFromJson(r.width, r.height, squaresJson) }];
+      return [
+        {
+          id: r.id,
+          canonicalKey: r.canonicalKey,
+          canonicalCode: r.canonicalCode,
+          width: r.width,
+          height: r.height,
+          order: r.order,
+          square: r.square === 1,
+          perfect: r.perfect === 1,
+          simple: r.simple === 1,
+          provenance: r.provenance,
+          setterId: r.setterId,
+          useCount: r.useCount,
+          createdAt: new Date(r.createdAt).toISOString(),
+          acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
+          tiling: tilingFromJson(r.width, r.height, r.squaresJson),
+        },
+      ];
     }),
     total,
     page: q.page,
