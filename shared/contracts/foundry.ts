@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { tilingFactsSchema } from './tilings';
 
 // Contracts for the foundry's runs (POST/GET /api/foundry/runs ...). One schema per contract:
 // the page's form validates with runRequestSchema, the handler parses with it.
@@ -87,12 +88,7 @@ export type RunList = z.infer<typeof runListSchema>;
 export const runResultSchema = z.object({
   code: z.string(),
   canonicalKey: z.string(),
-  order: z.number().int(),
-  width: z.number().int(),
-  height: z.number().int(),
-  perfect: z.boolean(),
-  simple: z.boolean(),
-  square: z.boolean(),
+  ...tilingFactsSchema.shape,
   maxSize: z.number().int(),
   stockId: z.number().int().nullable(),
 });

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { numericIdParamSchema, pageOf } from './common';
 import { sortParam } from './stock';
-import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema } from './tilings';
+import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema, tilingFactsSchema } from './tilings';
 
 // Contracts for setters' submissions and the editors' review of them.
 
@@ -45,12 +45,7 @@ export const submissionSchema = z.object({
   code: z.string(),
   canonicalCode: z.string(),
   canonicalKey: z.string(),
-  width: z.number().int(),
-  height: z.number().int(),
-  order: z.number().int(),
-  square: z.boolean(),
-  perfect: z.boolean(),
-  simple: z.boolean(),
+  ...tilingFactsSchema.shape,
   status: submissionStatusSchema,
   duplicateOf: duplicateOfSchema.nullable(),
   editorNote: z.string().nullable(),

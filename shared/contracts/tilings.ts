@@ -50,13 +50,19 @@ export type SmithDrawing = z.infer<typeof smithDrawingSchema>;
 
 export const rectSchema = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
 
-export const classificationSchema = z.object({
+/** The class of a tiling at a glance: order, size, and whether it is square, perfect, simple. */
+export const tilingFactsSchema = z.object({
   order: z.number().int(),
   width: z.number().int(),
   height: z.number().int(),
   square: z.boolean(),
   perfect: z.boolean(),
   simple: z.boolean(),
+});
+export type TilingFactsData = z.infer<typeof tilingFactsSchema>;
+
+export const classificationSchema = z.object({
+  ...tilingFactsSchema.shape,
   trivialCompound: z.boolean(),
   subRectangles: z.array(rectSchema),
   gcd: z.number().int(),
@@ -100,12 +106,7 @@ export type CheckRequest = z.infer<typeof checkRequestSchema>;
 
 export const validVerdictSchema = z.object({
   valid: z.literal(true),
-  order: z.number().int(),
-  width: z.number().int(),
-  height: z.number().int(),
-  square: z.boolean(),
-  perfect: z.boolean(),
-  simple: z.boolean(),
+  ...tilingFactsSchema.shape,
   bouwkamp: z.string(),
   canonicalCode: z.string(),
   canonicalKey: z.string(),

@@ -1,13 +1,5 @@
+import type { TilingFactsData } from '../../shared/contracts/tilings';
 import { StatusBadge } from './status-badge';
-
-export interface TilingFactsData {
-  order: number;
-  width: number;
-  height: number;
-  square: boolean;
-  perfect: boolean;
-  simple: boolean;
-}
 
 /** The class of a tiling in words and badges (text, never colour alone). */
 export function TilingFacts({ facts }: { facts: TilingFactsData }) {
