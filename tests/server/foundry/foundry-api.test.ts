@@ -29,6 +29,15 @@ async function waitFinished(agent: Awaited<ReturnType<TestApp['signInAs']>>, id:
   }
 }
 
+/** Polls until the run has started (at most 200 polls, 50 ms apart), then returns. */
+async function waitRunning(agent: Awaited<ReturnType<TestApp['signInAs']>>, id: string): Promise<void> {
+  for (let i = 0; i < 200; i++) {
+    const r = runSchema.parse((await agent.get(`/api/foundry/runs/${id}`).expect(200)).body);
+    if (r.state === 'running') break;
+    await new Promise((res) => setTimeout(res, 50));
+  }
+}
+
 describe('foundry runs API', () => {
   it('is for editors and admins only', async () => {
     await request(t.app).get('/api/foundry/runs').expect(401);
@@ -110,11 +119,7 @@ describe('foundry runs API', () => {
   it('cancels a running run; what it found so far stays', async () => {
     const editor = await t.signInAs('editor');
     const started = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 18 }).expect(201)).body);
-    for (let i = 0; i < 200; i++) {
-      const r = runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body);
-      if (r.state === 'running') break;
-      await new Promise((res) => setTimeout(res, 50));
-    }
+    await waitRunning(editor, started.id);
     const c = await editor.post(`/api/foundry/runs/${started.id}/cancel`).expect(200);
     expect(['running', 'cancelled']).toContain(runSchema.parse(c.body).state);
     const run = await waitFinished(editor, started.id);
@@ -125,11 +130,7 @@ describe('foundry runs API', () => {
   it('a run left running when the server stops shows as interrupted after the restart', async () => {
     const editor = await t.signInAs('editor');
     const started = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 18 }).expect(201)).body);
-    for (let i = 0; i < 200; i++) {
-      const r = runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body);
-      if (r.state === 'running') break;
-      await new Promise((res) => setTimeout(res, 50));
-    }
+    await waitRunning(editor, started.id);
     // the next server process opens the same database file and starts its own runner
     const db2 = openDatabase(join(t.deps.env.DATA_DIR, 'squarewright.db'));
     try {
