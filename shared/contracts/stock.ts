@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { classificationSchema, smithDrawingSchema, tilingSchema } from './tilings';
+import { classificationSchema, smithDrawingSchema, tilingSchema, type TilingData } from './tilings';
 
 // Contracts for the stock of accepted tilings.
 
@@ -85,9 +85,20 @@ export const stockItemSchema = z.object({
 });
 export type StockItem = z.infer<typeof stockItemSchema>;
 
-/** A list row also carries its squares, so tables draw thumbnails without another request. */
-export const stockListItemSchema = stockItemSchema.extend({ tiling: tilingSchema });
+/**
+ * A list row: what the stock table shows, plus the squares as compact [x, y, s] triples (the
+ * canonical orientation, as stored) so the table draws thumbnails without another request.
+ * The codes are on the detail (GET /api/stock/:id) and in the exports.
+ */
+export const stockListItemSchema = stockItemSchema
+  .omit({ canonicalKey: true, canonicalCode: true })
+  .extend({ squares: z.array(z.tuple([z.number().int(), z.number().int(), z.number().int()])) });
 export type StockListItem = z.infer<typeof stockListItemSchema>;
+
+/** The drawing data of a list row. */
+export function listItemTiling(item: Pick<StockListItem, 'width' | 'height' | 'squares'>): TilingData {
+  return { W: item.width, H: item.height, squares: item.squares.map(([x, y, s]) => ({ x, y, s })) };
+}
 
 export const stockListSchema = z.object({
   items: z.array(stockListItemSchema),

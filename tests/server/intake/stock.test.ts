@@ -6,6 +6,7 @@ import { parseTiling, classifyTiling, toBouwkamp, verifyTiling } from '../../../
 import { stock } from '../../../server/db/schema/stock';
 import { submission } from '../../../server/db/schema/submissions';
 import { addToStock, markStockUsed } from '../../../server/services/stock';
+import { listItemTiling, stockListSchema } from '../../../shared/contracts/stock';
 import { seedDemoStock, wheelWithChords } from '../../../server/demo/stock-seed';
 import { solvePlaneNetwork } from '../../../shared/tiling/index';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -85,6 +86,16 @@ describe('GET /api/stock', () => {
     const b = await editor.get('/api/stock?sort=-width&pageSize=3&page=2').expect(200);
     expect(b.body.items.map((i: { width: number }) => i.width)).toEqual([112, 111, 105]);
     expect(b.body.total).toBe(10);
+  });
+
+  it('a row carries the squares of the canonical orientation, which draw the published tiling', async () => {
+    const r = await editor.get('/api/stock?orderMax=9&sort=id').expect(200);
+    const row = stockListSchema.parse(r.body).items.find((i) => i.id === ids.o9)!;
+    const tiling = listItemTiling(row);
+    // the order-9 33 x 32 rectangle (tests/fixtures/order9.ts): its canonical code, read back off the row
+    expect(verifyTiling(tiling)).toEqual({ ok: true });
+    expect(toBouwkamp(tiling, { header: true })).toBe('9 33 32 (18,15)(7,8)(14,4)(10,1)(9)');
+    expect(row).not.toHaveProperty('canonicalCode');
   });
 
   it('rejects bad query parameters with 400 naming them', async () => {

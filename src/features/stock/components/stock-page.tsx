@@ -1,5 +1,5 @@
 import { useNavigate } from 'react-router-dom';
-import type { StockListItem } from '../../../../shared/contracts/stock';
+import { listItemTiling, type StockListItem } from '../../../../shared/contracts/stock';
 import { buttonClasses } from '../../../components/button';
 import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
@@ -12,7 +12,7 @@ import { StockChart } from './stock-chart';
 
 const col = dataTableColumnHelper<StockListItem>();
 const columns = col.columns([
-  col.display({ id: 'thumb', header: () => <span className="sr-only">Drawing</span>, cell: (c) => <TilingDrawing tiling={c.row.original.tiling} pixelWidth={64} title={`Stock tiling ${c.row.original.id}`} /> }),
+  col.display({ id: 'thumb', header: () => <span className="sr-only">Drawing</span>, cell: (c) => <TilingDrawing tiling={listItemTiling(c.row.original)} pixelWidth={64} title={`Stock tiling ${c.row.original.id}`} /> }),
   col.accessor('id', { header: 'No.' }),
   col.accessor('width', { header: 'Width' }),
   col.accessor('height', { header: 'Height' }),
