@@ -6,6 +6,9 @@ import tailwindcss from '@tailwindcss/vite';
 // `vite build --ssr --outDir dist/server` with the entries listed below (see package.json).
 export default defineConfig(({ isSsrBuild }) => ({
   plugins: isSsrBuild ? [] : [react(), tailwindcss()],
+  // The server bundle has no React plugin: its JSX (the PDF layout) must use React's
+  // production runtime (jsx/jsxs), not the development one (jsxDEV) production React lacks.
+  ...(isSsrBuild ? { oxc: { jsx: { runtime: 'automatic' as const, development: false } } } : {}),
   build: isSsrBuild
     ? {
         target: 'node20',

@@ -2,38 +2,8 @@
 // @react-pdf/renderer tree, measuring as it goes what the preflight reports (smallest
 // printed square, smallest digit, labels left out). Imported only lazily (see
 // render-edition.ts): @react-pdf/renderer takes about a second to load.
-/** @jsxRuntime classic */
-/** @jsx el */
-/** @jsxFrag Fragment */
-// Classic JSX on purpose: the server bundle is built without the React plugin, and its
-// automatic runtime came out as the development one (jsxDEV), which production React
-// lacks. `el` hands each element to React's production runtime (jsx / jsxs).
 import { Document, Font, G, Line, Page, Rect, Svg, Text, View } from '@react-pdf/renderer';
-import { Fragment, type ElementType, type JSX as ReactJSX, type ReactElement, type ReactNode } from 'react';
-import { jsx, jsxs } from 'react/jsx-runtime';
-
-function el(type: ElementType, props: Record<string, unknown> | null, ...children: ReactNode[]): ReactElement {
-  const { key, ...rest } = props ?? {};
-  const k = key === undefined || key === null ? undefined : String(key);
-  if (children.length === 0) return jsx(type, rest, k);
-  if (children.length === 1) return jsx(type, { ...rest, children: children[0] }, k);
-  return jsxs(type, { ...rest, children }, k);
-}
-// TypeScript reads the element types of classic JSX from the factory's JSX namespace.
-declare namespace el {
-  export namespace JSX {
-    export type Element = ReactJSX.Element;
-    export type ElementType = ReactJSX.ElementType;
-    export type ElementClass = ReactJSX.ElementClass;
-    export type ElementAttributesProperty = ReactJSX.ElementAttributesProperty;
-    export type ElementChildrenAttribute = ReactJSX.ElementChildrenAttribute;
-    export type LibraryManagedAttributes<C, P> = ReactJSX.LibraryManagedAttributes<C, P>;
-    export type IntrinsicAttributes = ReactJSX.IntrinsicAttributes;
-    export type IntrinsicClassAttributes<T> = ReactJSX.IntrinsicClassAttributes<T>;
-    export type IntrinsicElements = ReactJSX.IntrinsicElements;
-  }
-}
-void [el, Fragment];
+import type { ReactElement, ReactNode } from 'react';
 import type { RichTextDoc, RichTextNode } from '../../shared/contracts/editions';
 import { templateGeometry, type PageTemplate } from '../../shared/contracts/templates';
 import { squareLabel } from '../../shared/puzzle/index';
