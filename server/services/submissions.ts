@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, isNotNull, isNull, like, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm';
 import type { Role } from '../../shared/contracts/common';
 import type {
   BulkReview,
@@ -217,7 +217,8 @@ export function listSubmissions(db: DbOrTx, actor: Actor, q: SubmissionListQuery
   const w: SQL[] = [];
   if (!isEditor(actor)) w.push(eq(submission.setterId, actor.id));
   if (q.status) w.push(eq(submission.status, q.status));
-  if (q.q) w.push(like(submission.title, `%${q.q.replace(/[%_\\]/g, (m) => `\\${m}`)}%`));
+  // the search text is matched literally: % _ and \ are escaped, which SQLite honours only with ESCAPE
+  if (q.q) w.push(sql`${submission.title} like ${`%${q.q.replace(/[%_\\]/g, (m) => `\\${m}`)}%`} escape '\\'`);
   if (q.duplicate === 'true') w.push(isNotNull(submission.duplicateOf));
   if (q.duplicate === 'false') w.push(isNull(submission.duplicateOf));
   const where = w.length ? and(...w) : undefined;

@@ -264,3 +264,17 @@ describe('review', () => {
     await (await as('editor')).post('/api/submissions/424242/accept').send({}).expect(404);
   });
 });
+
+describe('searching submissions by title', () => {
+  it('matches % and _ in the search text literally, not as wildcards', async () => {
+    const setter = await as('setter', 'search-setter@test.squarewright.test');
+    await setter.post('/api/submissions').send({ code: order10Codes[1], title: 'Harbour 50% sale', source: 'paste' }).expect(201);
+    await setter.post('/api/submissions').send({ code: order10Codes[2], title: 'Harbour 50 sale', source: 'paste' }).expect(201);
+    await setter.post('/api/submissions').send({ code: order10Codes[3], title: 'Harbour_quay', source: 'paste' }).expect(201);
+    const titles = async (q: string) =>
+      ((await setter.get(`/api/submissions?q=${encodeURIComponent(q)}`).expect(200)).body.items as { title: string }[]).map((s) => s.title).sort();
+    expect(await titles('50%')).toEqual(['Harbour 50% sale']);
+    expect(await titles('r_q')).toEqual(['Harbour_quay']);
+    expect(await titles('Harbour')).toEqual(['Harbour 50 sale', 'Harbour 50% sale', 'Harbour_quay']);
+  });
+});
