@@ -18,7 +18,7 @@ export default defineConfig(({ isSsrBuild }) => ({
         rollupOptions: {
           // Extra server entries (worker threads) are listed here by the job runner. The build runs
           // `vite build --ssr` without an entry argument, which would override this list.
-          input: { index: 'server/index.ts', 'job-worker': 'server/jobs/worker-entry.ts' },
+          input: { index: 'server/index.ts', 'job-worker': 'server/worker-entry.ts' },
           output: { entryFileNames: '[name].js', format: 'es' },
         },
       }

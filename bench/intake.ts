@@ -10,9 +10,9 @@ import { join } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { createApp } from '../server/app';
 import { buildDeps } from '../server/compose';
-import { closeDatabase, openDatabase } from '../server/db/client';
-import { loadEnv } from '../server/env';
-import { seedBulkStock } from '../server/demo/stock-seed';
+import { closeDatabase, openDatabase } from '../server/platform/db/client';
+import { loadEnv } from '../server/platform/env';
+import { seedBulkStock } from '../server/areas/intake/demo-seed';
 
 const quick = process.env.BENCH_QUICK === '1';
 const N = quick ? 5_000 : 50_000;

@@ -3,11 +3,11 @@
 // and a puzzle PNG at web size (640 px, labels) and 2x (1280 px). Targets from issue 7:
 // edition under 3 s, PNG under 30 ms. Tilings come from our own foundry (order 12).
 import { plainRichText } from '../shared/contracts/editions';
-import { renderTilingPng } from '../server/images/tiling-png';
-import { renderEditionPdf } from '../server/pdf/render-edition';
-import { foundryTilings, notToScaleLayout } from '../server/pdf/sample-edition';
-import { getPageTemplate } from '../server/pdf/templates';
-import type { EditionDocument, PuzzlePrint } from '../server/pdf/types';
+import { renderTilingPng } from '../server/platform/images/tiling-png';
+import { renderEditionPdf } from '../server/areas/print/render-edition';
+import { foundryTilings, notToScaleLayout } from '../server/areas/print/sample-edition';
+import { getPageTemplate } from '../server/areas/print/templates';
+import type { EditionDocument, PuzzlePrint } from '../server/areas/print/types';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
 

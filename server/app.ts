@@ -1,10 +1,10 @@
 import { toNodeHandler } from 'better-auth/node';
 import express, { type Express } from 'express';
-import { clientIpHeader } from './auth/auth';
-import type { AppDeps } from './deps';
-import { apiNotFound, errorHandler } from './http/error-handler';
-import { createApiRouter, type ApiRouter } from './http/route';
-import { areaRoutes } from './routes/index';
+import { clientIpHeader } from './platform/auth/auth';
+import type { AppDeps } from './platform/deps';
+import { apiNotFound, errorHandler } from './platform/http/error-handler';
+import { createApiRouter, type ApiRouter } from './platform/http/route';
+import { areaRoutes } from './area-routes';
 
 export type CreateAppOptions = {
   /** serve the client (Vite middleware in dev, dist/client in production); after the API 404 */

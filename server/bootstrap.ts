@@ -3,19 +3,19 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import { isAbsolute, join, resolve } from 'node:path';
-import { appRoot } from './app-root';
+import { appRoot } from './platform/app-root';
 import { createApp } from './app';
 import { buildDeps } from './compose';
-import { closeDatabase, openDatabase } from './db/client';
-import { demoAccounts, demoPassword } from './demo/accounts';
-import { markDemoSeeded, resolveDemoMode, wasDemoSeeded } from './demo/mode';
-import { seedDemo } from './demo/seed';
-import type { DemoSeeder } from './demo/seeders';
-import { EnvError, loadEnv, type Env } from './env';
-import { createLogger } from './log';
-import { startFakeSmtp } from './mail/fake-smtp';
-import { loadMailTemplates } from './mail/templates';
-import { localFakes, type LocalFakeHandle } from './services/local-fakes';
+import { closeDatabase, openDatabase } from './platform/db/client';
+import { demoAccounts, demoPassword } from './areas/accounts/demo-accounts';
+import { markDemoSeeded, resolveDemoMode, wasDemoSeeded } from './platform/db/demo-mode';
+import { seedDemo } from './demo-seed';
+import type { DemoSeeder } from './demo-seeders';
+import { EnvError, loadEnv, type Env } from './platform/env';
+import { createLogger } from './platform/log';
+import { startFakeSmtp } from './platform/mail/fake-smtp';
+import { loadMailTemplates } from './platform/mail/templates';
+import { localFakes, type LocalFakeHandle } from './local-fakes';
 
 // Start-up shared by server/index.ts (production) and server/dev.ts (Vite middleware).
 

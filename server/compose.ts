@@ -1,13 +1,13 @@
-import { createAuth } from './auth/auth';
-import { systemClock, type Clock } from './clock';
-import type { Db } from './db/client';
-import type { AppDeps } from './deps';
-import type { Env } from './env';
-import { createLogger, type Logger } from './log';
-import { createMailSender, type MailSenderOptions } from './mail/outbox';
-import { createSmtpTransport } from './mail/transport';
-import { paymentsProviderFromEnv } from './payments/runtime';
-import { puzzleStore } from './services/puzzles';
+import { createAuth } from './platform/auth/auth';
+import { systemClock, type Clock } from './platform/clock';
+import type { Db } from './platform/db/client';
+import type { AppDeps } from './platform/deps';
+import type { Env } from './platform/env';
+import { createLogger, type Logger } from './platform/log';
+import { createMailSender, type MailSenderOptions } from './platform/mail/outbox';
+import { createSmtpTransport } from './platform/mail/transport';
+import { paymentsProviderFromEnv } from './areas/payouts/runtime';
+import { puzzleStore } from './areas/puzzles/puzzles';
 
 export type BuildDepsInput = {
   env: Env;

@@ -1,5 +1,5 @@
 import { exitOnSignals, startServer, startupErrorText } from './bootstrap';
-import { serveBuiltClient } from './http/static-client';
+import { serveBuiltClient } from './platform/http/static-client';
 
 // Production entry (bundled to dist/server/index.js by `npm run build`).
 try {

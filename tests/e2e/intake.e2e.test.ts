@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { orientations, parseTiling, toBouwkamp } from '../../shared/tiling/index';
-import { sideBySide } from '../../server/demo/stock-seed';
+import { sideBySide } from '../../server/areas/intake/demo-seed';
 import { waitForMail } from './helpers/mailbox';
 import { demoAccount, screenshot, signIn, useBrowser } from './helpers/browser';
 

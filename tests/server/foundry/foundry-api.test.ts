@@ -3,10 +3,10 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runListSchema, runResultsSchema, runSchema, type Run } from '../../../shared/contracts/foundry';
-import { closeDatabase, openDatabase } from '../../../server/db/client';
-import { stock } from '../../../server/db/schema/stock';
-import { JobRunner } from '../../../server/jobs/runner';
-import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
+import { closeDatabase, openDatabase } from '../../../server/platform/db/client';
+import { stock } from '../../../server/areas/stock/schema';
+import { JobRunner } from '../../../server/platform/jobs/runner';
+import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;

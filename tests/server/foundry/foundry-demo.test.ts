@@ -2,10 +2,10 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runListSchema } from '../../../shared/contracts/foundry';
 import { classifyTiling } from '../../../shared/tiling/index';
-import { stock } from '../../../server/db/schema/stock';
-import { closeJobRunner } from '../../../server/jobs/runtime';
-import { seedDemoFoundry } from '../../../server/services/foundry-demo';
-import { stockTiling } from '../../../server/services/stock';
+import { stock } from '../../../server/areas/stock/schema';
+import { closeJobRunner } from '../../../server/platform/jobs/runtime';
+import { seedDemoFoundry } from '../../../server/areas/foundry/demo-seed';
+import { stockTiling } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;

@@ -7,17 +7,17 @@ import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import type { Role } from '../../../shared/contracts/common';
 import { createApp } from '../../../server/app';
-import type { Clock } from '../../../server/clock';
+import type { Clock } from '../../../server/platform/clock';
 import { buildDeps } from '../../../server/compose';
-import { closeDatabase, openDatabase, type Db } from '../../../server/db/client';
-import { user } from '../../../server/db/schema/auth';
-import { mailboxMessage } from '../../../server/db/schema/mail';
-import type { AppDeps } from '../../../server/deps';
-import type { ApiRouter } from '../../../server/http/route';
-import { loadEnv, type EnvInput } from '../../../server/env';
-import { startFakeSmtp, type FakeSmtp } from '../../../server/mail/fake-smtp';
-import { seedDemo } from '../../../server/demo/seed';
-import type { DemoSeeder } from '../../../server/demo/seeders';
+import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
+import { user } from '../../../server/platform/auth/schema';
+import { mailboxMessage } from '../../../server/platform/mail/schema';
+import type { AppDeps } from '../../../server/platform/deps';
+import type { ApiRouter } from '../../../server/platform/http/route';
+import { loadEnv, type EnvInput } from '../../../server/platform/env';
+import { startFakeSmtp, type FakeSmtp } from '../../../server/platform/mail/fake-smtp';
+import { seedDemo } from '../../../server/demo-seed';
+import type { DemoSeeder } from '../../../server/demo-seeders';
 
 // The server test harness. See DEVELOPERS.md ("The server test harness").
 //

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import { secondDemoSetter, seedDemoPayouts } from '../../../server/payments/demo-seed';
+import { secondDemoSetter, seedDemoPayouts } from '../../../server/areas/payouts/demo-seed';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 let t: MoneyTestApp;

@@ -3,9 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ZodError } from 'zod';
 import { formatMoney, ledgerCorrectionResponseSchema, statementSchema, toDecimalString } from '../../../shared/contracts/ledger';
 import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import { ledgerEntry } from '../../../server/db/schema/index';
-import { listEntries, owedBalances, recordPublicationFees } from '../../../server/services/ledger';
-import { closeMonth } from '../../../server/services/payouts';
+import { ledgerEntry } from '../../../server/schema';
+import { listEntries, owedBalances, recordPublicationFees } from '../../../server/areas/payouts/ledger';
+import { closeMonth } from '../../../server/areas/payouts/payouts';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 let t: MoneyTestApp;

@@ -2,11 +2,11 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type TestAgent from 'supertest/lib/agent';
 import { eq } from 'drizzle-orm';
-import { payoutAccount } from '../../../server/db/schema/index';
-import { startPaymentsFake, type PaymentsFake } from '../../../server/fakes/payments-fake';
-import { payoutsDepsFrom } from '../../../server/payments/runtime';
-import { recordPublicationFees } from '../../../server/services/ledger';
-import type { PayoutsDeps } from '../../../server/services/payouts';
+import { payoutAccount } from '../../../server/schema';
+import { startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider';
+import { payoutsDepsFrom } from '../../../server/areas/payouts/runtime';
+import { recordPublicationFees } from '../../../server/areas/payouts/ledger';
+import type { PayoutsDeps } from '../../../server/areas/payouts/payouts';
 import { createTestApp, type CreateTestAppOptions, type TestApp } from '../helpers/test-app';
 
 // A test app wired to its own local fake provider, listening on a random port so the

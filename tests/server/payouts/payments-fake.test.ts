@@ -5,8 +5,8 @@ import { join } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { FAKE_SECRET_KEY, parseFormBody, startPaymentsFake, type PaymentsFake } from '../../../server/fakes/payments-fake';
-import { createPaymentsProvider, ProviderRefused } from '../../../server/payments/provider';
+import { FAKE_SECRET_KEY, parseFormBody, startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider';
+import { createPaymentsProvider, ProviderRefused } from '../../../server/areas/payouts/provider';
 
 // The local fake is checked against the provider's own SDK (stripe 23): the SDK's request
 // encoding, its error classes, and its webhook signature check (webhooks.constructEvent)

@@ -3,8 +3,8 @@ import { eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createPayoutRunResponseSchema, earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import { payout } from '../../../server/db/schema/index';
-import { createPayoutRun, resumePendingPayouts, submitPayout } from '../../../server/services/payouts';
+import { payout } from '../../../server/schema';
+import { createPayoutRun, resumePendingPayouts, submitPayout } from '../../../server/areas/payouts/payouts';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 // Payout runs against the local fake provider through the provider's own SDK.

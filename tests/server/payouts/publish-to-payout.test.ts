@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import type { PuzzleForPrint } from '../../../server/services/editions';
+import type { PuzzleForPrint } from '../../../server/areas/editions/editions';
 import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 

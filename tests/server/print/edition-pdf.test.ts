@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { renderEditionPdf } from '../../../server/pdf/render-edition';
-import { loadPageTemplates } from '../../../server/pdf/templates';
-import type { RenderResult } from '../../../server/pdf/types';
+import { renderEditionPdf } from '../../../server/areas/print/render-edition';
+import { loadPageTemplates } from '../../../server/areas/print/templates';
+import type { RenderResult } from '../../../server/areas/print/types';
 import { deductionPuzzle, sampleEdition, TILING_33x32, TILING_69x61 } from './fixtures/sample-edition';
 import { hasPoppler, pdffonts, pdfinfo, pdftotext, popplerSkipReason, writeTemp } from './poppler';
 

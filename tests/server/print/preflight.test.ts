@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { countEmbeddedFontFiles, countPdfPages, pageSizes, preflightPdf, unembeddedFontNames } from '../../../server/pdf/preflight';
-import { loadPageTemplates } from '../../../server/pdf/templates';
+import { countEmbeddedFontFiles, countPdfPages, pageSizes, preflightPdf, unembeddedFontNames } from '../../../server/areas/print/preflight';
+import { loadPageTemplates } from '../../../server/areas/print/templates';
 
 // Hand-made PDF object text in the shapes PDF 32000-1 defines: a page tree with a MediaBox
 // (7.7.3.3), a standard Type 1 font dictionary without a font program (9.6.2.2), and a

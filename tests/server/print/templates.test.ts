@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { pageTemplateSchema, templateGeometry } from '../../../shared/contracts/templates';
-import { loadPageTemplates, parseTemplateFile, TemplateFileError } from '../../../server/pdf/templates';
+import { loadPageTemplates, parseTemplateFile, TemplateFileError } from '../../../server/areas/print/templates';
 
 const shipped = loadPageTemplates();
 

@@ -1,13 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { verifyTiling } from '../../../shared/tiling/index';
-import { seedDemoStock } from '../../../server/demo/stock-seed';
-import { seedDemoPuzzles } from '../../../server/demo/puzzle-seed';
-import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
-import { listEditions } from '../../../server/services/editions';
-import { seedDemoEditions } from '../../../server/services/proofs';
-import { seedDemoPublications } from '../../../server/services/publications';
-import { getPuzzle, installStockUsage, listPrintablePuzzleIds, listPuzzles } from '../../../server/services/puzzles';
-import { getStockDetail } from '../../../server/services/stock';
+import { seedDemoStock } from '../../../server/areas/intake/demo-seed';
+import { seedDemoPuzzles } from '../../../server/areas/puzzles/demo-seed';
+import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
+import { listEditions } from '../../../server/areas/editions/editions';
+import { seedDemoEditions } from '../../../server/areas/editions/proofs';
+import { seedDemoPublications } from '../../../server/areas/editions/publications';
+import { getPuzzle, installStockUsage, listPrintablePuzzleIds, listPuzzles } from '../../../server/areas/puzzles/puzzles';
+import { getStockDetail } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;

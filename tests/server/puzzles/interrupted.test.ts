@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { puzzleStartedSchema } from '../../../shared/contracts/puzzles';
 import { parseTiling } from '../../../shared/tiling/index';
-import { closeJobRunner, jobRunnerFor } from '../../../server/jobs/runtime';
-import { getPuzzle, listPrintablePuzzleIds } from '../../../server/services/puzzles';
-import { addToStock } from '../../../server/services/stock';
+import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
+import { getPuzzle, listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
+import { addToStock } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { SQUARE_112 } from './fixtures';
 

@@ -2,9 +2,9 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { puzzleDetailSchema, puzzleListSchema, puzzleStartedSchema, type PuzzleDetail } from '../../../shared/contracts/puzzles';
 import { parseTiling, verifyTiling } from '../../../shared/tiling/index';
-import { closeJobRunner } from '../../../server/jobs/runtime';
-import { getPuzzleForPrint, listPrintablePuzzleIds } from '../../../server/services/puzzles';
-import { addToStock } from '../../../server/services/stock';
+import { closeJobRunner } from '../../../server/platform/jobs/runtime';
+import { getPuzzleForPrint, listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
+import { addToStock } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { ORDER_9, ORDER_9_SIZES, TWIN_13 } from './fixtures';
 

@@ -1,0 +1,43 @@
+import { checkRequestSchema, verdictSchema, type Verdict } from '../../../shared/contracts/tilings';
+import type { AppDeps } from '../../platform/deps';
+import { route, type ApiRouter } from '../../platform/http/route';
+import { duplicateOf } from './submissions';
+import { analyseCode, smithDrawingOf } from '../stock/tiling-analysis';
+
+export function registerTilingRoutes(router: ApiRouter, deps: AppDeps) {
+  route(
+    router,
+    {
+      method: 'POST',
+      path: '/api/tilings/check',
+      summary: 'Verdict for a Bouwkamp or table code (valid, order, size, class, canonical code, drawing, duplicate?) or the precise error; stores nothing',
+      tags: ['intake'],
+      body: checkRequestSchema,
+      response: verdictSchema,
+    },
+    ({ body }): Verdict => {
+      const r = analyseCode(body.code);
+      if (!r.ok) return { valid: false, error: r.error };
+      const a = r.analysis;
+      const c = a.classification;
+      const dup = duplicateOf(deps.db, a.canonicalKey);
+      return {
+        valid: true,
+        order: c.order,
+        width: a.tiling.W,
+        height: a.tiling.H,
+        square: c.square,
+        perfect: c.perfect,
+        simple: c.simple,
+        bouwkamp: a.bouwkamp,
+        canonicalCode: a.canonicalCode,
+        canonicalKey: a.canonicalKey,
+        classification: c,
+        tiling: a.tiling,
+        smith: smithDrawingOf(a.tiling),
+        duplicate: dup !== null,
+        duplicateOf: dup,
+      };
+    },
+  );
+}

@@ -1,0 +1,100 @@
+import multer from 'multer';
+import {
+  bulkResultSchema,
+  bulkReviewSchema,
+  createSubmissionSchema,
+  idParamsSchema,
+  MAX_UPLOAD_BYTES,
+  rejectSchema,
+  reviewSchema,
+  submissionDetailSchema,
+  submissionListQuerySchema,
+  submissionListSchema,
+  submissionSchema,
+  uploadReportSchema,
+} from '../../../shared/contracts/submissions';
+import type { AppDeps } from '../../platform/deps';
+import { Unprocessable } from '../../platform/http/errors';
+import { route, type ApiRouter } from '../../platform/http/route';
+import {
+  bulkReview,
+  createSubmission,
+  getSubmissionDetail,
+  listSubmissions,
+  reviewSubmission,
+  uploadSubmissions,
+} from './submissions';
+
+
+export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } });
+  const reviewOpts = () => ({ publicUrl: deps.env.PUBLIC_URL, now: () => deps.clock.now() });
+  const tags = ['intake'];
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions', summary: 'Submit one tiling (pasted code or sketched squares)', tags, body: createSubmissionSchema, response: submissionSchema, status: 201 },
+    ({ user, body }) => createSubmission(deps.db, user, body),
+  );
+
+  route(
+    router,
+    {
+      method: 'POST',
+      path: '/api/submissions/upload',
+      summary: 'Upload a .txt or .bkp file of codes (field "file", one code a line, at most 5 MB and 20,000 lines); per-line report; one transaction',
+      tags,
+      bodyType: 'multipart',
+      middleware: [upload.single('file')],
+      response: uploadReportSchema,
+      status: 201,
+    },
+    ({ req, user }) => {
+      const file = req.file;
+      if (!file) throw new Unprocessable('no file: send the codes as multipart form data in the field "file"', { path: 'file' });
+      return uploadSubmissions(deps.db, user, file.originalname, file.buffer);
+    },
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/submissions', summary: 'Submissions (setters: their own; editors: all), filtered, sorted, paged', tags, query: submissionListQuerySchema, response: submissionListSchema },
+    ({ user, query }) => listSubmissions(deps.db, user, query),
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/submissions/:id', summary: 'One submission with drawing data, classification and (editors) duplicates', tags, params: idParamsSchema, response: submissionDetailSchema },
+    ({ user, params }) => getSubmissionDetail(deps.db, user, params.id),
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions/:id/accept', summary: 'Accept a pending submission into the stock; mails the setter', tags, params: idParamsSchema, body: reviewSchema, response: submissionSchema },
+    ({ user, params, body }) => {
+      const s = reviewSubmission(deps.db, user, params.id, 'accept', body.note, reviewOpts());
+      deps.mail.kick();
+      return s;
+    },
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions/:id/reject', summary: 'Reject a pending submission with a note; mails the setter', tags, params: idParamsSchema, body: rejectSchema, response: submissionSchema },
+    ({ user, params, body }) => {
+      const s = reviewSubmission(deps.db, user, params.id, 'reject', body.note, reviewOpts());
+      deps.mail.kick();
+      return s;
+    },
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions/bulk', summary: 'Accept or reject several pending submissions; a result per id', tags, body: bulkReviewSchema, response: bulkResultSchema },
+    ({ user, body }) => {
+      const r = bulkReview(deps.db, user, body, reviewOpts());
+      deps.mail.kick();
+      return r;
+    },
+  );
+}

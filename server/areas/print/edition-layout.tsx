@@ -1,0 +1,474 @@
+// The one print layout module: turns an EditionDocument and its page template into a
+// @react-pdf/renderer tree, measuring as it goes what the preflight reports (smallest
+// printed square, smallest digit, labels left out). Imported only lazily (see
+// render-edition.ts): @react-pdf/renderer takes about a second to load.
+import { Document, Font, G, Line, Page, Rect, Svg, Text, View } from '@react-pdf/renderer';
+import type { ReactElement, ReactNode } from 'react';
+import type { RichTextDoc, RichTextNode } from '../../../shared/contracts/editions';
+import { templateGeometry, type PageTemplate } from '../../../shared/contracts/templates';
+import { squareLabel } from '../../../shared/puzzle/index';
+import { PRINT_FONTS, registerPrintFonts } from '../../platform/pdf/fonts';
+import type { EditionDocument, Preflight, PuzzlePrint, SolutionPrint, SolvedTiling } from './types';
+
+export const PT_PER_MM = 72 / 25.4;
+const INK = '#1c1b19';
+const PIECE_FILL = '#e9e2d3';
+const STARTER_FILL = '#c9b48a';
+const GIVEN_FILL = '#f3efe6';
+const STAMP = '#b4462b';
+
+export { Font, registerPrintFonts };
+
+export type LayoutMetrics = Pick<Preflight, 'smallestSquareMm' | 'smallestDigitPt' | 'omittedLabels'> & {
+  illegibleGivens: { slot: number; size: number }[];
+};
+
+type Ctx = { t: PageTemplate; metrics: LayoutMetrics };
+
+const WEEKDAY = ['Sunday', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday'];
+const MONTH = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+
+export function formatEditionDate(iso: string): string {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso);
+  if (!m) return iso;
+  const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
+  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]} ${d.getUTCFullYear()}`;
+}
+
+function noteSquare(ctx: Ctx, sidePt: number) {
+  const mm = sidePt / PT_PER_MM;
+  if (ctx.metrics.smallestSquareMm === null || mm < ctx.metrics.smallestSquareMm) ctx.metrics.smallestSquareMm = mm;
+}
+
+function noteDigit(ctx: Ctx, fontPt: number) {
+  if (ctx.metrics.smallestDigitPt === null || fontPt < ctx.metrics.smallestDigitPt) ctx.metrics.smallestDigitPt = fontPt;
+}
+
+/**
+ * The font size for a size label inside a box of w x h points: as large as the template
+ * allows, but small enough that the digits fit with some air (tabular digits are about
+ * 0.6 em wide in IBM Plex Sans). Returns null when even the template's minimum would
+ * not fit.
+ */
+export function labelFontPt(label: string, wPt: number, hPt: number, t: PageTemplate): number | null {
+  const byWidth = (0.82 * wPt) / (0.6 * Math.max(1, label.length));
+  const byHeight = 0.62 * hPt;
+  const size = Math.min(t.type.digitsPt, byWidth, byHeight);
+  if (size < t.minimums.digitPt) return null;
+  return Math.round(size * 10) / 10;
+}
+
+// Svg <Text> reads its font from props (the published types list only x and y).
+function svgTextProps(x: number, y: number, fontSize: number) {
+  return { x, y, textAnchor: 'middle', fill: INK, fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize } as unknown as { x: number; y: number };
+}
+
+function label(ctx: Ctx, text: string, x: number, y: number, w: number, h: number, key: string): ReactElement | null {
+  const size = labelFontPt(text, w, h, ctx.t);
+  if (size === null) return null;
+  noteDigit(ctx, size);
+  return (
+    <Text key={key} {...svgTextProps(x + w / 2, y + h / 2 + size * 0.35, size)}>
+      {text}
+    </Text>
+  );
+}
+
+/**
+ * The square's letter (A, B, ..., AA: the names the Deduction step list uses) small in its
+ * top-left corner, when there is room beside the size label.
+ */
+function cornerLetter(ctx: Ctx, i: number, x: number, y: number, w: number, h: number, key: string): ReactElement | null {
+  const size = Math.max(ctx.t.minimums.digitPt, Math.min(ctx.t.type.captionPt, Math.min(w, h) * 0.22));
+  const text = squareLabel(i);
+  if (Math.min(w, h) < size * 2.6 || w < size * (0.7 * text.length + 0.8)) return null;
+  const props = { x: x + size * 0.35, y: y + size * 1.05, textAnchor: 'start', fill: INK, fontFamily: PRINT_FONTS.sans, fontWeight: 400, fontSize: size } as unknown as { x: number; y: number };
+  return (
+    <Text key={key} {...props}>
+      {text}
+    </Text>
+  );
+}
+
+type Box = { widthPt: number; maxHeightPt: number };
+
+function fitScale(W: number, H: number, box: Box) {
+  return Math.min(box.widthPt / W, box.maxHeightPt / H);
+}
+
+/** A solved tiling drawn to scale, every square labelled where it can be read. */
+function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number, letters = false): ReactElement {
+  const k = fitScale(tiling.W, tiling.H, box);
+  const stroke = ctx.t.drawing.strokePt;
+  const children: ReactNode[] = [];
+  tiling.squares.forEach((sq, i) => {
+    const side = sq.s * k;
+    noteSquare(ctx, side);
+    children.push(<Rect key={`r${i}`} x={sq.x * k} y={sq.y * k} width={side} height={side} fill={PIECE_FILL} stroke={INK} strokeWidth={stroke} />);
+    const l = label(ctx, String(sq.s), sq.x * k, sq.y * k, side, side, `t${i}`);
+    if (l) children.push(l);
+    else ctx.metrics.omittedLabels.push({ slot, where: 'solution', size: sq.s });
+    const letter = letters ? cornerLetter(ctx, i, sq.x * k, sq.y * k, side, side, `c${i}`) : null;
+    if (letter) children.push(letter);
+  });
+  const w = tiling.W * k;
+  const h = tiling.H * k;
+  return (
+    <Svg width={w + stroke} height={h + stroke} viewBox={`${-stroke / 2} ${-stroke / 2} ${w + stroke} ${h + stroke}`}>
+      <G>{children}</G>
+    </Svg>
+  );
+}
+
+function assemblyDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>, box: Box): ReactElement {
+  const k = fitScale(p.frame.W, p.frame.H, box);
+  const stroke = ctx.t.drawing.strokePt;
+  const w = p.frame.W * k;
+  const h = p.frame.H * k;
+  const children: ReactNode[] = [<Rect key="frame" x={0} y={0} width={w} height={h} fill="#ffffff" stroke={INK} strokeWidth={stroke * 1.6} />];
+  p.starters.forEach((st, i) => {
+    const side = st.size * k;
+    noteSquare(ctx, side);
+    children.push(<Rect key={`s${i}`} x={st.x * k} y={st.y * k} width={side} height={side} fill={STARTER_FILL} stroke={INK} strokeWidth={stroke} />);
+    const l = label(ctx, String(st.size), st.x * k, st.y * k, side, side, `sl${i}`);
+    if (l) children.push(l);
+    else ctx.metrics.omittedLabels.push({ slot: p.slot, where: 'puzzle', size: st.size });
+  });
+  return (
+    <Svg width={w + 2 * stroke} height={h + 2 * stroke} viewBox={`${-stroke} ${-stroke} ${w + 2 * stroke} ${h + 2 * stroke}`}>
+      <G>{children}</G>
+    </Svg>
+  );
+}
+
+/** The loose pieces at half the frame's scale, in rows wrapped to the column. */
+function piecesDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>, box: Box): ReactElement {
+  const k = fitScale(p.frame.W, p.frame.H, box) / 2;
+  const stroke = ctx.t.drawing.strokePt;
+  const gap = 2 * PT_PER_MM;
+  const placed = new Map<number, number>();
+  for (const st of p.starters) placed.set(st.size, (placed.get(st.size) ?? 0) + 1);
+  const loose: number[] = [];
+  for (const s of [...p.pieces].sort((a, b) => b - a)) {
+    const n = placed.get(s) ?? 0;
+    if (n > 0) placed.set(s, n - 1);
+    else loose.push(s);
+  }
+  const children: ReactNode[] = [];
+  let x = 0;
+  let y = 0;
+  let rowH = 0;
+  loose.forEach((s, i) => {
+    const side = s * k;
+    noteSquare(ctx, side);
+    if (x > 0 && x + side > box.widthPt) {
+      x = 0;
+      y += rowH + gap;
+      rowH = 0;
+    }
+    children.push(<Rect key={`p${i}`} x={x} y={y} width={side} height={side} fill={PIECE_FILL} stroke={INK} strokeWidth={stroke} />);
+    const l = label(ctx, String(s), x, y, side, side, `pl${i}`);
+    if (l) children.push(l);
+    else ctx.metrics.omittedLabels.push({ slot: p.slot, where: 'puzzle', size: s });
+    x += side + gap;
+    rowH = Math.max(rowH, side);
+  });
+  const h = y + rowH;
+  return (
+    <Svg width={box.widthPt} height={h + stroke} viewBox={`${-stroke / 2} ${-stroke / 2} ${box.widthPt} ${h + stroke}`}>
+      <G>{children}</G>
+    </Svg>
+  );
+}
+
+function deductionDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'deduction' }>, box: Box): ReactElement {
+  const k = fitScale(p.layout.W, p.layout.H, box);
+  const stroke = ctx.t.drawing.strokePt;
+  const givens = new Map(p.givens.map((g) => [g.rect, g.size]));
+  const children: ReactNode[] = [];
+  p.layout.rects.forEach((r, i) => {
+    const given = givens.get(i);
+    const wPt = r.w * k;
+    const hPt = r.h * k;
+    noteSquare(ctx, Math.min(wPt, hPt));
+    children.push(<Rect key={`d${i}`} x={r.x * k} y={r.y * k} width={wPt} height={hPt} fill={given === undefined ? '#ffffff' : GIVEN_FILL} stroke={INK} strokeWidth={stroke} />);
+    const letter = cornerLetter(ctx, i, r.x * k, r.y * k, wPt, hPt, `dc${i}`);
+    if (letter) children.push(letter);
+    if (given !== undefined) {
+      const l = label(ctx, String(given), r.x * k, r.y * k, wPt, hPt, `g${i}`);
+      if (l) children.push(l);
+      else ctx.metrics.illegibleGivens.push({ slot: p.slot, size: given });
+    }
+  });
+  const w = p.layout.W * k;
+  const h = p.layout.H * k;
+  return (
+    <Svg width={w + stroke} height={h + stroke} viewBox={`${-stroke / 2} ${-stroke / 2} ${w + stroke} ${h + stroke}`}>
+      <G>{children}</G>
+    </Svg>
+  );
+}
+
+// ---- rich text -----------------------------------------------------------------------
+
+function inline(nodes: RichTextNode[] | undefined, keyBase: string): ReactNode[] {
+  return (nodes ?? []).map((n, i) => {
+    const key = `${keyBase}-${i}`;
+    if (n.type === 'hardBreak') return '\n';
+    if (n.type !== 'text') return <Text key={key}>{inline(n.content, key)}</Text>;
+    const marks = new Set((n.marks ?? []).map((m) => m.type));
+    if (marks.size === 0) return n.text ?? '';
+    return (
+      <Text key={key} style={{ fontWeight: marks.has('bold') ? 700 : 400, fontStyle: marks.has('italic') ? 'italic' : 'normal' }}>
+        {n.text ?? ''}
+      </Text>
+    );
+  });
+}
+
+function blocks(ctx: Ctx, nodes: RichTextNode[] | undefined, keyBase: string, sizePt: number): ReactNode[] {
+  const t = ctx.t;
+  const gap = sizePt * 0.45;
+  return (nodes ?? []).map((n, i) => {
+    const key = `${keyBase}-${i}`;
+    switch (n.type) {
+      case 'heading': {
+        const level = typeof n.attrs?.level === 'number' ? n.attrs.level : 2;
+        const size = level <= 1 ? t.type.headingPt * 1.2 : level === 2 ? t.type.headingPt : Math.max(t.type.bodyPt, t.type.headingPt * 0.9);
+        return (
+          <Text key={key} style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: size, marginTop: gap, marginBottom: gap * 0.6 }}>
+            {inline(n.content, key)}
+          </Text>
+        );
+      }
+      case 'bulletList':
+      case 'orderedList': {
+        const start = typeof n.attrs?.start === 'number' ? n.attrs.start : 1;
+        return (
+          <View key={key} style={{ marginBottom: gap }}>
+            {(n.content ?? []).map((item, j) => (
+              <View key={`${key}-${j}`} style={{ flexDirection: 'row' }} wrap={false}>
+                <Text style={{ width: sizePt * 1.6, fontSize: sizePt }}>{n.type === 'orderedList' ? `${start + j}.` : '\u2022'}</Text>
+                <View style={{ flex: 1 }}>{blocks(ctx, item.content, `${key}-${j}`, sizePt)}</View>
+              </View>
+            ))}
+          </View>
+        );
+      }
+      case 'listItem':
+        return <View key={key}>{blocks(ctx, n.content, key, sizePt)}</View>;
+      case 'paragraph':
+      default:
+        return (
+          <Text key={key} style={{ fontSize: sizePt, marginBottom: gap }}>
+            {inline(n.content, key)}
+          </Text>
+        );
+    }
+  });
+}
+
+function richText(ctx: Ctx, doc: RichTextDoc, key: string, sizePt: number): ReactElement {
+  return <View key={key}>{blocks(ctx, doc.content, key, sizePt)}</View>;
+}
+
+// ---- page furniture --------------------------------------------------------------------
+
+function cropMarks(t: PageTemplate, pageW: number, pageH: number): ReactElement {
+  const b = t.bleedMm * PT_PER_MM;
+  const off = t.cropMarks.offsetMm * PT_PER_MM;
+  const len = t.cropMarks.lengthMm * PT_PER_MM;
+  const xs = [b, pageW - b];
+  const ys = [b, pageH - b];
+  const lines: ReactNode[] = [];
+  for (const [xi, x] of xs.entries()) {
+    for (const [yi, y] of ys.entries()) {
+      const dx = xi === 0 ? -1 : 1;
+      const dy = yi === 0 ? -1 : 1;
+      lines.push(<Line key={`h${xi}${yi}`} x1={x + dx * off} y1={y} x2={x + dx * (off + len)} y2={y} stroke="#000000" strokeWidth={0.25} />);
+      lines.push(<Line key={`v${xi}${yi}`} x1={x} y1={y + dy * off} x2={x} y2={y + dy * (off + len)} stroke="#000000" strokeWidth={0.25} />);
+    }
+  }
+  return (
+    <View fixed style={{ position: 'absolute', top: 0, left: 0, width: pageW, height: pageH }}>
+      <Svg width={pageW} height={pageH}>
+        {lines}
+      </Svg>
+    </View>
+  );
+}
+
+function proofStamp(t: PageTemplate, pageW: number, pageH: number, version: number | undefined): ReactElement[] {
+  const size = Math.min(96, (pageW - 2 * t.bleedMm * PT_PER_MM) / 4);
+  const b = t.bleedMm * PT_PER_MM;
+  return [
+    <Text
+      key="stamp"
+      fixed
+      style={{
+        position: 'absolute',
+        top: pageH / 2 - size / 2,
+        left: 0,
+        width: pageW,
+        textAlign: 'center',
+        fontFamily: PRINT_FONTS.sans,
+        fontWeight: 700,
+        fontSize: size,
+        color: STAMP,
+        opacity: 0.22,
+        transform: 'rotate(-30deg)',
+        letterSpacing: size * 0.08,
+      }}
+    >
+      PROOF
+    </Text>,
+    <Text
+      key="slug"
+      fixed
+      style={{
+        position: 'absolute',
+        top: b + 1.2 * PT_PER_MM,
+        left: b + t.marginsMm.left * PT_PER_MM,
+        right: b + t.marginsMm.right * PT_PER_MM,
+        fontFamily: PRINT_FONTS.sans,
+        fontWeight: 600,
+        fontSize: Math.max(t.minimums.bodyPt, 6),
+        color: STAMP,
+      }}
+    >
+      {`PROOF${version ? ` v${version}` : ''} \u2013 check every proof before it goes to press`}
+    </Text>,
+  ];
+}
+
+// ---- the document ---------------------------------------------------------------------
+
+function puzzleBlock(ctx: Ctx, p: PuzzlePrint, colW: number): ReactElement {
+  const t = ctx.t;
+  const box = { widthPt: colW, maxHeightPt: t.drawing.maxHeightMm * PT_PER_MM };
+  const kindLabel = p.kind === 'assembly' ? 'Assembly' : 'Deduction';
+  const drawing = p.kind === 'assembly' ? assemblyDrawing(ctx, p, box) : deductionDrawing(ctx, p, box);
+  const detail =
+    p.kind === 'assembly'
+      ? `Frame ${p.frame.W} \u00d7 ${p.frame.H}. Pieces: ${[...p.pieces].sort((a, b) => b - a).join(', ')}.${p.starters.length > 0 ? ` Starter pieces placed: ${p.starters.map((s) => s.size).join(', ')}.` : ''}`
+      : `Givens: ${p.givens.map((g) => g.size).join(', ')}. Drawing not to scale.`;
+  return (
+    <View key={`p${p.slot}`} style={{ width: colW, marginBottom: 5 * PT_PER_MM }} wrap={false}>
+      <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: t.type.headingPt }}>{`Puzzle ${p.slot}${p.title ? `: ${p.title}` : ''}`}</Text>
+      <Text style={{ fontFamily: PRINT_FONTS.sans, fontSize: t.type.captionPt, marginBottom: t.type.captionPt * 0.6 }}>{`${kindLabel} \u00b7 Grade ${p.grade}`}</Text>
+      {richText(ctx, p.instructions, `i${p.slot}`, t.type.bodyPt)}
+      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{drawing}</View>
+      {p.kind === 'assembly' ? (
+        <View style={{ marginBottom: 1.5 * PT_PER_MM }}>
+          <Text style={{ fontFamily: PRINT_FONTS.sans, fontSize: t.type.captionPt }}>Pieces (half scale)</Text>
+          {piecesDrawing(ctx, p, box)}
+        </View>
+      ) : null}
+      <Text style={{ fontSize: t.type.captionPt }}>{detail}</Text>
+    </View>
+  );
+}
+
+function solutionBlock(ctx: Ctx, s: SolutionPrint, colW: number): ReactElement {
+  const t = ctx.t;
+  const box = { widthPt: colW, maxHeightPt: t.drawing.maxHeightMm * PT_PER_MM * 0.75 };
+  const sizes = [...s.tiling.squares].map((q) => q.s).sort((a, b) => b - a);
+  return (
+    <View key={`s${s.slot}`} style={{ width: colW, marginBottom: 5 * PT_PER_MM }} wrap={false}>
+      <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: t.type.headingPt * 0.9 }}>{s.caption ?? `Puzzle ${s.slot}`}</Text>
+      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{tilingDrawing(ctx, s.tiling, box, s.slot, s.kind === 'deduction')}</View>
+      <Text style={{ fontSize: t.type.captionPt }}>{`${s.tiling.W} \u00d7 ${s.tiling.H}: ${sizes.join(', ')}.`}</Text>
+      {s.steps && s.steps.length > 0 ? (
+        <View style={{ marginTop: 1 * PT_PER_MM }}>
+          {s.steps.map((step, i) => (
+            <View key={i} style={{ flexDirection: 'row' }}>
+              <Text style={{ width: t.type.captionPt * 2, fontSize: t.type.captionPt }}>{`${i + 1}.`}</Text>
+              <Text style={{ flex: 1, fontSize: t.type.captionPt }}>{step}</Text>
+            </View>
+          ))}
+        </View>
+      ) : null}
+    </View>
+  );
+}
+
+export type LayoutOptions = { stamp: 'PROOF' | null; proofVersion?: number | undefined };
+
+/** Builds the document tree; metrics are filled in while building. */
+export function buildEditionDocument(doc: EditionDocument, opts: LayoutOptions): { element: ReactElement; metrics: LayoutMetrics; fonts: string[]; pageSizePt: { width: number; height: number } } {
+  const fonts = registerPrintFonts(Font);
+  const t = doc.template;
+  const g = templateGeometry(t);
+  const pageW = g.pageWidthMm * PT_PER_MM;
+  const pageH = g.pageHeightMm * PT_PER_MM;
+  const b = t.bleedMm * PT_PER_MM;
+  const colW = g.columnWidthMm * PT_PER_MM;
+  const gutter = t.gutterMm * PT_PER_MM;
+  const metrics: LayoutMetrics = { smallestSquareMm: null, smallestDigitPt: null, omittedLabels: [], illegibleGivens: [] };
+  const ctx: Ctx = { t, metrics };
+  const footerPt = t.type.captionPt * 2.2;
+  const heading = `${doc.publicationTitle} \u00b7 No. ${doc.editionNumber} \u00b7 ${formatEditionDate(doc.editionDate)}`;
+
+  const pageStyle = {
+    paddingTop: b + t.marginsMm.top * PT_PER_MM,
+    paddingBottom: b + t.marginsMm.bottom * PT_PER_MM + footerPt,
+    paddingLeft: b + t.marginsMm.left * PT_PER_MM,
+    paddingRight: b + t.marginsMm.right * PT_PER_MM,
+    fontFamily: PRINT_FONTS.serif,
+    fontSize: t.type.bodyPt,
+    lineHeight: t.type.lineHeight,
+    color: INK,
+  };
+  const furniture = (
+    <>
+      {cropMarks(t, pageW, pageH)}
+      <Text
+        fixed
+        style={{
+          position: 'absolute',
+          top: pageH - b - t.marginsMm.bottom * PT_PER_MM * 0.5 - t.type.captionPt,
+          left: b + t.marginsMm.left * PT_PER_MM,
+          right: b + t.marginsMm.right * PT_PER_MM,
+          fontFamily: PRINT_FONTS.sans,
+          fontSize: t.type.captionPt,
+          textAlign: 'center',
+        }}
+        render={({ pageNumber, totalPages }) => `${doc.publicationTitle} No. ${doc.editionNumber} \u00b7 Page ${pageNumber} of ${totalPages}`}
+      />
+      {opts.stamp === 'PROOF' ? proofStamp(t, pageW, pageH, opts.proofVersion) : null}
+    </>
+  );
+  // Blocks go into rows of `columns`, each row kept whole on one page (react-pdf's own
+  // pagination of wrapped flex rows is unreliable).
+  const rows = (items: ReactElement[], key: string) => {
+    const out: ReactElement[] = [];
+    for (let i = 0; i < items.length; i += t.columns) {
+      out.push(
+        <View key={`${key}${i}`} style={{ flexDirection: 'row', columnGap: gutter }} wrap={false}>
+          {items.slice(i, i + t.columns)}
+        </View>,
+      );
+    }
+    return out;
+  };
+
+  const element = (
+    <Document title={`${doc.publicationTitle} No. ${doc.editionNumber}`} author="Squarewright" creator="Squarewright" producer="Squarewright" language="en">
+      <Page size={[pageW, pageH]} style={pageStyle} wrap>
+        <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 700, fontSize: t.type.titlePt, lineHeight: 1.1 }}>{doc.publicationTitle}</Text>
+        <Text style={{ fontFamily: PRINT_FONTS.sans, fontSize: t.type.captionPt + 1, marginBottom: 4 * PT_PER_MM }}>{heading.slice(doc.publicationTitle.length + 3)}</Text>
+        {richText(ctx, doc.introduction, 'intro', t.type.bodyPt)}
+        <View style={{ marginTop: 3 * PT_PER_MM }}>{rows(doc.puzzles.map((p) => puzzleBlock(ctx, p, colW)), 'pr')}</View>
+        {furniture}
+      </Page>
+      {doc.solutions.length > 0 ? (
+        <Page size={[pageW, pageH]} style={pageStyle} wrap>
+          <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 700, fontSize: t.type.headingPt * 1.3, marginBottom: 3 * PT_PER_MM }}>Solutions</Text>
+          <View>{rows(doc.solutions.map((s) => solutionBlock(ctx, s, colW)), 'sr')}</View>
+          {furniture}
+        </Page>
+      ) : null}
+    </Document>
+  );
+  return { element, metrics, fonts, pageSizePt: { width: pageW, height: pageH } };
+}

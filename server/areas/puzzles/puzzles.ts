@@ -1,0 +1,432 @@
+import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import type { SessionUser } from '../../../shared/contracts/auth';
+import {
+  puzzleCertificateSchema,
+  type PuzzleCreate,
+  type PuzzleDetail,
+  type PuzzleJob,
+  type PuzzleLevel,
+  type PuzzleList,
+  type PuzzleListQuery,
+  type PuzzlePatch,
+  type PuzzleStarted,
+  type PuzzleStatus,
+  type PuzzleStep,
+  type PuzzleSummary,
+  type SquareRef,
+} from '../../../shared/contracts/puzzles';
+import { inputHash, isCertificateCurrent, notToScaleLayout, PUZZLE_ENGINE_VERSION } from '../../../shared/puzzle/index';
+import type { Certificate } from '../../../shared/puzzle/index';
+import type { Tiling } from '../../../shared/tiling/index';
+import type { Db, DbOrTx } from '../../platform/db/client';
+import { edition, editionSlot } from '../editions/schema';
+import { publication } from '../editions/publication-schema';
+import { puzzle } from './schema';
+import { stock } from '../stock/schema';
+import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
+import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './prove-job';
+import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
+import type { PuzzleForPrint, PuzzleSource } from '../editions/editions';
+import { markStockUsed, setStockUsage, stockTiling } from '../stock/stock';
+
+// Puzzles: made from a stock tiling, proved in the worker pool (job kind 'puzzle-prove'),
+// stored with the certificate of their latest proof. Every change bumps the revision and
+// starts a new proof; a job's result is stored only if the puzzle is still at the revision
+// it proved. A puzzle is printable only while its certificate is current: verdict unique,
+// issued by the engine version in use, for exactly the puzzle as it is now (input hash).
+
+/** Time budget of one puzzle job in the pool [common practice: bound every background job]. */
+const JOB_BUDGET_MS = 3 * 60_000;
+
+type PuzzleRow = typeof puzzle.$inferSelect;
+
+function parseJson<T>(s: string | null, fallback: T): T {
+  if (s === null) return fallback;
+  try {
+    return JSON.parse(s) as T;
+  } catch {
+    return fallback;
+  }
+}
+
+function levelOf(r: Pick<PuzzleRow, 'level'>): PuzzleLevel | null {
+  return parseJson<PuzzleLevel | null>(r.level, null);
+}
+
+/** The printed title: an Assembly names its frame (the solver gets it); a Deduction must not give its sizes away. */
+export function puzzleTitle(kind: 'assembly' | 'deduction', t: Tiling): string {
+  return kind === 'assembly' ? `Assembly ${t.W} \u00d7 ${t.H}, ${t.squares.length} squares` : `Deduction, ${t.squares.length} squares`;
+}
+
+/** Editor's square references -> placed sizes of the tiling; 422 naming each bad one. */
+function resolveRefs(t: Tiling, refs: SquareRef[], field: string): Placed[] {
+  const at = new Map(t.squares.map((q) => [`${q.x},${q.y}`, q.s]));
+  const bad: { path: string; message: string }[] = [];
+  const seen = new Set<string>();
+  const out: Placed[] = [];
+  refs.forEach((r, i) => {
+    const k = `${r.x},${r.y}`;
+    const s = at.get(k);
+    if (s === undefined) bad.push({ path: `body.${field}.${i}`, message: `no square of the tiling has its corner at (${r.x}, ${r.y})` });
+    else if (seen.has(k)) bad.push({ path: `body.${field}.${i}`, message: `the square at (${r.x}, ${r.y}) is named twice` });
+    else { seen.add(k); out.push({ x: r.x, y: r.y, size: s }); }
+  });
+  if (bad.length > 0) throw new Unprocessable(`${bad.length} ${field === 'givens' ? 'given(s)' : 'starter piece(s)'} do not name a square of the tiling.`, bad);
+  return out;
+}
+
+function currentInputHash(kind: 'assembly' | 'deduction', tiling: Tiling, level: PuzzleLevel | null, showFrame: boolean, starters: Placed[], givens: Placed[]): string {
+  return inputHash(certificateInputOf({ kind, tiling, level: level ?? DEFAULT_LEVEL, showFrame }, starters, givens), nodeSha256);
+}
+
+// ---- the job and its result ------------------------------------------------------------
+
+/** The job's sink: stores its result; a cancelled job marks only its own revision cancelled (a PATCH cancels the previous proof). */
+function sinkFor(puzzleId: number, revision: number) {
+  return {
+    onFinish(summary: unknown, tx: Db, state: 'done' | 'cancelled') {
+      if (state === 'cancelled' || summary === null) {
+        tx.update(puzzle).set({ status: 'cancelled', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'))).run();
+        return;
+      }
+      storeResult(tx, puzzleId, summary as PuzzleJobSummary);
+    },
+  };
+}
+
+/** Store a finished proof (in the job's final transaction); ignored when the puzzle changed since. */
+export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, at: Date = new Date()): void {
+  const row = tx.select({ revision: puzzle.revision, kind: puzzle.kind }).from(puzzle).where(eq(puzzle.id, puzzleId)).get();
+  if (!row || row.revision !== s.revision) return;
+  const cert = s.certificate;
+  const status: PuzzleStatus = cert.verdict as PuzzleStatus;
+  const set: Partial<typeof puzzle.$inferInsert> = { status, updatedAt: at };
+  if (s.task === 'recheck' && s.recheck) {
+    set.recheckJson = JSON.stringify({ ...s.recheck, at: at.toISOString() });
+    // it holds: the stored certificate stays; the status goes back to its verdict
+    if (s.recheck.holds) { tx.update(puzzle).set(set).where(eq(puzzle.id, puzzleId)).run(); return; }
+  }
+  Object.assign(set, {
+    certificateJson: JSON.stringify(cert),
+    certInputHash: cert.inputHash,
+    certEngineVersion: cert.engineVersion,
+    inputHash: cert.inputHash,
+    startersJson: JSON.stringify(s.starters),
+    givensJson: JSON.stringify(s.givens),
+    stepsJson: JSON.stringify(s.steps),
+    // a grade only means something for a puzzle with one solution
+    grade: cert.verdict === 'unique' ? s.grade : null,
+    level: row.kind === 'deduction' ? JSON.stringify(s.level ?? DEFAULT_LEVEL) : null,
+    secondJson: s.second ? JSON.stringify(s.second) : null,
+    notesJson: JSON.stringify(s.notes),
+  });
+  tx.update(puzzle).set(set).where(eq(puzzle.id, puzzleId)).run();
+}
+
+function submitJob(db: Db, runner: JobRunner, puzzleId: number, revision: number, task: PuzzleJobParams['task'], input: PuzzleJobInput, userId: string | null): string {
+  const params: PuzzleJobParams = { puzzleId, revision, task };
+  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink: sinkFor(puzzleId, revision) });
+  db.update(puzzle).set({ jobId }).where(eq(puzzle.id, puzzleId)).run();
+  // a failed or interrupted job leaves no result: say so on the puzzle
+  void runner.wait(jobId).then((r) => {
+    if ((r.state === 'failed' || r.state === 'interrupted') && db.$client.open) {
+      db.update(puzzle).set({ status: 'failed', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'))).run();
+    }
+  }, () => undefined);
+  return jobId;
+}
+
+function jobInputOf(r: PuzzleRow, tiling: Tiling, overrides: Partial<PuzzleJobInput> = {}): PuzzleJobInput {
+  return {
+    kind: r.kind,
+    tiling,
+    level: levelOf(r),
+    showFrame: r.showFrame,
+    starters: parseJson<Placed[]>(r.startersJson, []),
+    givens: parseJson<Placed[]>(r.givensJson, []),
+    grade: null,
+    seed: 1,
+    ...overrides,
+  };
+}
+
+// ---- commands ---------------------------------------------------------------------------
+
+export function createPuzzle(db: Db, runner: JobRunner, who: SessionUser, body: PuzzleCreate): PuzzleStarted {
+  const found = db.select({ id: stock.id }).from(stock).where(eq(stock.id, body.stockId)).get();
+  if (!found) throw new Unprocessable(`There is no stock tiling ${body.stockId}.`, [{ path: 'body.stockId', message: `no stock tiling ${body.stockId}` }]);
+  const { tiling } = stockTiling(db, body.stockId);
+  const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : null;
+  const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : null;
+  const level: PuzzleLevel | null = body.kind === 'deduction' ? (body.level ?? null) : null;
+  const showFrame = body.showFrame ?? false;
+  const hash = starters !== null || givens !== null ? currentInputHash(body.kind, tiling, level, showFrame, starters ?? [], givens ?? []) : '';
+  const id = db.transaction((tx) => {
+    const row = tx
+      .insert(puzzle)
+      .values({
+        stockId: body.stockId, kind: body.kind, title: puzzleTitle(body.kind, tiling), status: 'proving',
+        level: level === null ? null : JSON.stringify(level), showFrame,
+        startersJson: JSON.stringify(starters ?? []), givensJson: JSON.stringify(givens ?? []),
+        inputHash: hash, createdBy: who.id,
+      })
+      .returning({ id: puzzle.id })
+      .get();
+    markStockUsed(tx, body.stockId);
+    return row.id;
+  });
+  const input: PuzzleJobInput = { kind: body.kind, tiling, level, showFrame, starters, givens, grade: body.grade ?? null, seed: body.seed ?? 1 };
+  const jobId = submitJob(db, runner, id, 1, 'make', input, who.id);
+  return { id, jobId };
+}
+
+function getRow(db: DbOrTx, id: number): PuzzleRow {
+  const r = db.select().from(puzzle).where(eq(puzzle.id, id)).get();
+  if (!r) throw new NotFound(`No puzzle ${id}.`);
+  return r;
+}
+
+/** A puzzle in an edition that has gone to proof (or beyond) may not change. */
+function lockedBy(db: DbOrTx, id: number): string | null {
+  const r = db
+    .select({ number: edition.number, state: edition.state, title: publication.title })
+    .from(editionSlot)
+    .innerJoin(edition, eq(edition.id, editionSlot.editionId))
+    .innerJoin(publication, eq(publication.id, edition.publicationId))
+    .where(and(eq(editionSlot.puzzleId, String(id)), inArray(edition.state, ['in_proof', 'approved', 'published'])))
+    .get();
+  return r ? `${r.title} No. ${r.number} (${r.state.replace('_', ' ')})` : null;
+}
+
+export function patchPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: number, body: PuzzlePatch): PuzzleStarted {
+  const r = getRow(db, id);
+  const locked = lockedBy(db, id);
+  if (locked) throw new Conflict(`Puzzle ${id} is in ${locked}; it can no longer change.`);
+  if (r.kind === 'assembly' && (body.givens !== undefined || body.level !== undefined || body.showFrame !== undefined)) {
+    throw new Unprocessable('An Assembly puzzle has starter pieces only.', [{ path: body.givens !== undefined ? 'body.givens' : 'body.level', message: 'not for an Assembly puzzle' }]);
+  }
+  if (r.kind === 'deduction' && body.starters !== undefined) throw new Unprocessable('A Deduction puzzle has givens, not starter pieces.', [{ path: 'body.starters', message: 'not for a Deduction puzzle' }]);
+  const { tiling } = stockTiling(db, r.stockId);
+  const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : parseJson<Placed[]>(r.startersJson, []);
+  const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : parseJson<Placed[]>(r.givensJson, []);
+  const level = r.kind === 'deduction' ? (body.level ?? levelOf(r) ?? DEFAULT_LEVEL) : null;
+  const showFrame = body.showFrame ?? r.showFrame;
+  const revision = r.revision + 1;
+  const propose = body.propose === true;
+  // when the engine proposes, the input is known only once it has chosen (stored with the result)
+  const hash = propose ? '' : currentInputHash(r.kind, tiling, level, showFrame, starters, givens);
+  if (r.jobId) runner.cancel(r.jobId);
+  db.update(puzzle)
+    .set({
+      revision, status: 'proving', inputHash: hash, startersJson: JSON.stringify(starters), givensJson: JSON.stringify(givens),
+      level: level === null ? null : JSON.stringify(level), showFrame, secondJson: null, recheckJson: null, updatedAt: new Date(),
+    })
+    .where(eq(puzzle.id, id))
+    .run();
+  const input = jobInputOf({ ...r, level: level === null ? null : JSON.stringify(level), showFrame }, tiling, propose ? { starters: null, givens: null } : { starters, givens });
+  return { id, jobId: submitJob(db, runner, id, revision, propose ? 'make' : 'prove', input, who.id) };
+}
+
+export function recheckPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: number): PuzzleStarted {
+  const r = getRow(db, id);
+  if (r.status === 'proving') throw new Conflict(`Puzzle ${id} is being proved; re-check it when the proof is done.`);
+  const cert = certificateOf(r);
+  if (!cert) throw new Conflict(`Puzzle ${id} has no certificate to re-check.`);
+  const { tiling } = stockTiling(db, r.stockId);
+  db.update(puzzle).set({ status: 'proving', updatedAt: new Date() }).where(eq(puzzle.id, id)).run();
+  return { id, jobId: submitJob(db, runner, id, r.revision, 'recheck', jobInputOf(r, tiling, { certificate: cert as Certificate }), who.id) };
+}
+
+export function cancelPuzzleJob(db: Db, runner: JobRunner, id: number): void {
+  const r = getRow(db, id);
+  if (r.status !== 'proving' || !r.jobId) throw new Conflict(`Puzzle ${id} has no proof running.`);
+  runner.cancel(r.jobId);
+}
+
+// ---- reading ------------------------------------------------------------------------------
+
+function certificateOf(r: Pick<PuzzleRow, 'certificateJson'>) {
+  const p = puzzleCertificateSchema.safeParse(parseJson<unknown>(r.certificateJson, null));
+  return p.success ? p.data : null;
+}
+
+const verdictWords: Record<string, string> = {
+  multiple: 'the pieces fit together in more than one way: not unique',
+  none: 'the pieces cannot fill the frame',
+  undecided: 'the search ran out of time before it could decide',
+  stuck: 'unique by rank, but steps at this level do not reach every size',
+  'not-unique': 'the givens leave some sizes free: not unique',
+};
+
+/** Why the puzzle's certificate does not make it printable (empty: it does). */
+export function staleReasons(r: Pick<PuzzleRow, 'certificateJson' | 'inputHash' | 'status'>): string[] {
+  const cert = certificateOf(r);
+  if (!cert) return [r.status === 'proving' ? 'the first proof is still running' : 'there is no certificate'];
+  const out: string[] = [];
+  if (cert.verdict !== 'unique') out.push(verdictWords[cert.verdict] ?? `the verdict is ${cert.verdict}`);
+  if (!isCertificateCurrent(cert)) out.push(`issued by engine ${cert.engineVersion}; the engine in use is ${PUZZLE_ENGINE_VERSION}`);
+  if (cert.inputHash !== r.inputHash) out.push('the puzzle changed since the certificate was issued (input hash differs)');
+  if (r.status === 'proving') out.push('a new proof is running');
+  return out;
+}
+
+function usesOf(db: DbOrTx, ids: number[]): Map<number, PuzzleSummary['usedIn']> {
+  const m = new Map<number, PuzzleSummary['usedIn']>();
+  if (ids.length === 0) return m;
+  const rows = db
+    .select({ puzzleId: editionSlot.puzzleId, editionId: edition.id, number: edition.number, editionDate: edition.editionDate, state: edition.state, title: publication.title })
+    .from(editionSlot)
+    .innerJoin(edition, eq(edition.id, editionSlot.editionId))
+    .innerJoin(publication, eq(publication.id, edition.publicationId))
+    .where(inArray(editionSlot.puzzleId, ids.map(String)))
+    .orderBy(asc(edition.editionDate))
+    .all();
+  for (const x of rows) {
+    const k = Number(x.puzzleId);
+    const list = m.get(k) ?? [];
+    list.push({ editionId: x.editionId, publicationTitle: x.title, number: x.number, editionDate: x.editionDate, state: x.state });
+    m.set(k, list);
+  }
+  return m;
+}
+
+type SummaryRow = Pick<PuzzleRow, 'id' | 'kind' | 'title' | 'status' | 'grade' | 'level' | 'stockId' | 'certificateJson' | 'inputHash' | 'createdAt' | 'updatedAt' | 'jobId'> & { tilingKey: string; order: number; width: number; height: number };
+
+/** The status to show: a proof whose job failed or was interrupted (server restart) is 'failed'. */
+function effectiveStatus(r: Pick<PuzzleRow, 'status'>, job: JobRecord | null): PuzzleStatus {
+  if (r.status === 'proving' && job && (job.state === 'failed' || job.state === 'interrupted')) return 'failed';
+  return r.status;
+}
+
+function toSummary(r: SummaryRow, used: PuzzleSummary['usedIn'], job: JobRecord | null): PuzzleSummary {
+  return {
+    id: r.id, kind: r.kind, title: r.title, status: effectiveStatus(r, job), grade: r.grade, level: levelOf(r), stockId: r.stockId,
+    tilingKey: r.tilingKey, order: r.order, width: r.width, height: r.height,
+    certificateCurrent: staleReasons(r).length === 0, usedIn: used,
+    createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString(),
+  };
+}
+
+function jobOf(job: JobRecord | null): PuzzleJob | null {
+  if (!job) return null;
+  const p = job.progress;
+  return { id: job.id, state: job.state, phase: p?.phase ?? null, done: p?.done ?? null, total: p?.total ?? null, elapsedMs: p?.elapsedMs ?? null, error: job.error };
+}
+
+const summaryColumns = {
+  id: puzzle.id, kind: puzzle.kind, title: puzzle.title, status: puzzle.status, grade: puzzle.grade, level: puzzle.level, stockId: puzzle.stockId,
+  certificateJson: puzzle.certificateJson, inputHash: puzzle.inputHash, createdAt: puzzle.createdAt, updatedAt: puzzle.updatedAt, jobId: puzzle.jobId,
+  tilingKey: stock.canonicalKey, order: stock.order, width: stock.width, height: stock.height,
+};
+
+export function getPuzzle(db: Db, runner: JobRunner, id: number): PuzzleDetail {
+  const r = getRow(db, id);
+  const s = db.select(summaryColumns).from(puzzle).innerJoin(stock, eq(stock.id, puzzle.stockId)).where(eq(puzzle.id, id)).get()!;
+  const { tiling } = stockTiling(db, r.stockId);
+  const job = r.jobId ? runner.get(r.jobId) : null;
+  return {
+    ...toSummary(s, usesOf(db, [id]).get(id) ?? [], job),
+    showFrame: r.showFrame,
+    tiling,
+    starters: parseJson<Placed[]>(r.startersJson, []),
+    givens: parseJson<Placed[]>(r.givensJson, []),
+    steps: parseJson<PuzzleStep[]>(r.stepsJson, []),
+    certificate: certificateOf(r),
+    staleReasons: staleReasons(r),
+    second: parseJson<PuzzleDetail['second']>(r.secondJson, null),
+    notes: parseJson<string[]>(r.notesJson, []),
+    lastRecheck: parseJson<PuzzleDetail['lastRecheck']>(r.recheckJson, null),
+    job: jobOf(job),
+  };
+}
+
+const printableWhere = (): SQL => and(eq(puzzle.status, 'unique'), eq(puzzle.certEngineVersion, PUZZLE_ENGINE_VERSION), sql`${puzzle.certInputHash} = ${puzzle.inputHash}`)!;
+
+const sortColumns = { createdAt: puzzle.createdAt, updatedAt: puzzle.updatedAt, grade: puzzle.grade, order: stock.order, id: puzzle.id } as const;
+
+export function listPuzzles(db: Db, runner: JobRunner, q: PuzzleListQuery): PuzzleList {
+  const w: SQL[] = [];
+  if (q.kind) w.push(eq(puzzle.kind, q.kind));
+  if (q.status) w.push(eq(puzzle.status, q.status));
+  if (q.grade !== undefined) w.push(eq(puzzle.grade, q.grade));
+  if (q.stockId !== undefined) w.push(eq(puzzle.stockId, q.stockId));
+  if (q.printable === true) w.push(printableWhere());
+  if (q.printable === false) w.push(sql`not (${printableWhere()})`);
+  const where = w.length > 0 ? and(...w) : undefined;
+  const dir = q.sort.desc ? desc : asc;
+  const rows = db
+    .select(summaryColumns)
+    .from(puzzle)
+    .innerJoin(stock, eq(stock.id, puzzle.stockId))
+    .where(where)
+    .orderBy(dir(sortColumns[q.sort.key]), dir(puzzle.id))
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize)
+    .all();
+  const total = db.select({ n: count() }).from(puzzle).innerJoin(stock, eq(stock.id, puzzle.stockId)).where(where).get()?.n ?? 0;
+  const used = usesOf(db, rows.map((r) => r.id));
+  return { items: rows.map((r) => toSummary(r, used.get(r.id) ?? [], r.status === 'proving' && r.jobId ? runner.get(r.jobId) : null)), total, page: q.page, pageSize: q.pageSize };
+}
+
+// ---- print's view and the stock's history ---------------------------------------------
+
+export function getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint | null {
+  if (!/^\d{1,15}$/.test(puzzleId)) return null;
+  const r = db
+    .select({ row: puzzle, tilingKey: stock.canonicalKey, setterId: stock.setterId })
+    .from(puzzle)
+    .innerJoin(stock, eq(stock.id, puzzle.stockId))
+    .where(eq(puzzle.id, Number(puzzleId)))
+    .get();
+  if (!r) return null;
+  const p = r.row;
+  const { tiling } = stockTiling(db, p.stockId);
+  const cert = certificateOf(p);
+  const stale = staleReasons(p);
+  const certificate = cert ? { current: stale.length === 0, summary: stale.length === 0 ? `unique (${cert.engineVersion}, ${cert.createdAt.slice(0, 10)}, input ${cert.inputHash.slice(0, 12)})` : stale.join('; ') } : null;
+  const base = { id: String(p.id), kind: p.kind, title: p.title, grade: p.grade ?? 3, tilingKey: r.tilingKey, setterId: r.setterId, certificate };
+  const solution = { tiling: { W: tiling.W, H: tiling.H, squares: tiling.squares.map((q) => ({ x: q.x, y: q.y, s: q.s })) } };
+  if (p.kind === 'assembly') {
+    return { ...base, assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s).sort((a, b) => b - a), starters: parseJson<Placed[]>(p.startersJson, []) }, solution };
+  }
+  const layout = notToScaleLayout(tiling);
+  const index = new Map(tiling.squares.map((q, i) => [`${q.x},${q.y}`, i]));
+  const givens = parseJson<Placed[]>(p.givensJson, []).flatMap((g) => {
+    const i = index.get(`${g.x},${g.y}`);
+    return i === undefined ? [] : [{ rect: i, size: g.size }];
+  });
+  const steps = parseJson<PuzzleStep[]>(p.stepsJson, []).map((s) => s.text);
+  return { ...base, deduction: { layout: { W: layout.width, H: layout.height, rects: layout.rects }, givens }, solution: { ...solution, steps } };
+}
+
+export function listPrintablePuzzleIds(db: DbOrTx): string[] {
+  return db.select({ id: puzzle.id }).from(puzzle).where(printableWhere()).orderBy(desc(puzzle.createdAt), desc(puzzle.id)).all().map((r) => String(r.id));
+}
+
+export const puzzleStore: PuzzleSource = { getPuzzleForPrint, listPrintablePuzzleIds };
+
+/** The stock's history and summary: puzzles made from a tiling, counts by grade. */
+export function installStockUsage(): void {
+  setStockUsage({
+    puzzlesFor: (db, stockId) =>
+      db.select({ id: puzzle.id, kind: puzzle.kind, grade: puzzle.grade, createdAt: puzzle.createdAt }).from(puzzle).where(eq(puzzle.stockId, stockId)).orderBy(asc(puzzle.createdAt)).all()
+        .map((p) => ({ id: p.id, kind: p.kind, grade: p.grade, createdAt: p.createdAt.toISOString() })),
+    // editions whose slots hold a puzzle made from this tiling, one entry per edition
+    editionsFor: (db, stockId) => {
+      const rows = db
+        .select({ id: edition.id, number: edition.number, date: edition.editionDate, title: publication.title })
+        .from(editionSlot)
+        .innerJoin(edition, eq(edition.id, editionSlot.editionId))
+        .innerJoin(publication, eq(publication.id, edition.publicationId))
+        .innerJoin(puzzle, sql`${puzzle.id} = cast(${editionSlot.puzzleId} as integer)`)
+        .where(eq(puzzle.stockId, stockId))
+        .orderBy(asc(edition.editionDate))
+        .all();
+      const seen = new Set<string>();
+      return rows.filter((r) => !seen.has(r.id) && seen.add(r.id)).map((r) => ({ id: r.id, title: `${r.title} No. ${r.number}`, date: r.date }));
+    },
+    gradeCounts: (db) =>
+      db.select({ grade: puzzle.grade, count: count() }).from(puzzle).where(sql`${puzzle.grade} is not null`).groupBy(puzzle.grade).orderBy(asc(puzzle.grade)).all()
+        .map((g) => ({ grade: g.grade ?? 0, count: g.count })),
+  });
+}

@@ -1,0 +1,127 @@
+import {
+  canonicalCode,
+  canonicalKey,
+  canonicalTiling,
+  classifyTiling,
+  parseTiling,
+  smithDiagram,
+  tilingFromSquares,
+  toBouwkamp,
+  TilingInputError,
+  type Tiling,
+} from '../../../shared/tiling/index';
+import type { SmithDiagram } from '../../../shared/tiling/index';
+import type { ClassificationData, SmithDrawing, SquaresInput, TilingError } from '../../../shared/contracts/tilings';
+
+// Reading a tiling from outside: decode and verify with the tiling engine, classify, and
+// derive everything we store and show (canonical code and key, drawing data).
+
+export interface TilingAnalysis {
+  tiling: Tiling;
+  canonical: Tiling;
+  canonicalCode: string;
+  canonicalKey: string;
+  bouwkamp: string;
+  classification: ClassificationData;
+}
+
+export type AnalysisResult = { ok: true; analysis: TilingAnalysis } | { ok: false; error: TilingError };
+
+function toError(e: unknown): TilingError {
+  if (e instanceof TilingInputError) {
+    const where = e.where ? { ...e.where } : undefined;
+    return where ? { code: e.code, message: e.message, where } : { code: e.code, message: e.message };
+  }
+  throw e;
+}
+
+/** The engine's classification in our contract's shape (sub-rectangles capped at 200). */
+export function classificationOf(tiling: Tiling): ClassificationData {
+  const c = classifyTiling(tiling);
+  return {
+    order: c.order,
+    width: c.width,
+    height: c.height,
+    square: c.square,
+    perfect: c.perfect,
+    simple: c.simple,
+    trivialCompound: c.trivialCompound,
+    subRectangles: c.subRectangles.slice(0, 200),
+    gcd: c.gcd,
+    minSize: c.minSize,
+    maxSize: c.maxSize,
+  };
+}
+
+/** Analyse a tiling that the engine already decoded and verified. */
+export function analyseTiling(tiling: Tiling): TilingAnalysis {
+  return {
+    tiling,
+    canonical: canonicalTiling(tiling),
+    canonicalCode: canonicalCode(tiling),
+    canonicalKey: canonicalKey(tiling),
+    bouwkamp: toBouwkamp(tiling, { header: true }),
+    classification: classificationOf(tiling),
+  };
+}
+
+/** Decode a Bouwkamp or table code; a bad code gives the engine's precise error (what and where). */
+export function analyseCode(code: string): AnalysisResult {
+  let tiling: Tiling;
+  try {
+    tiling = parseTiling(code);
+  } catch (e) {
+    return { ok: false, error: toError(e) };
+  }
+  return { ok: true, analysis: analyseTiling(tiling) };
+}
+
+/** Squares given explicitly (the network sketch sends these). */
+export function analyseSquares(input: SquaresInput): AnalysisResult {
+  let tiling: Tiling;
+  try {
+    tiling = tilingFromSquares(input);
+  } catch (e) {
+    return { ok: false, error: toError(e) };
+  }
+  return { ok: true, analysis: analyseTiling(tiling) };
+}
+
+/** The engine's horizontal Smith diagram as our drawing data (see SmithDrawing in the contract). */
+export function toSmithDrawing(d: SmithDiagram): SmithDrawing {
+  return {
+    width: d.width,
+    height: d.height,
+    nodes: d.nodes.map((n) => ({ id: n.id, y: n.at, x0: n.start, x1: n.end })),
+    edges: d.edges.map((e) => ({ square: e.square, from: e.from, to: e.to, x: e.line.x1, current: e.current })),
+    pole: { top: d.pole.from, bottom: d.pole.to },
+  };
+}
+
+/** Drawing data of the horizontal Smith diagram, or null when the engine cannot draw it (it never should for a verified tiling). */
+export function smithDrawingOf(tiling: Tiling): SmithDrawing | null {
+  try {
+    return toSmithDrawing(smithDiagram(tiling, 'horizontal'));
+  } catch (e) {
+    if (e instanceof TilingInputError) return null;
+    throw e;
+  }
+}
+
+/** Squares stored compactly as [[x,y,s],...]. */
+export function squaresToJson(t: Tiling): string {
+  return JSON.stringify(t.squares.map((q) => [q.x, q.y, q.s]));
+}
+
+export function tilingFromJson(W: number, H: number, json: string): Tiling {
+  const raw = JSON.parse(json) as unknown;
+  if (!Array.isArray(raw)) throw new Error('stored squares are not a list');
+  return {
+    W,
+    H,
+    squares: raw.map((r: unknown) => {
+      if (!Array.isArray(r) || r.length !== 3) throw new Error('stored square is not [x,y,s]');
+      return { x: Number(r[0]), y: Number(r[1]), s: Number(r[2]) };
+    }),
+  };
+}

@@ -1,0 +1,24 @@
+import type { AppDeps } from './platform/deps';
+import { seedDemoStock } from './areas/intake/demo-seed';
+import { seedDemoFoundry } from './areas/foundry/demo-seed';
+import { seedDemoPayouts } from './areas/payouts/demo-seed';
+import { seedDemoEditions } from './areas/editions/proofs';
+import { seedDemoPublications } from './areas/editions/publications';
+import { seedDemoPuzzles } from './areas/puzzles/demo-seed';
+
+// Demo seeders of each area, run in this order on a new database in demo mode, after the
+// four demo accounts exist (find them by e-mail in demoAccounts, server/demo/accounts.ts).
+// Add one line per area: { name: 'publications', seed: seedDemoPublications }.
+export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> | void };
+
+export const seeders: DemoSeeder[] = [
+  // stock first: puzzles and editions are made from stock tilings
+  { name: 'stock', seed: seedDemoStock },
+  { name: 'foundry', seed: seedDemoFoundry },
+  { name: 'publications', seed: seedDemoPublications },
+  { name: 'puzzles', seed: seedDemoPuzzles },
+  // editions after the puzzles seeder (it drives the proof round with printable puzzles)
+  { name: 'editions', seed: seedDemoEditions },
+  // keep payouts last: it pays what earlier seeders' published editions earned
+  { name: 'payouts', seed: seedDemoPayouts },
+];

@@ -1,0 +1,89 @@
+import type { Role } from '../../../shared/contracts/common';
+
+// THE table of which role may call what. Every route registered through
+// server/http/route.ts must have an entry here (`METHOD /path` exactly as registered),
+// or the app refuses to start. 'public' = no session needed; 'signed-in' = any role.
+// An admin may do everything an editor may (see `isAllowed`).
+// Areas: add your lines in your own block, keep them sorted by path.
+
+export type Access = 'public' | 'signed-in' | readonly Role[];
+
+export const permissions: Record<string, Access> = {
+  // foundation
+  'GET /api/health': 'public',
+  'GET /api/public/config': 'public',
+  'GET /api/openapi.json': 'public',
+  'GET /api/me': 'signed-in',
+  'POST /api/invitations': ['admin'],
+  'GET /api/invitations/:token': 'public',
+  'POST /api/invitations/:token/accept': 'public',
+  'GET /api/admin/users': ['admin'],
+  'PATCH /api/admin/users/:id': ['admin'],
+  'GET /api/mailbox': ['admin'],
+  'GET /api/mailbox/:id': ['admin'],
+  // payouts and earnings (setters' fees)
+  'GET /api/earnings': ['setter'],
+  'POST /api/earnings/payout-details': ['setter'],
+  'GET /api/earnings/statements/:month': ['setter'],
+  'GET /api/earnings/statements/:month.csv': ['setter'],
+  'POST /api/earnings/statements/:month/send': ['setter'],
+  'POST /api/ledger/corrections': ['editor'],
+  'POST /api/payments/webhook': 'public',
+  'GET /api/payouts': ['editor'],
+  'POST /api/payouts/:id/retry': ['editor'],
+  'POST /api/payouts/runs': ['editor'],
+  // intake and stock (setters submit, editors review; printers see none of it)
+  'GET /api/stock': ['editor'],
+  'GET /api/stock/:id': ['editor'],
+  'GET /api/stock/:id/image.png': ['editor'],
+  'GET /api/stock/export.bkp': ['editor'],
+  'GET /api/stock/export.csv': ['editor'],
+  'GET /api/stock/summary': ['editor'],
+  // puzzles (editors make and prove them; printers and setters see none of it)
+  'POST /api/puzzles': ['editor'],
+  'GET /api/puzzles': ['editor'],
+  'GET /api/puzzles/:id': ['editor'],
+  'PATCH /api/puzzles/:id': ['editor'],
+  'POST /api/puzzles/:id/recheck': ['editor'],
+  'POST /api/puzzles/:id/cancel': ['editor'],
+  'GET /api/submissions': ['setter', 'editor'],
+  'POST /api/submissions': ['setter'],
+  'GET /api/submissions/:id': ['setter', 'editor'],
+  'POST /api/submissions/:id/accept': ['editor'],
+  'POST /api/submissions/:id/reject': ['editor'],
+  'POST /api/submissions/bulk': ['editor'],
+  'POST /api/submissions/upload': ['setter'],
+  'POST /api/tilings/check': ['setter', 'editor'],
+  // foundry (editors and admins only)
+  'GET /api/foundry/runs': ['editor'],
+  'POST /api/foundry/runs': ['editor'],
+  'GET /api/foundry/runs/:id': ['editor'],
+  'POST /api/foundry/runs/:id/cancel': ['editor'],
+  'GET /api/foundry/runs/:id/results': ['editor'],
+  // print: publications, page templates, editions and the proof round
+  'GET /api/editions': ['editor', 'printer'],
+  'POST /api/editions': ['editor'],
+  'GET /api/editions/:id': ['editor', 'printer'],
+  'PATCH /api/editions/:id': ['editor'],
+  'GET /api/editions/:id/checks': ['editor'],
+  'GET /api/editions/:id/press.pdf': ['editor', 'printer'],
+  'GET /api/editions/:id/preview.pdf': ['editor'],
+  'POST /api/editions/:id/proofs': ['editor'],
+  'GET /api/editions/:id/proofs/:version.pdf': ['editor', 'printer'],
+  'POST /api/editions/:id/proofs/:version/approve': ['printer'],
+  'POST /api/editions/:id/proofs/:version/return': ['printer'],
+  'POST /api/editions/:id/publish': ['editor'],
+  'GET /api/publications': ['editor'],
+  'POST /api/publications': ['admin'],
+  'PATCH /api/publications/:id': ['admin'],
+  'GET /api/templates': ['editor'],
+  'GET /api/templates/:id/sample.pdf': ['editor'],
+};
+
+export function isAllowed(access: Access, role: Role | null): boolean {
+  if (access === 'public') return true;
+  if (role === null) return false;
+  if (access === 'signed-in') return true;
+  if (access.includes(role)) return true;
+  return role === 'admin' && access.includes('editor');
+}

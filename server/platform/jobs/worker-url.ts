@@ -1,0 +1,29 @@
+import { existsSync } from 'node:fs';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fromRoot } from '../app-root';
+
+// Where the worker script lives. From source (tsx, vitest) this module is a .ts file and the
+// worker loads server/worker-entry.ts through tsx's loader; in the bundle
+// (vite build --ssr, see vite.config.ts rollupOptions.input) it is dist/server/job-worker.js.
+export interface WorkerSpec {
+  url: URL;
+  /** true when the entry is TypeScript source that needs the tsx loader */
+  source: boolean;
+}
+
+export function workerSpec(): WorkerSpec {
+  const here = fileURLToPath(import.meta.url);
+  if (here.endsWith('.ts')) {
+    return { url: new URL('../../worker-entry.ts', import.meta.url), source: true };
+  }
+  const bundled = fromRoot('dist', 'server', 'job-worker.js');
+  if (!existsSync(bundled)) throw new Error(`job worker bundle missing: ${bundled} (run npm run build)`);
+  return { url: pathToFileURL(bundled), source: false };
+}
+
+/** A data: URL module that registers tsx and then imports the TypeScript worker entry. */
+export function sourceBootstrap(entry: URL): URL {
+  const api = pathToFileURL(fromRoot('node_modules', 'tsx', 'dist', 'esm', 'api', 'index.mjs')).href;
+  const code = `import { register } from ${JSON.stringify(api)}; register(); await import(${JSON.stringify(entry.href)});`;
+  return new URL('data:text/javascript,' + encodeURIComponent(code));
+}

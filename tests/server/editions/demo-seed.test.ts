@@ -1,0 +1,60 @@
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { user } from '../../../server/platform/auth/schema';
+import type { PuzzleForPrint } from '../../../server/areas/editions/editions';
+import { listEditions } from '../../../server/areas/editions/editions';
+import { saturdayOnOrAfter, seedDemoEditions } from '../../../server/areas/editions/proofs';
+import { listPublications, seedDemoPublications } from '../../../server/areas/editions/publications';
+import { createTestApp, type TestApp } from '../helpers/test-app';
+import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp({ demo: true });
+});
+afterAll(() => t.close());
+
+const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
+
+describe('print demo data', () => {
+  it('seeds the two Larkspur & Quill publications', () => {
+    seedDemoPublications(t.deps);
+    seedDemoPublications(t.deps); // a second run adds nothing
+    expect(listPublications(t.db).map((p) => `${p.title}|${p.cadence}|${p.templateId}`)).toEqual([
+      'Squared Away Monthly|monthly|a4',
+      'The Saturday Quadrant|weekly|newspaper-column',
+    ]);
+  });
+
+  it('drives a published edition and one in proof when puzzles are printable', async () => {
+    const setter = t.db.select({ id: user.id }).from(user).where(eq(user.email, 'setter@demo.squarewright.test')).get()!;
+    const tilings = [TILING_33x32, TILING_69x61, TILING_33x32, TILING_69x61];
+    const puzzles = tilings.map(
+      (tiling, i): PuzzleForPrint => ({
+        id: `demo-${i}`,
+        kind: 'assembly',
+        title: `Demo ${i}`,
+        grade: 1,
+        tilingKey: `k${i}`,
+        setterId: setter.id,
+        certificate: { current: true, summary: 'stub' },
+        assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [] },
+        solution: { tiling },
+      }),
+    );
+    t.deps.puzzlesForPrint = { getPuzzleForPrint: (_db, id) => puzzles.find((p) => p.id === id) ?? null, listPrintablePuzzleIds: () => puzzles.map((p) => p.id) };
+    await seedDemoEditions(t.deps);
+    const list = listEditions(t.deps, admin, {});
+    expect(list.map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort()).toEqual([
+      'Squared Away Monthly 12 draft',
+      'The Saturday Quadrant 40 published',
+      'The Saturday Quadrant 41 in_proof',
+      'The Saturday Quadrant 42 draft',
+    ]);
+    const n41 = list.find((e) => e.number === 41)!;
+    expect(n41.latestProofVersion).toBe(1);
+    // editions of a weekly column fall a week apart, on Saturdays (getUTCDay() 6)
+    expect(new Date(`${n41.date}T00:00:00Z`).getUTCDay()).toBe(6);
+    expect(saturdayOnOrAfter(new Date('2026-12-02T10:00:00Z')).toISOString().slice(0, 10)).toBe('2026-12-05');
+  });
+});
