@@ -7,7 +7,7 @@ import { all, create } from 'mathjs';
 import {
   canonicalCode,
   classifyTiling,
-  edgeList,
+  edgesOf,
   mulberry32,
   parseTiling,
   randomCNet,
@@ -72,7 +72,7 @@ function corpus(order: number, count: number, seed: number): { codes: string[]; 
   const seen = new Set<string>();
   for (let tries = 0; codes.length < count && tries < count * 20; tries++) {
     const g = randomCNet(order + 1, rng);
-    const es = edgeList(g);
+    const es = edgesOf(g);
     const [p, q] = es[Math.floor(rng() * es.length)]!;
     const r = solvePlaneNetwork(g, { p, q });
     if (!r.ok) continue;
@@ -120,7 +120,7 @@ for (const order of [10, 20, 30]) {
     const keep = [...Array(n.g.n).keys()].filter((v) => v !== n.q);
     const pos = new Map(keep.map((v, i) => [v, i]));
     const L = keep.map(() => keep.map(() => 0));
-    for (const [u, v] of edgeList(n.g)) {
+    for (const [u, v] of edgesOf(n.g)) {
       if ((u === n.p && v === n.q) || (u === n.q && v === n.p)) continue;
       for (const [a, b] of [[u, v], [v, u]] as const) {
         const ia = pos.get(a);

@@ -7,7 +7,7 @@
 // early abort as soon as a prefix exceeds the best. A 3-connected planar graph has a unique
 // embedding up to mirror image (Whitney), so this is a canonical code of the graph itself.
 // The starts that attain the minimum are exactly the automorphisms (reflections included).
-import type { RotationSystem } from './plane-graph';
+import { edgesOf, type PlaneGraph } from '../tiling/index';
 
 export interface CanonicalForm {
   /** [deg_0, nbrs_0..., deg_1, nbrs_1..., ...] in canonical numbering. */
@@ -29,7 +29,7 @@ interface Darts {
   tail: Int32Array;
 }
 
-function toDarts(g: RotationSystem): Darts {
+function toDarts(g: PlaneGraph): Darts {
   const n = g.n;
   const off = new Int32Array(n + 1);
   const deg = new Int32Array(n);
@@ -80,7 +80,7 @@ function ensure(n: number, len: number): void {
 }
 
 /** Canonical form; set `withMaps` to collect the automorphisms as permutations. */
-export function canonicalForm(g: RotationSystem, withMaps = false): CanonicalForm {
+export function canonicalForm(g: PlaneGraph, withMaps = false): CanonicalForm {
   const d = toDarts(g);
   const n = d.n;
   const D = d.head.length;
@@ -172,7 +172,7 @@ export function canonicalForm(g: RotationSystem, withMaps = false): CanonicalFor
 }
 
 /** The graph in canonical numbering, decoded from its code (vertex 0 dart 0 is the canonical start). */
-export function graphFromCode(code: ArrayLike<number>): RotationSystem {
+export function graphFromCode(code: ArrayLike<number>): PlaneGraph {
   const adj: number[][] = [];
   let p = 0;
   while (p < code.length) {
@@ -197,7 +197,7 @@ export function keyCode(key: string): Uint8Array {
 }
 
 /** Canonical key string of a plane graph (equal iff isomorphic as maps up to mirror). */
-export function canonicalGraphKey(g: RotationSystem): string {
+export function canonicalGraphKey(g: PlaneGraph): string {
   return codeKey(canonicalForm(g).code);
 }
 
@@ -205,12 +205,12 @@ export function canonicalGraphKey(g: RotationSystem): string {
  * Edge orbits under the automorphism group: one representative [u, v] (u < v) per orbit,
  * with the orbit size. Pole choices up to symmetry.
  */
-export function edgeOrbits(g: RotationSystem): { edge: [number, number]; size: number }[] {
+export function edgeOrbits(g: PlaneGraph): { edge: [number, number]; size: number }[] {
   const cf = canonicalForm(g, true);
   const n = g.n;
+  const edges = edgesOf(g);
   const id = new Map<number, number>();
-  const edges: [number, number][] = [];
-  for (let u = 0; u < n; u++) for (const v of g.adj[u]!) if (u < v) { id.set(u * n + v, edges.length); edges.push([u, v]); }
+  edges.forEach(([u, v], e) => id.set(u * n + v, e));
   const parent = edges.map((_, i) => i);
   const find = (x: number): number => {
     while (parent[x] !== x) { parent[x] = parent[parent[x]!]!; x = parent[x]!; }

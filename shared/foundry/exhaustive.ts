@@ -4,11 +4,11 @@
 // result is re-verified, classified and deduplicated by its canonical key (never by
 // dividing counts). (G, e) and (G*, e*) give the same rectangle turned a quarter turn, so of
 // a dual pair only the graph whose canonical code is not larger is solved [common practice].
-import { classifyTiling, solvePlaneNetwork } from '../tiling/index';
+import { classifyTiling, facesOf, solvePlaneNetwork, type PlaneGraph } from '../tiling/index';
 import { edgeOrbits } from './canonical-graph';
 import { graphFromKey, planeGraphsWithEdges } from './generate-graphs';
 import { describeTiling, type FoundTiling } from './found-tiling';
-import { facesOf, FoundryInputError, type RotationSystem } from './plane-graph';
+import { FoundryInputError } from './errors';
 
 export const MIN_ORDER = 5;
 export const MAX_EXHAUSTIVE_ORDER = 25;
@@ -46,7 +46,7 @@ export interface ExhaustiveSummary {
  * only two squares. The top and bottom sides meet deg(p) - 1 and deg(q) - 1 squares, the left
  * and right sides |f| - 1 for the two faces beside the pole edge.
  */
-export function passesGambini(g: RotationSystem, p: number, q: number, faceSizes: Map<string, number>): boolean {
+export function passesGambini(g: PlaneGraph, p: number, q: number, faceSizes: Map<string, number>): boolean {
   let threes = 0;
   if (g.adj[p]!.length === 3) threes++;
   if (g.adj[q]!.length === 3) threes++;
@@ -55,7 +55,7 @@ export function passesGambini(g: RotationSystem, p: number, q: number, faceSizes
   return threes <= 1;
 }
 
-function dartFaceSizes(g: RotationSystem): Map<string, number> {
+function dartFaceSizes(g: PlaneGraph): Map<string, number> {
   const m = new Map<string, number>();
   for (const f of facesOf(g)) {
     for (let i = 0; i < f.length; i++) m.set(`${f[i]},${f[(i + 1) % f.length]}`, f.length);

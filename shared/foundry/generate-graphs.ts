@@ -4,7 +4,8 @@
 // code of the embedding. A chord between two non-consecutive vertices of a face of a
 // 3-connected plane graph is never a multiple edge (they would form a 2-cut).
 import { canonicalForm, codeKey, graphFromCode, keyCode } from './canonical-graph';
-import { dualOf, facesOf, FoundryInputError, splitFace, wheel, type RotationSystem } from './plane-graph';
+import { dualOf, facesOf, splitFace, wheel, type PlaneGraph } from '../tiling/index';
+import { FoundryInputError } from './errors';
 
 export interface GeneratedGraph {
   /** Canonical code as a string (one char per code entry). */
@@ -25,16 +26,16 @@ export interface GenerateOptions {
 export const MIN_EDGES = 6;
 export const MAX_EDGES = 40;
 
-function canonKey(g: RotationSystem): string {
+function canonKey(g: PlaneGraph): string {
   return codeKey(canonicalForm(g).code);
 }
 
-export function graphFromKey(key: string): RotationSystem {
+export function graphFromKey(key: string): PlaneGraph {
   return graphFromCode(keyCode(key));
 }
 
 /** Every face split of g (chords between non-consecutive vertices of faces of size >= 4). */
-export function* faceSplits(g: RotationSystem): Generator<RotationSystem> {
+export function* faceSplits(g: PlaneGraph): Generator<PlaneGraph> {
   for (const f of facesOf(g)) {
     const k = f.length;
     if (k < 4) continue;

@@ -1,6 +1,7 @@
 // The foundry's public API: graph generation, exhaustive and random tilings, joining.
-export type { RotationSystem } from './plane-graph';
-export { FoundryInputError, dualOf, edgeCount, edgesOf, facesOf, splitFace, wheel } from './plane-graph';
+// Plane graphs (faces, dual, face split, wheel) and random c-nets are the tiling engine's
+// (shared/tiling/index.ts); the foundry builds on them.
+export { FoundryInputError } from './errors';
 export { canonicalForm, canonicalGraphKey, edgeOrbits, graphFromCode } from './canonical-graph';
 export type { CanonicalForm } from './canonical-graph';
 export { countPlaneGraphs, faceSplits, graphFromKey, planeGraphsWithEdges, MAX_EDGES, MIN_EDGES } from './generate-graphs';
@@ -9,7 +10,7 @@ export type { FoundTiling } from './found-tiling';
 export { describeTiling } from './found-tiling';
 export { exhaustiveTilings, passesGambini, MAX_EXHAUSTIVE_ORDER, MIN_ORDER } from './exhaustive';
 export type { ExhaustiveOptions, ExhaustiveSummary } from './exhaustive';
-export { randomPlaneGraph, randomTilings, MAX_RANDOM_ORDER, MIN_RANDOM_ORDER } from './random-tilings';
+export { randomTilings, MAX_RANDOM_ORDER, MIN_RANDOM_ORDER } from './random-tilings';
 export type { RandomOptions, RandomSummary } from './random-tilings';
 export { joinCornerToCorner, joinOverlapping, joinStock } from './joining';
 export type { JoinOptions, JoinPart, JoinSummary } from './joining';

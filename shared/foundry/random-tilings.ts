@@ -1,11 +1,10 @@
-// Random simple perfect squared rectangles (engine.md 6.3): start from a wheel W_k, k >= 4
-// (K4 admits neither a face split nor a vertex split), add random face splits or vertex
-// splits (a face split of the dual, dualised back) up to m = n + 1 edges, pick a random pole
-// edge, solve exactly, classify, filter. Not uniform over graphs; reproducible from the seed
-// (mulberry32).
-import { classifyTiling, solvePlaneNetwork } from '../tiling/index';
+// Random simple perfect squared rectangles (engine.md 6.3): a random c-net with m = n + 1
+// edges from the tiling engine (randomCNet: a wheel grown by random face and vertex splits),
+// a random pole edge, an exact solve, classify, filter. Not uniform over graphs; reproducible
+// from the seed (mulberry32).
+import { classifyTiling, edgesOf, randomCNet, solvePlaneNetwork } from '../tiling/index';
+import { FoundryInputError } from './errors';
 import { describeTiling, type FoundTiling } from './found-tiling';
-import { dualOf, edgeCount, edgesOf, facesOf, FoundryInputError, splitFace, wheel, type RotationSystem } from './plane-graph';
 import { mulberry32, randomInt } from './prng';
 
 export const MAX_RANDOM_ORDER = 40;
@@ -43,40 +42,6 @@ export interface RandomSummary {
   exhaustedTries: boolean;
 }
 
-function randomChord(g: RotationSystem, rnd: () => number): RotationSystem | null {
-  const faces = facesOf(g).filter((f) => f.length >= 4);
-  if (faces.length === 0) return null;
-  const f = faces[randomInt(rnd, faces.length)]!;
-  const k = f.length;
-  for (;;) {
-    const i = randomInt(rnd, k);
-    const j = randomInt(rnd, k);
-    const d = Math.abs(i - j);
-    if (d >= 2 && d !== k - 1) return splitFace(g, f, Math.min(i, j), Math.max(i, j));
-  }
-}
-
-/** A random 3-connected plane graph with exactly m edges (m >= 8). */
-export function randomPlaneGraph(m: number, rnd: () => number): RotationSystem {
-  if (!Number.isInteger(m) || m < 8) throw new FoundryInputError('bad-edges', `randomPlaneGraph: m must be an integer >= 8, got ${m}`);
-  const k = 4 + randomInt(rnd, Math.floor(m / 2) - 3);
-  let g = wheel(k);
-  while (edgeCount(g) < m) {
-    if (rnd() < 0.5) {
-      const h = randomChord(g, rnd);
-      if (h) { g = h; continue; }
-    }
-    const h = randomChord(dualOf(g), rnd);
-    if (h) g = dualOf(h);
-    else {
-      const h2 = randomChord(g, rnd);
-      if (!h2) throw new Error('randomPlaneGraph: neither a face split nor a vertex split exists');
-      g = h2;
-    }
-  }
-  return g;
-}
-
 function validate(o: RandomOptions): void {
   const bad = (msg: string) => { throw new FoundryInputError('bad-random-options', `randomTilings: ${msg}`); };
   if (!Number.isInteger(o.count) || o.count < 1) bad(`count must be a positive integer, got ${o.count}`);
@@ -102,7 +67,7 @@ export function randomTilings(o: RandomOptions): RandomSummary {
     }
     s.tries++;
     const order = o.orderMin + randomInt(rnd, o.orderMax - o.orderMin + 1);
-    const g = randomPlaneGraph(order + 1, rnd);
+    const g = randomCNet(order + 1, rnd);
     const edges = edgesOf(g);
     const [p, q] = edges[randomInt(rnd, edges.length)]!;
     const r = solvePlaneNetwork(g, { p, q });

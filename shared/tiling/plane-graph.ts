@@ -1,4 +1,7 @@
-// Rotation systems (combinatorial embeddings) of plane graphs: validation, darts and faces.
+// Rotation systems (combinatorial embeddings) of plane graphs, the one implementation both
+// engines use: validation with darts and faces (analysePlaneGraph, for outside input), and the
+// fast operations on trusted graphs (faces, planar dual, face split, wheel) that the foundry's
+// generation runs millions of times.
 // Face tracing rule: the dart after (u -> v) is (v -> w), w = the neighbour after u in adj[v]
 // (common practice for rotation systems; Mohar & Thomassen, "Graphs on Surfaces", 3.2).
 
@@ -116,4 +119,96 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
     };
   }
   return { ok: true, darts: { tail, head, first, rev, face, faceNext, faceFirst: faceFirst.subarray(0, faceCount), faceCount, edgeCount: E } };
+}
+
+// ---- Operations on trusted rotation systems (no validation; callers pass plane graphs) ----
+
+export function edgeCount(g: PlaneGraph): number {
+  let s = 0;
+  for (const a of g.adj) s += a.length;
+  return s / 2;
+}
+
+/** Every undirected edge once, as [u, v] with u < v, in vertex order. */
+export function edgesOf(g: PlaneGraph): [number, number][] {
+  const out: [number, number][] = [];
+  for (let u = 0; u < g.n; u++) for (const v of g.adj[u] ?? []) if (u < v) out.push([u, v]);
+  return out;
+}
+
+/**
+ * Traces every face once, starting each at its first dart in vertex order:
+ * faces[f] = a_0, a_1, ... with darts a_t -> a_(t+1), and faceOfDart[u][i] = the face of the
+ * dart u -> adj[u][i]. The face numbering is the one analysePlaneGraph gives.
+ */
+function traceFaces(g: PlaneGraph): { faces: number[][]; faceOfDart: Int32Array[] } {
+  const faceOfDart = g.adj.map((a) => new Int32Array(a.length).fill(-1));
+  const faces: number[][] = [];
+  for (let u0 = 0; u0 < g.n; u0++) {
+    for (let i0 = 0; i0 < g.adj[u0]!.length; i0++) {
+      if (faceOfDart[u0]![i0] !== -1) continue;
+      const f = faces.length;
+      const face: number[] = [];
+      let u = u0;
+      let i = i0;
+      while (faceOfDart[u]![i] === -1) {
+        faceOfDart[u]![i] = f;
+        face.push(u);
+        const v = g.adj[u]![i]!;
+        const av = g.adj[v]!;
+        i = (av.indexOf(u) + 1) % av.length;
+        u = v;
+      }
+      faces.push(face);
+    }
+  }
+  return { faces, faceOfDart };
+}
+
+/** Faces as vertex cycles: face[i] = a_0, a_1, ... with darts a_t -> a_(t+1). */
+export function facesOf(g: PlaneGraph): number[][] {
+  return traceFaces(g).faces;
+}
+
+/**
+ * The planar dual: one vertex per face (numbered as facesOf numbers them); the rotation of a
+ * face lists the faces across its boundary darts in traversal order [common practice].
+ */
+export function dualOf(g: PlaneGraph): PlaneGraph {
+  const { faces, faceOfDart } = traceFaces(g);
+  const adj = faces.map((face) =>
+    face.map((u, t) => {
+      const v = face[(t + 1) % face.length]!;
+      return faceOfDart[v]![g.adj[v]!.indexOf(u)]!;
+    }),
+  );
+  return { n: adj.length, adj };
+}
+
+/**
+ * Splits face `face` (as returned by facesOf) by a chord between its positions i and j
+ * (non-consecutive). Returns a new graph; the input is not changed. In a 3-connected plane
+ * graph such a chord is never a multiple edge (its ends would form a 2-cut) and the result is
+ * 3-connected again.
+ */
+export function splitFace(g: PlaneGraph, face: readonly number[], i: number, j: number): PlaneGraph {
+  const k = face.length;
+  const a = face[i]!;
+  const b = face[j]!;
+  const aPrev = face[(i - 1 + k) % k]!;
+  const bPrev = face[(j - 1 + k) % k]!;
+  const adj = g.adj.map((r) => r.slice());
+  const ra = adj[a]!;
+  ra.splice(ra.indexOf(aPrev) + 1, 0, b);
+  const rb = adj[b]!;
+  rb.splice(rb.indexOf(bPrev) + 1, 0, a);
+  return { n: g.n, adj };
+}
+
+/** The wheel W_k with k spokes: hub 0, rim 1..k, 2k edges; its faces are k triangles and the rim. */
+export function wheel(k: number): PlaneGraph {
+  if (!Number.isInteger(k) || k < 3) throw new RangeError(`wheel: k must be an integer >= 3, got ${k}`);
+  const adj: number[][] = [Array.from({ length: k }, (_, i) => i + 1)];
+  for (let i = 1; i <= k; i++) adj.push([0, i === 1 ? k : i - 1, i === k ? 1 : i + 1]);
+  return { n: k + 1, adj };
 }

@@ -1,11 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { canonicalKey, classifyTiling, parseTiling, solvePlaneNetwork, verifyTiling } from '../../../shared/tiling/index';
+import { canonicalKey, classifyTiling, dualOf, edgesOf, facesOf, parseTiling, solvePlaneNetwork, verifyTiling } from '../../../shared/tiling/index';
 import { canonicalForm, edgeOrbits } from '../../../shared/foundry/canonical-graph';
 import { exhaustiveTilings, passesGambini } from '../../../shared/foundry/exhaustive';
 import { graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
-import { dualOf, edgesOf, facesOf } from '../../../shared/foundry/plane-graph';
 import type { FoundTiling } from '../../../shared/foundry/found-tiling';
 
 // OEIS A002839: simple perfect squared rectangles of order n (squares included), n = 9..16.

@@ -1,41 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { canonicalForm, canonicalGraphKey, edgeOrbits } from '../../../shared/foundry/canonical-graph';
 import { countPlaneGraphs, graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
-import { dualOf, edgeCount, facesOf, wheel, type RotationSystem } from '../../../shared/foundry/plane-graph';
+import { dualOf, edgeCount, facesOf, wheel, type PlaneGraph } from '../../../shared/tiling/index';
 import { mulberry32 } from '../../../shared/foundry/prng';
+import { isThreeConnected } from '../tiling/helpers';
 
 // OEIS A002840: number of 3-connected planar (polyhedral) graphs with n edges, n = 6..22.
 const A002840 = [1, 0, 1, 2, 2, 4, 12, 22, 58, 158, 448, 1342, 4199, 13384, 43708, 144810, 485704];
 
-function isConnectedWithout(g: RotationSystem, removed: Set<number>): boolean {
-  const start = [...Array(g.n).keys()].find((v) => !removed.has(v));
-  if (start === undefined) return true;
-  const seen = new Set<number>([start]);
-  const stack = [start];
-  while (stack.length > 0) {
-    const v = stack.pop()!;
-    for (const w of g.adj[v]!) if (!removed.has(w) && !seen.has(w)) { seen.add(w); stack.push(w); }
-  }
-  return seen.size === g.n - removed.size;
-}
-
-/** Brute force: simple, >= 4 vertices, and no vertex set of size <= 2 disconnects it. */
-function isThreeConnected(g: RotationSystem): boolean {
-  if (g.n < 4) return false;
-  for (let v = 0; v < g.n; v++) {
-    const a = g.adj[v]!;
-    if (new Set(a).size !== a.length || a.includes(v)) return false;
-    for (const w of a) if (!g.adj[w]!.includes(v)) return false;
-  }
-  if (!isConnectedWithout(g, new Set())) return false;
-  for (let a = 0; a < g.n; a++) {
-    if (!isConnectedWithout(g, new Set([a]))) return false;
-    for (let b = a + 1; b < g.n; b++) if (!isConnectedWithout(g, new Set([a, b]))) return false;
-  }
-  return true;
-}
-
-function relabel(g: RotationSystem, seed: number, mirror: boolean): RotationSystem {
+function relabel(g: PlaneGraph, seed: number, mirror: boolean): PlaneGraph {
   const rnd = mulberry32(seed);
   const perm = [...Array(g.n).keys()];
   for (let i = perm.length - 1; i > 0; i--) {
@@ -102,7 +75,7 @@ describe('canonical code of an embedding', () => {
     // and the dihedral group of order 2k of the wheel W_k, k >= 4: handbook values (from memory).
     expect(canonicalForm(wheel(3)).automorphisms).toBe(24);
     expect(canonicalForm(dualOf(dualOf(wheel(3)))).automorphisms).toBe(24);
-    const cube: RotationSystem = {
+    const cube: PlaneGraph = {
       n: 8,
       // outer square 0-1-2-3, inner square 4-5-6-7, spokes i <-> i+4; one consistent sense
       adj: [[1, 4, 3], [2, 5, 0], [3, 6, 1], [0, 7, 2], [0, 5, 7], [1, 6, 4], [2, 7, 5], [3, 4, 6]],
@@ -129,6 +102,6 @@ describe('canonical code of an embedding', () => {
 });
 
 /** Euler characteristic check helper for a hand-written embedding: V - E + F. */
-function g3(g: RotationSystem): number {
+function g3(g: PlaneGraph): number {
   return g.n - edgeCount(g) + facesOf(g).length;
 }

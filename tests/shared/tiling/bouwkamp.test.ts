@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { canonicalCode, edgeList, mulberry32, parseTiling, randomCNet, solvePlaneNetwork, toBouwkamp, toTableCode } from '../../../shared/tiling/index';
+import { canonicalCode, edgesOf, mulberry32, parseTiling, randomCNet, solvePlaneNetwork, toBouwkamp, toTableCode } from '../../../shared/tiling/index';
 import { O24_175, O9_33x32, catalogue, withoutCaption, greedyTiling } from './helpers';
 
 describe('toBouwkamp', () => {
@@ -34,7 +34,7 @@ describe('toBouwkamp', () => {
     let n = 0;
     while (n < 150) {
       const g = randomCNet(10 + Math.floor(rng() * 31), rng);
-      const es = edgeList(g);
+      const es = edgesOf(g);
       const [p, q] = es[Math.floor(rng() * es.length)]!;
       const r = solvePlaneNetwork(g, { p, q });
       if (!r.ok) continue;

@@ -1,7 +1,7 @@
 // Shared test data for the tiling engine tests. Sources are named beside each value.
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Tiling } from '../../../shared/tiling/index';
+import type { PlaneGraph, Tiling } from '../../../shared/tiling/index';
 
 const dir = join(import.meta.dirname, '../../fixtures/catalogue');
 
@@ -44,4 +44,36 @@ export function greedyTiling(W: number, H: number, picks: number[]): Tiling {
     squares.push({ x, y, s });
   }
   return { W, H, squares };
+}
+
+function connectedWithout(g: PlaneGraph, removed: ReadonlySet<number>): boolean {
+  const start = [...Array(g.n).keys()].find((v) => !removed.has(v));
+  if (start === undefined) return true;
+  const seen = new Set<number>([start]);
+  const stack = [start];
+  while (stack.length > 0) {
+    const v = stack.pop()!;
+    for (const w of g.adj[v]!) if (!removed.has(w) && !seen.has(w)) { seen.add(w); stack.push(w); }
+  }
+  return seen.size === g.n - removed.size;
+}
+
+/**
+ * Brute force, independent of the engines: simple (no loop, no repeated neighbour, symmetric
+ * lists), at least 4 vertices, and no set of at most 2 vertices disconnects it (the definition
+ * of 3-connectedness; Tutte).
+ */
+export function isThreeConnected(g: PlaneGraph): boolean {
+  if (g.n < 4) return false;
+  for (let v = 0; v < g.n; v++) {
+    const a = g.adj[v]!;
+    if (new Set(a).size !== a.length || a.includes(v)) return false;
+    for (const w of a) if (!g.adj[w]!.includes(v)) return false;
+  }
+  if (!connectedWithout(g, new Set())) return false;
+  for (let a = 0; a < g.n; a++) {
+    if (!connectedWithout(g, new Set([a]))) return false;
+    for (let b = a + 1; b < g.n; b++) if (!connectedWithout(g, new Set([a, b]))) return false;
+  }
+  return true;
 }

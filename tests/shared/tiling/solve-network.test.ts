@@ -4,9 +4,9 @@ import {
   canonicalCode,
   checkKirchhoff,
   countSpanningTrees,
-  dual,
-  faces,
-  edgeList,
+  dualOf,
+  edgesOf,
+  facesOf,
   mulberry32,
   parseTiling,
   randomCNet,
@@ -75,7 +75,7 @@ function reducedLaplacian(g: PlaneGraph, p: number, q: number) {
   const keep = [...Array(g.n).keys()].filter((v) => v !== q);
   const pos = new Map(keep.map((v, i) => [v, i]));
   const L = keep.map(() => keep.map(() => 0));
-  for (const [u, v] of edgeList(g)) {
+  for (const [u, v] of edgesOf(g)) {
     if ((u === p && v === q) || (u === q && v === p)) continue;
     for (const [a, b] of [[u, v], [v, u]] as const) {
       const ia = pos.get(a);
@@ -94,7 +94,7 @@ describe('solvePlaneNetwork against mathjs (exact fractions) on seeded random ne
     let solved = 0;
     for (let i = 0; i < 60; i++) {
       const g = randomCNet(10 + Math.floor(rng() * 31), rng);
-      const es = edgeList(g);
+      const es = edgesOf(g);
       const [p, q] = es[Math.floor(rng() * es.length)]!;
       const r = solvePlaneNetwork(g, { p, q });
       const { L, pos } = reducedLaplacian(g, p, q);
@@ -127,7 +127,7 @@ describe('deletion-contraction: tau(G) = tau(G - e) + tau(G / e) (engine.md test
     let checked = 0;
     for (let i = 0; i < 20; i++) {
       const g = randomCNet(8 + Math.floor(rng() * 20), rng);
-      const es = edgeList(g);
+      const es = edgesOf(g);
       const tau = countSpanningTrees(g.n, es);
       for (const [p, q] of es) {
         const r = solvePlaneNetwork(g, { p, q });
@@ -146,13 +146,13 @@ describe('duality: (G, e) and (G*, e*) give the same rectangle turned 90 degrees
     let checked = 0;
     for (let i = 0; i < 40; i++) {
       const g = randomCNet(9 + Math.floor(rng() * 20), rng);
-      const es = edgeList(g);
+      const es = edgesOf(g);
       const [p, q] = es[Math.floor(rng() * es.length)]!;
       const r = solvePlaneNetwork(g, { p, q });
       if (!r.ok) continue;
-      const fs = faces(g);
-      const faceOf = (u: number, v: number) => fs.findIndex((f) => f.some(([a, b]) => a === u && b === v));
-      const d = solvePlaneNetwork(dual(g), { p: faceOf(p, q), q: faceOf(q, p) });
+      const fs = facesOf(g);
+      const faceOf = (u: number, v: number) => fs.findIndex((f) => f.some((a, i) => a === u && f[(i + 1) % f.length] === v));
+      const d = solvePlaneNetwork(dualOf(g), { p: faceOf(p, q), q: faceOf(q, p) });
       if (!d.ok) throw new Error(d.message);
       expect(canonicalCode(d.tiling)).toBe(canonicalCode(r.tiling));
       expect([d.tiling.W, d.tiling.H]).toEqual([r.tiling.H, r.tiling.W]);
@@ -173,7 +173,8 @@ describe('solvePlaneNetwork: rejections', () => {
     const g = wheel(4);
     expect(solvePlaneNetwork(g, { p: 0, q: 0 })).toMatchObject({ ok: false, code: 'bad-pole' });
     expect(solvePlaneNetwork(g, { p: 0, q: 9 })).toMatchObject({ ok: false, code: 'bad-pole' });
-    expect(solvePlaneNetwork(g, { p: 0, q: 2 })).toMatchObject({ ok: false, code: 'bad-pole', message: 'there is no edge between the poles 0 and 2' });
+    // rim vertices 1 and 3 of W_4 (hub 0) face each other across the hub
+    expect(solvePlaneNetwork(g, { p: 1, q: 3 })).toMatchObject({ ok: false, code: 'bad-pole', message: 'there is no edge between the poles 1 and 3' });
   });
 
   it('a pole edge that is a bridge leaves G - e disconnected', () => {
@@ -187,9 +188,9 @@ describe('solvePlaneNetwork: rejections', () => {
     // K5 is not planar: no rotation system satisfies Euler's formula
     const k5: PlaneGraph = { n: 5, adj: [0, 1, 2, 3, 4].map((v) => [0, 1, 2, 3, 4].filter((u) => u !== v)) };
     expect(solvePlaneNetwork(k5, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'not-plane' });
-    // the wheel with one rim vertex turned the other way round
+    // the wheel with one rim vertex (hub 0, rim 1..5) turned the other way round
     const w = wheel(5);
-    w.adj[0]!.reverse();
+    w.adj[1]!.reverse();
     expect(solvePlaneNetwork(w, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'not-plane' });
     expect(solvePlaneNetwork({ n: 2, adj: [[1], []] }, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'not-plane' });
     expect(solvePlaneNetwork({ n: 2, adj: [[1, 1], [0, 0]] }, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'not-plane' });
@@ -212,7 +213,7 @@ describe('solvePlaneNetwork: rejections', () => {
     let solved = 0;
     for (let i = 0; i < 5; i++) {
       const g = randomCNet(40, rng);
-      const [p, q] = edgeList(g)[0]!;
+      const [p, q] = edgesOf(g)[0]!;
       const r = solvePlaneNetwork(g, { p, q });
       if (!r.ok) continue;
       const { L } = reducedLaplacian(g, p, q);
@@ -227,7 +228,7 @@ describe('solvePlaneNetwork: rejections', () => {
 
   it('a reduced rectangle beyond 2^31 per side is refused as too large', () => {
     const g = randomCNet(56, mulberry32(9));
-    const [p, q] = edgeList(g)[0]!;
+    const [p, q] = edgesOf(g)[0]!;
     expect(solvePlaneNetwork(g, { p, q })).toMatchObject({ ok: false, code: 'too-large' });
   });
 });

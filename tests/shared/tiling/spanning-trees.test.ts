@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bareissDeterminant, countSpanningTrees, edgeList, mulberry32, parseTiling, randomCNet, sparseSymmetricDeterminant, tilingSpanningTrees } from '../../../shared/tiling/index';
+import { bareissDeterminant, countSpanningTrees, edgesOf, mulberry32, parseTiling, randomCNet, sparseSymmetricDeterminant, tilingSpanningTrees } from '../../../shared/tiling/index';
 import { O21_112, O9_33x32, O9_69x61 } from './helpers';
 
 const complete = (n: number) => {
@@ -43,7 +43,7 @@ describe('large c-nets: sparse elimination modulo primes + Chinese remainder the
     const rng = mulberry32(31);
     for (let i = 0; i < 8; i++) {
       const g = randomCNet(60 + Math.floor(rng() * 200), rng);
-      const edges = edgeList(g);
+      const edges = edgesOf(g);
       const diag = Array.from({ length: g.n - 1 }, () => 0);
       const L = Array.from({ length: g.n - 1 }, () => Array.from({ length: g.n - 1 }, () => 0));
       const off: [number, number, number][] = [];
