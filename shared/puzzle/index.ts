@@ -37,9 +37,9 @@ export { WeightedUnionFind } from './deduction-knowledge';
 /** layoutGraph / tilingLayout: maximal segments in both directions and each cell's four sides. */
 export { layoutGraph, tilingLayout } from './layout-graph';
 export type { LayoutGraph, LayoutRect, LayoutSegment } from './layout-graph';
-/** notToScaleLayout(tiling, box): monotone even remap of the coordinates; sameSmithDiagram(tiling, drawing): the check. */
-export { notToScaleLayout, sameSmithDiagram } from './not-to-scale';
-export type { NotToScaleDrawing } from './not-to-scale';
+/** notToScaleLayout(tiling, box): monotone even remap of the coordinates; notToScaleRects: the same as { W, H, rects } for print; sameSmithDiagram(tiling, drawing): the check. */
+export { notToScaleLayout, notToScaleRects, sameSmithDiagram } from './not-to-scale';
+export type { NotToScaleBox, NotToScaleDrawing, NotToScaleRects } from './not-to-scale';
 
 // ---- Certificates ---------------------------------------------------------------------
 /** certify(input, options): run the engine and issue a certificate; recheckCertificate: recompute and compare; isCertificateCurrent: engine version matches. */

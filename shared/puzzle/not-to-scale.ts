@@ -10,18 +10,26 @@ export interface NotToScaleDrawing {
   rects: LayoutRect[];
 }
 
+/** The drawing box: `width` and `height`, or else `step` units per grid step (default 10). */
+export interface NotToScaleBox {
+  width?: number;
+  height?: number;
+  step?: number;
+}
+
 /**
  * Remap the distinct x and the distinct y coordinates of the tiling monotonically onto an
  * even grid (the j-th distinct x goes to j * width / (count - 1)): the order of every
  * coordinate is kept, so every adjacency (and every cross) survives, but the lengths no
- * longer give the sizes away. `width` and `height` set the drawing box (default: 10 units
- * per grid step).
+ * longer give the sizes away. `width` and `height` set the drawing box (default: `step`
+ * units per grid step, 10 unless given).
  */
-export function notToScaleLayout(t: Tiling, box: { width?: number; height?: number } = {}): NotToScaleDrawing {
+export function notToScaleLayout(t: Tiling, box: NotToScaleBox = {}): NotToScaleDrawing {
   const xs = [...new Set(t.squares.flatMap((q) => [q.x, q.x + q.s]).concat([0, t.W]))].sort((a, b) => a - b);
   const ys = [...new Set(t.squares.flatMap((q) => [q.y, q.y + q.s]).concat([0, t.H]))].sort((a, b) => a - b);
-  const width = box.width ?? 10 * (xs.length - 1);
-  const height = box.height ?? 10 * (ys.length - 1);
+  const step = box.step ?? 10;
+  const width = box.width ?? step * (xs.length - 1);
+  const height = box.height ?? step * (ys.length - 1);
   const mx = new Map(xs.map((x, j) => [x, (j * width) / (xs.length - 1)]));
   const my = new Map(ys.map((y, j) => [y, (j * height) / (ys.length - 1)]));
   const rects = t.squares.map((q) => {
@@ -30,6 +38,20 @@ export function notToScaleLayout(t: Tiling, box: { width?: number; height?: numb
     return { x, y, w: mx.get(q.x + q.s)! - x, h: my.get(q.y + q.s)! - y };
   });
   return { width, height, rects };
+}
+
+/** The same drawing in the shape print reads (edition PDFs, puzzle images): box W x H and the cells. */
+export interface NotToScaleRects {
+  W: number;
+  H: number;
+  /** cell i draws square i of the tiling */
+  rects: LayoutRect[];
+}
+
+/** notToScaleLayout in print's shape { W, H, rects }. */
+export function notToScaleRects(t: Tiling, box: NotToScaleBox = {}): NotToScaleRects {
+  const d = notToScaleLayout(t, box);
+  return { W: d.width, H: d.height, rects: d.rects };
 }
 
 function describeDifference(a: LayoutGraph, b: LayoutGraph): string | null {

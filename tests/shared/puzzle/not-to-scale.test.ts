@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseTiling } from '../../../shared/tiling/index';
 import type { Tiling } from '../../../shared/tiling/index';
-import { notToScaleLayout, sameSmithDiagram } from '../../../shared/puzzle/not-to-scale';
+import { notToScaleLayout, notToScaleRects, sameSmithDiagram } from '../../../shared/puzzle/not-to-scale';
 import { catalogue } from './catalogue';
 
 // OEIS A014530; Duijvestijn 1978
@@ -54,5 +54,25 @@ describe('not-to-scale layout', () => {
     expect(res.same).toBe(false);
     const overlap = { ...d, rects: d.rects.map((r, i) => (i === 0 ? { ...r, w: r.w + 1 } : r)) };
     expect(sameSmithDiagram(t, overlap).same).toBe(false);
+  });
+
+  it("gives print's shape { W, H, rects }: the 33 x 32 on a grid of 4 units per step, worked by hand", () => {
+    // Moron's 33 x 32 (squaring.net catalogue): distinct x 0, 14, 18, 24, 25, 33 and distinct
+    // y 0, 15, 18, 22, 23, 32, so rank j goes to 4j and the box is 20 x 20.
+    const t = parseTiling('9 33 32 (18,15)(7,8)(14,4)(10,1)(9)');
+    const r = notToScaleRects(t, { step: 4 });
+    expect(r).toEqual({
+      W: 20,
+      H: 20,
+      rects: [
+        { x: 0, y: 0, w: 8, h: 8 }, { x: 8, y: 0, w: 12, h: 4 }, { x: 8, y: 4, w: 8, h: 8 },
+        { x: 16, y: 4, w: 4, h: 12 }, { x: 0, y: 8, w: 4, h: 12 }, { x: 4, y: 8, w: 4, h: 4 },
+        { x: 4, y: 12, w: 8, h: 8 }, { x: 12, y: 12, w: 4, h: 4 }, { x: 12, y: 16, w: 8, h: 4 },
+      ],
+    });
+    expect(sameSmithDiagram(t, { width: r.W, height: r.H, rects: r.rects })).toEqual({ same: true });
+    // the default grid is 10 units per step; an explicit box wins over the step
+    expect(notToScaleRects(t)).toMatchObject({ W: 50, H: 50 });
+    expect(notToScaleRects(t, { width: 66, height: 64, step: 4 })).toMatchObject({ W: 66, H: 64 });
   });
 });
