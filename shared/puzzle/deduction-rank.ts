@@ -1,3 +1,4 @@
+import { bareissRank } from '../tiling/index';
 import type { LayoutGraph } from './layout-graph';
 
 /**
@@ -60,36 +61,6 @@ export function kirchhoffSystem(layout: LayoutGraph, givens: readonly { square: 
   return { variables, rows, rhs };
 }
 
-/**
- * Exact rank of an integer matrix by fraction-free (Bareiss) elimination in BigInt: every
- * division is exact, so no rounding can hide a dependency (Bareiss, Math. Comp. 22 (1968)).
- */
-export function exactRank(rows: readonly (readonly number[])[]): number {
-  const a = rows.map((r) => r.map((v) => BigInt(v)));
-  const m = a.length;
-  const cols = m > 0 ? a[0]!.length : 0;
-  let rank = 0;
-  let prev = 1n;
-  for (let c = 0; c < cols && rank < m; c++) {
-    let p = -1;
-    for (let r = rank; r < m; r++) if (a[r]![c] !== 0n) { p = r; break; }
-    if (p < 0) continue;
-    if (p !== rank) { const t = a[p]!; a[p] = a[rank]!; a[rank] = t; }
-    const pr = a[rank]!;
-    const pv = pr[c]!;
-    for (let r = rank + 1; r < m; r++) {
-      const rr = a[r]!;
-      const f = rr[c]!;
-      for (let j = c + 1; j < cols; j++) rr[j] = (pv * rr[j]! - f * pr[j]!) / prev;
-      rr[c] = 0n;
-    }
-    // rows above the pivot row keep their old scale; Bareiss needs the same divisor for all
-    prev = pv;
-    rank++;
-  }
-  return rank;
-}
-
 export interface UniquenessProof {
   unique: boolean;
   rank: number;
@@ -99,6 +70,6 @@ export interface UniquenessProof {
 /** Uniqueness of the sizes, proved by rank: the system has one solution iff rank = unknowns. */
 export function proveUniqueByRank(layout: LayoutGraph, givens: readonly { square: number; size: number }[], showFrame: boolean): UniquenessProof {
   const sys = kirchhoffSystem(layout, givens, showFrame);
-  const rank = exactRank(sys.rows);
+  const rank = bareissRank(sys.rows);
   return { unique: rank === sys.variables.length, rank, unknowns: sys.variables.length };
 }

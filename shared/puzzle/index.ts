@@ -24,8 +24,8 @@ export type { GivensChoice, GivensOptions } from './deduction-givens';
 /** explainDeduction: synchronous rounds with the step list; isSolvable / knownAtFixedPoint: fast fixed point; squareLabel: A, B, ... AA. */
 export { explainDeduction, isSolvable, knownAtFixedPoint, squareLabel } from './deduction-propagate';
 export type { DeductionBoard, DeductionRules, DeductionRun, DeductionStep, StepTerm } from './deduction-propagate';
-/** proveUniqueByRank: rank of the Kirchhoff system with the givens fixed = unknowns; kirchhoffSystem: that system; exactRank: BigInt Bareiss rank. */
-export { proveUniqueByRank, kirchhoffSystem, exactRank } from './deduction-rank';
+/** proveUniqueByRank: rank of the Kirchhoff system with the givens fixed (by the tiling engine's bareissRank) = unknowns; kirchhoffSystem: that system. */
+export { proveUniqueByRank, kirchhoffSystem } from './deduction-rank';
 export type { LinearSystem, UniquenessProof } from './deduction-rank';
 /** gradeFromFeatures (1..5, formula in docs/decisions/020), gradeFeatures, levelNeeded; levelValue / levelName convert 'closure' <-> Infinity. */
 export { gradeFromFeatures, gradeFeatures, levelNeeded, levelValue, levelName } from './deduction-grade';

@@ -25,6 +25,33 @@ function maxAbs(m: number[][], from: number, cols: number): number {
   return best;
 }
 
+/** The first row from r down with a nonzero entry in column c, or -1. */
+function pivotRow(a: readonly bigint[][], r: number, c: number): number {
+  for (let i = r; i < a.length; i++) if (a[i]![c] !== 0n) return i;
+  return -1;
+}
+
+function swapRows<T>(a: T[], i: number, j: number): void {
+  const t = a[i]!;
+  a[i] = a[j]!;
+  a[j] = t;
+}
+
+/**
+ * One Bareiss step in BigInt: clears column c below the pivot a[r][c] (columns c..cols-1);
+ * each new entry is a minor of the input, so the division by the previous pivot is exact.
+ */
+function clearBelow(a: bigint[][], r: number, c: number, cols: number, prev: bigint): void {
+  const prow = a[r]!;
+  const p = prow[c]!;
+  for (let i = r + 1; i < a.length; i++) {
+    const row = a[i]!;
+    const f = row[c]!;
+    for (let j = c + 1; j < cols; j++) row[j] = (p * row[j]! - f * prow[j]!) / prev;
+    row[c] = 0n;
+  }
+}
+
 /**
  * Runs the elimination in place on an augmented matrix (k rows, `cols` columns, the first k
  * square). Returns the triangular rows (Number rows until `switchedAt`, BigInt rows after),
@@ -71,29 +98,40 @@ function eliminate(m0: number[][], k: number, cols: number) {
     big = m.map((row) => row.map((v) => BigInt(v)));
     prevB = BigInt(prevN);
     for (; step < k - 1; step++) {
-      if (big[step]![step] === 0n) {
-        let r = step + 1;
-        while (r < k && big[r]![step] === 0n) r++;
-        if (r === k) return { singular: true as const };
-        const t = big[r]!;
-        big[r] = big[step]!;
-        big[step] = t;
+      const r = pivotRow(big, step, step);
+      if (r < 0) return { singular: true as const };
+      if (r !== step) {
+        swapRows(big, r, step);
         sign = -sign;
       }
-      const prow = big[step]!;
-      const p = prow[step]!;
-      for (let i = step + 1; i < k; i++) {
-        const row = big[i]!;
-        const f = row[step]!;
-        for (let j = step + 1; j < cols; j++) row[j] = (p * row[j]! - f * prow[j]!) / prevB;
-        row[step] = 0n;
-      }
-      prevB = p;
+      clearBelow(big, step, step, cols, prevB);
+      prevB = big[step]![step]!;
     }
   }
   const last = big ? big[k - 1]![k - 1]! : BigInt(m[k - 1]![k - 1]!);
   if (last === 0n) return { singular: true as const };
   return { singular: false as const, m, big, sign, det: sign * last };
+}
+
+/**
+ * Exact rank of an integer matrix (any shape; copied, the input is not changed): BigInt
+ * elimination, a column without a pivot is skipped, so no rounding can hide a dependency.
+ */
+export function bareissRank(rows: readonly (readonly number[])[]): number {
+  const a = rows.map((r) => r.map((v) => BigInt(v)));
+  const cols = a.length > 0 ? a[0]!.length : 0;
+  let rank = 0;
+  let prev = 1n;
+  for (let c = 0; c < cols && rank < a.length; c++) {
+    const p = pivotRow(a, rank, c);
+    if (p < 0) continue;
+    if (p !== rank) swapRows(a, p, rank);
+    clearBelow(a, rank, c, cols, prev);
+    // rows above the pivot row keep their old scale; Bareiss needs the same divisor for all
+    prev = a[rank]![c]!;
+    rank++;
+  }
+  return rank;
 }
 
 /** Exact determinant of a square integer matrix (copied; the input is not changed). */

@@ -24,7 +24,7 @@ export { classifyTiling, isSimple, subRectangles, reduceTiling } from './classif
 export { canonicalTiling, canonicalCode, canonicalKey, orientations, readingOrder } from './orientations';
 export { toBouwkamp, toTableCode } from './bouwkamp';
 export { solvePlaneNetwork } from './solve-network';
-export { bareissDeterminant, bareissSolve, bareissSolveNumber } from './bareiss';
+export { bareissDeterminant, bareissRank, bareissSolve, bareissSolveNumber } from './bareiss';
 export { smithDiagram } from './smith-diagram';
 export { checkKirchhoff } from './kirchhoff';
 export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';

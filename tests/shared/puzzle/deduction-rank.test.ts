@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { all, create } from 'mathjs';
 import { parseTiling } from '../../../shared/tiling/index';
-import { exactRank, kirchhoffSystem, proveUniqueByRank } from '../../../shared/puzzle/deduction-rank';
+import { kirchhoffSystem, proveUniqueByRank } from '../../../shared/puzzle/deduction-rank';
 import { isSolvable } from '../../../shared/puzzle/deduction-propagate';
 import { tilingLayout } from '../../../shared/puzzle/layout-graph';
 import { mulberry32 } from '../../../shared/puzzle/prng';
@@ -17,38 +17,6 @@ function fullRankByMathjs(rows: number[][]): boolean {
   const ata = Array.from({ length: cols }, (_, i) => Array.from({ length: cols }, (_, j) => rows.reduce((acc, r) => acc + r[i]! * r[j]!, 0)));
   return det(ata) !== 0;
 }
-
-function rankByMinors(rows: number[][]): number {
-  // brute force: the largest r with a non-zero r x r minor (mathjs det), for small matrices
-  const m = rows.length;
-  const n = rows[0]!.length;
-  const subsets = (k: number, size: number): number[][] => {
-    if (size === 0) return [[]];
-    const out: number[][] = [];
-    for (let i = 0; i < k; i++) for (const rest of subsets(i, size - 1)) out.push([...rest, i]);
-    return out;
-  };
-  for (let r = Math.min(m, n); r > 0; r--) {
-    for (const rs of subsets(m, r)) for (const cs of subsets(n, r)) {
-      if (det(rs.map((i) => cs.map((j) => rows[i]![j]!))) !== 0) return r;
-    }
-  }
-  return 0;
-}
-
-describe('exact rank', () => {
-  it('equals the brute-force rank by minors (mathjs fractions) on seeded small integer matrices', () => {
-    const rnd = mulberry32(7);
-    for (let t = 0; t < 60; t++) {
-      const m = 2 + Math.floor(rnd() * 3);
-      const n = 2 + Math.floor(rnd() * 3);
-      const base = Array.from({ length: m }, () => Array.from({ length: n }, () => Math.floor(rnd() * 5) - 2));
-      // make some rows dependent on purpose
-      if (m > 2 && rnd() < 0.5) base[m - 1] = base[0]!.map((v, j) => 2 * v - base[1]![j]!);
-      expect(exactRank(base)).toBe(rankByMinors(base));
-    }
-  });
-});
 
 describe('rank proof of a Deduction puzzle', () => {
   it('the true sizes satisfy the Kirchhoff system (checked with mathjs multiply)', () => {

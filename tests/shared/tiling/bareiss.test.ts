@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { all, create } from 'mathjs';
-import { bareissDeterminant, bareissSolve, mulberry32 } from '../../../shared/tiling/index';
+import { bareissDeterminant, bareissRank, bareissSolve, mulberry32 } from '../../../shared/tiling/index';
 import { bareissSolveNumber } from '../../../shared/tiling/bareiss';
 
 // mathjs (exact BigNumber / Fraction arithmetic) as an independent oracle
@@ -54,5 +54,47 @@ describe('Bareiss fraction-free elimination (Bareiss, Math. Comp. 22 (1968))', (
   it('the Number path declines when products could pass 2^53', () => {
     expect(bareissSolveNumber([[2 ** 27, 1], [1, 2 ** 27]], [1, 1])).toBeNull();
     expect(bareissSolveNumber([[0, 1], [1, 0]], [1, 1])).toBeNull();
+  });
+});
+
+const fractionDet = (rows: number[][]) => Number(math.det(math.matrix(rows.map((r) => r.map((v) => math.fraction(v))))).valueOf());
+
+function rankByMinors(rows: number[][]): number {
+  // brute force: the largest r with a non-zero r x r minor (mathjs det), for small matrices
+  const m = rows.length;
+  const n = rows[0]!.length;
+  const subsets = (k: number, size: number): number[][] => {
+    if (size === 0) return [[]];
+    const out: number[][] = [];
+    for (let i = 0; i < k; i++) for (const rest of subsets(i, size - 1)) out.push([...rest, i]);
+    return out;
+  };
+  for (let r = Math.min(m, n); r > 0; r--) {
+    for (const rs of subsets(m, r)) for (const cs of subsets(n, r)) {
+      if (fractionDet(rs.map((i) => cs.map((j) => rows[i]![j]!))) !== 0) return r;
+    }
+  }
+  return 0;
+}
+
+describe('exact rank (Bareiss elimination, a column without a pivot skipped)', () => {
+  it('equals the brute-force rank by minors (mathjs fractions) on seeded small integer matrices', () => {
+    const rnd = mulberry32(7);
+    for (let t = 0; t < 60; t++) {
+      const m = 2 + Math.floor(rnd() * 3);
+      const n = 2 + Math.floor(rnd() * 3);
+      const base = Array.from({ length: m }, () => Array.from({ length: n }, () => Math.floor(rnd() * 5) - 2));
+      // make some rows dependent on purpose
+      if (m > 2 && rnd() < 0.5) base[m - 1] = base[0]!.map((v, j) => 2 * v - base[1]![j]!);
+      expect(bareissRank(base)).toBe(rankByMinors(base));
+    }
+  });
+
+  it('leaves its input as it was, and a zero or empty matrix has rank 0', () => {
+    const a = [[0, 2, 1], [0, 1, 1], [3, 0, 0]];
+    expect(bareissRank(a)).toBe(3);
+    expect(a).toEqual([[0, 2, 1], [0, 1, 1], [3, 0, 0]]);
+    expect(bareissRank([[0, 0], [0, 0]])).toBe(0);
+    expect(bareissRank([])).toBe(0);
   });
 });
