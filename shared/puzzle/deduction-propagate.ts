@@ -80,6 +80,18 @@ export function knownAtFixedPoint(board: DeductionBoard, givens: readonly number
   return Number.isFinite(rules.level) ? closureLocal(board, givens, rules) : closureUnionFind(board, givens, rules);
 }
 
+/**
+ * Sweeps the unknown cells in order, again and again, until a sweep learns nothing;
+ * `tryLearn(i)` says whether cell i became known.
+ */
+function sweepToFixedPoint(known: readonly boolean[], tryLearn: (i: number) => boolean): void {
+  let changed = true;
+  while (changed) {
+    changed = false;
+    for (let i = 0; i < known.length; i++) if (!known[i] && tryLearn(i)) changed = true;
+  }
+}
+
 function closureUnionFind(board: DeductionBoard, givens: readonly number[], rules: DeductionRules): boolean[] {
   const { layout, sizes } = board;
   const n = layout.cells.length;
@@ -97,19 +109,14 @@ function closureUnionFind(board: DeductionBoard, givens: readonly number[], rule
     uy.union(0, layout.horizontal.length - 1, layout.height);
   }
   for (const g of givens) if (!known[g]) learn(g, sizes[g]!);
-  let changed = true;
-  while (changed) {
-    changed = false;
-    for (let i = 0; i < n; i++) {
-      if (known[i]) continue;
-      const c = layout.cells[i]!;
-      const v = ux.relation(c.left, c.right) ?? uy.relation(c.top, c.bottom);
-      if (v === null) continue;
-      guard(board, i, v);
-      learn(i, v);
-      changed = true;
-    }
-  }
+  sweepToFixedPoint(known, (i) => {
+    const c = layout.cells[i]!;
+    const v = ux.relation(c.left, c.right) ?? uy.relation(c.top, c.bottom);
+    if (v === null) return false;
+    guard(board, i, v);
+    learn(i, v);
+    return true;
+  });
   return known;
 }
 
@@ -165,15 +172,12 @@ function closureLocal(board: DeductionBoard, givens: readonly number[], rules: D
     cy.add(0, layout.horizontal.length - 1);
   }
   for (const g of givens) if (!known[g]) learn(g);
-  let changed = true;
-  while (changed) {
-    changed = false;
-    for (let i = 0; i < n; i++) {
-      if (known[i]) continue;
-      const c = layout.cells[i]!;
-      if (cx.get(c.left, c.right) <= k || cy.get(c.top, c.bottom) <= k) { learn(i); changed = true; }
-    }
-  }
+  sweepToFixedPoint(known, (i) => {
+    const c = layout.cells[i]!;
+    if (cx.get(c.left, c.right) > k && cy.get(c.top, c.bottom) > k) return false;
+    learn(i);
+    return true;
+  });
   return known;
 }
 
