@@ -1,7 +1,7 @@
 import { toNodeHandler } from 'better-auth/node';
 import express, { type Express } from 'express';
 import { clientIpHeader } from './platform/auth/auth';
-import type { AppDeps } from './platform/deps';
+import type { AppDeps } from './app-deps';
 import { apiNotFound, errorHandler } from './platform/http/error-handler';
 import { createApiRouter, type ApiRouter } from './platform/http/route';
 import { areaRoutes } from './area-routes';

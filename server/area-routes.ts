@@ -1,21 +1,21 @@
-import type { AppDeps } from './platform/deps';
+import type { AppDeps } from './app-deps';
+import { registerAccountRoutes } from './areas/accounts/index';
+import { registerEditionRoutes, registerPublicationRoutes } from './areas/editions/index';
+import { registerFoundryRoutes } from './areas/foundry/index';
+import { registerTilingRoutes, registerSubmissionRoutes } from './areas/intake/index';
+import { registerMailboxRoutes } from './areas/mailbox/index';
+import { registerMoneyRoutes } from './areas/payouts/index';
+import { registerTemplateRoutes } from './areas/print/index';
+import { registerPuzzleRoutes } from './areas/puzzles/index';
+import { registerStockRoutes } from './areas/stock/index';
 import type { ApiRouter } from './platform/http/route';
-import { registerAccountRoutes } from './areas/accounts/routes';
-import { registerFoundationRoutes } from './platform/http/system-routes';
-import { registerFoundryRoutes } from './areas/foundry/routes';
-import { registerMoneyRoutes } from './areas/payouts/routes';
-import { registerStockRoutes } from './areas/stock/routes';
-import { registerSubmissionRoutes } from './areas/intake/routes';
-import { registerTilingRoutes } from './areas/intake/check-routes';
-import { registerEditionRoutes } from './areas/editions/routes';
-import { registerPublicationRoutes } from './areas/editions/publication-routes';
-import { registerTemplateRoutes } from './areas/print/routes';
-import { registerPuzzleRoutes } from './areas/puzzles/routes';
+import { registerSystemRoutes } from './platform/http/system-routes';
 
 // Every area's router, one line each (add yours). Each registers with route().
 export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
-  registerFoundationRoutes,
+  registerSystemRoutes,
   registerAccountRoutes,
+  registerMailboxRoutes,
   registerMoneyRoutes,
   registerTilingRoutes,
   registerSubmissionRoutes,

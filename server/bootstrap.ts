@@ -7,7 +7,7 @@ import { appRoot } from './platform/app-root';
 import { createApp } from './app';
 import { buildDeps } from './compose';
 import { closeDatabase, openDatabase } from './platform/db/client';
-import { demoAccounts, demoPassword } from './areas/accounts/demo-accounts';
+import { demoAccounts, demoPassword } from './areas/accounts/index';
 import { markDemoSeeded, resolveDemoMode, wasDemoSeeded } from './platform/db/demo-mode';
 import { seedDemo } from './demo-seed';
 import type { DemoSeeder } from './demo-seeders';
@@ -15,7 +15,8 @@ import { EnvError, loadEnv, type Env } from './platform/env';
 import { createLogger } from './platform/log';
 import { startFakeSmtp } from './platform/mail/fake-smtp';
 import { loadMailTemplates } from './platform/mail/templates';
-import { localFakes, type LocalFakeHandle } from './local-fakes';
+import { localFakes } from './local-fakes';
+import type { LocalFakeHandle } from './platform/local-fake';
 
 // Start-up shared by server/index.ts (production) and server/dev.ts (Vite middleware).
 

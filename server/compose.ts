@@ -1,13 +1,16 @@
 import { createAuth } from './platform/auth/auth';
 import { systemClock, type Clock } from './platform/clock';
 import type { Db } from './platform/db/client';
-import type { AppDeps } from './platform/deps';
+import type { AppDeps } from './app-deps';
+import { editionUsage } from './areas/editions/index';
+import { submissionHistory } from './areas/intake/index';
+import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
+import { createPuzzleSource, createStockUsage } from './areas/puzzles/index';
+import { stockPort } from './areas/stock/index';
 import type { Env } from './platform/env';
 import { createLogger, type Logger } from './platform/log';
 import { createMailSender, type MailSenderOptions } from './platform/mail/outbox';
 import { createSmtpTransport } from './platform/mail/transport';
-import { paymentsProviderFromEnv } from './areas/payouts/runtime';
-import { puzzleStore } from './areas/puzzles/puzzles';
 
 export type BuildDepsInput = {
   env: Env;
@@ -42,5 +45,17 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     onMailQueued: () => mail.kick(),
     ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
   });
-  return { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, payments: paymentsProviderFromEnv(input.env), puzzlesForPrint: puzzleStore };
+  const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log };
+  // The areas' ports, wired here and nowhere else: each area gets what it needs from the
+  // others as typed interfaces (see server/areas/<area>/ports.ts).
+  return {
+    ...platform,
+    stock: stockPort,
+    submissionHistory,
+    stockUsage: createStockUsage(editionUsage),
+    editionUsage,
+    puzzles: createPuzzleSource(stockPort),
+    fees: feeRecorder,
+    payments: paymentsProviderFromEnv(input.env),
+  };
 }

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { user } from './platform/auth/schema';
-import type { AppDeps } from './platform/deps';
-import { demoAccounts, demoPassword } from './areas/accounts/demo-accounts';
+import type { AppDeps } from './app-deps';
+import { demoAccounts, demoPassword } from './areas/accounts/index';
 import { seeders as defaultSeeders, type DemoSeeder } from './demo-seeders';
 
 /** Create the demo accounts (if missing), then run every area seeder in order. */

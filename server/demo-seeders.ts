@@ -1,13 +1,12 @@
-import type { AppDeps } from './platform/deps';
-import { seedDemoStock } from './areas/intake/demo-seed';
-import { seedDemoFoundry } from './areas/foundry/demo-seed';
-import { seedDemoPayouts } from './areas/payouts/demo-seed';
-import { seedDemoEditions } from './areas/editions/proofs';
-import { seedDemoPublications } from './areas/editions/publications';
-import { seedDemoPuzzles } from './areas/puzzles/demo-seed';
+import type { AppDeps } from './app-deps';
+import { seedDemoEditions, seedDemoPublications } from './areas/editions/index';
+import { seedDemoFoundry } from './areas/foundry/index';
+import { seedDemoStock } from './areas/intake/index';
+import { seedDemoPayouts } from './areas/payouts/index';
+import { seedDemoPuzzles } from './areas/puzzles/index';
 
 // Demo seeders of each area, run in this order on a new database in demo mode, after the
-// four demo accounts exist (find them by e-mail in demoAccounts, server/demo/accounts.ts).
+// four demo accounts exist (find them by e-mail in demoAccounts, server/areas/accounts/demo-accounts.ts).
 // Add one line per area: { name: 'publications', seed: seedDemoPublications }.
 export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> | void };
 

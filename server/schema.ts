@@ -1,5 +1,6 @@
 // Every area's tables, one export line per area file (add yours below).
 export * from './platform/auth/schema';
+export * from './areas/accounts/schema';
 export * from './platform/mail/schema';
 export * from './platform/db/schema';
 export * from './areas/payouts/schema';

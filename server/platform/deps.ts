@@ -4,14 +4,13 @@ import type { Db } from './db/client';
 import type { Env } from './env';
 import type { Logger } from './log';
 import type { MailSender } from './mail/outbox';
-import type { PaymentsProvider } from '../areas/payouts/provider';
-import type { PuzzleSource } from '../areas/editions/editions';
 
 /**
- * What the app is built from (createApp(deps)). Areas that need more (a payments
- * client...) add an optional field here with a small edit.
+ * The shared machinery every area may use. Each area adds what it needs from other areas
+ * (their ports) in its own `ports.ts` (`StockDeps`, `EditionsDeps`, ...); the composition
+ * root (server/compose.ts) builds one object that satisfies them all (`AppDeps`).
  */
-export type AppDeps = {
+export type PlatformDeps = {
   env: Env;
   /** resolved demo mode (DEMO, or "database was new") */
   demo: boolean;
@@ -20,8 +19,4 @@ export type AppDeps = {
   mail: MailSender & { transport: 'smtp' | 'local-fake' };
   clock: Clock;
   log: Logger;
-  /** payments provider (real, or the local fake); null when not configured */
-  payments?: PaymentsProvider | null;
-  /** print's view of the puzzle store (the puzzle area wires it); without it no puzzle can be slotted */
-  puzzlesForPrint?: PuzzleSource;
 };

@@ -2,8 +2,9 @@ import { and, eq, isNull } from 'drizzle-orm';
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type { InvitationLookup, SessionUser } from '../../../shared/contracts/auth';
 import type { Role } from '../../../shared/contracts/common';
-import type { AppDeps } from '../../platform/deps';
-import { invitation, user } from '../../platform/auth/schema';
+import type { PlatformDeps } from '../../platform/deps';
+import { user } from '../../platform/auth/schema';
+import { invitation } from './schema';
 import { Conflict, NotFound } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
 
@@ -16,7 +17,7 @@ export function hashToken(token: string): string {
   return createHash('sha256').update(token).digest('hex');
 }
 
-export function createInvitation(deps: AppDeps, inviter: SessionUser, input: { email: string; role: Role }) {
+export function createInvitation(deps: PlatformDeps, inviter: SessionUser, input: { email: string; role: Role }) {
   const now = deps.clock.now();
   const token = randomBytes(32).toString('base64url');
   const id = randomUUID();
@@ -46,7 +47,7 @@ export function createInvitation(deps: AppDeps, inviter: SessionUser, input: { e
   return { invitation: { id, email: input.email, role: input.role, expiresAt: expiresAt.toISOString() }, token };
 }
 
-function findByToken(deps: AppDeps, token: string) {
+function findByToken(deps: PlatformDeps, token: string) {
   return deps.db
     .select({ id: invitation.id, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt, acceptedAt: invitation.acceptedAt })
     .from(invitation)
@@ -54,7 +55,7 @@ function findByToken(deps: AppDeps, token: string) {
     .get();
 }
 
-export function lookupInvitation(deps: AppDeps, token: string): InvitationLookup {
+export function lookupInvitation(deps: PlatformDeps, token: string): InvitationLookup {
   const row = findByToken(deps, token);
   if (!row) throw new NotFound('This invitation link is not known.');
   if (row.acceptedAt) return { email: row.email, role: row.role, valid: false, reason: 'used' };
@@ -71,7 +72,7 @@ export function lookupInvitation(deps: AppDeps, token: string): InvitationLookup
  * Returns the Set-Cookie headers of the new session. If creating the user fails, the
  * claim is released so the link can be used again.
  */
-export async function acceptInvitation(deps: AppDeps, token: string, input: { name: string; password: string }) {
+export async function acceptInvitation(deps: PlatformDeps, token: string, input: { name: string; password: string }) {
   const row = findByToken(deps, token);
   if (!row) throw new NotFound('This invitation link is not known.');
   const now = deps.clock.now();

@@ -6,24 +6,38 @@ import {
   createInvitationResponseSchema,
   invitationLookupResponseSchema,
   invitationTokenParamSchema,
+  meResponseSchema,
+  publicConfigResponseSchema,
+  requestPasswordResetBodySchema,
+  resetPasswordBodySchema,
+  signInBodySchema,
 } from '../../../shared/contracts/auth';
-import { idParamSchema, numericIdParamSchema } from '../../../shared/contracts/common';
-import {
-  adminUserListResponseSchema,
-  mailboxListResponseSchema,
-  mailboxMessageResponseSchema,
-  updateUserBodySchema,
-  updateUserResponseSchema,
-} from '../../../shared/contracts/users';
-import { mailboxMessage } from '../../platform/mail/schema';
-import type { AppDeps } from '../../platform/deps';
-import { NotFound } from '../../platform/http/errors';
+import { idParamSchema } from '../../../shared/contracts/common';
+import { adminUserListResponseSchema, updateUserBodySchema, updateUserResponseSchema } from '../../../shared/contracts/users';
+import type { PlatformDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
+import { demoAccounts, demoPassword } from './demo-accounts';
 import { acceptInvitation, createInvitation, lookupInvitation } from './invitations';
 import { listUsers, updateUser } from './users';
 
-// Invitations, admin users, Mailbox (local).
-export function registerAccountRoutes(router: ApiRouter, deps: AppDeps) {
+// Who is signed in, the sign-in page's settings, invitations, admin users.
+export function registerAccountRoutes(router: ApiRouter, deps: PlatformDeps) {
+  route(router, { method: 'GET', path: '/api/public/config', summary: 'Public settings for the sign-in page', response: publicConfigResponseSchema }, () =>
+    deps.demo
+      ? { demo: true, demoAccounts: demoAccounts.map(({ email, role }) => ({ email, role })), demoPassword }
+      : { demo: false },
+  );
+
+  route(router, { method: 'GET', path: '/api/me', summary: 'The signed-in user', response: meResponseSchema }, ({ user }) => ({ user }));
+
+  // better-auth's endpoints the client uses (served by better-auth, documented here)
+  const authDoc = (path: string, summary: string, body?: typeof signInBodySchema | typeof requestPasswordResetBodySchema | typeof resetPasswordBodySchema) =>
+    router.openapi.add({ method: 'POST', path, summary, tags: ['auth'], access: 'public (better-auth)', ...(body ? { body } : {}) });
+  authDoc('/api/auth/sign-in/email', 'Sign in with e-mail and password (sets the session cookie; rate-limited)', signInBodySchema);
+  authDoc('/api/auth/sign-out', 'Sign out (ends the session)');
+  authDoc('/api/auth/request-password-reset', 'Mail a password-reset link', requestPasswordResetBodySchema);
+  authDoc('/api/auth/reset-password', 'Set a new password with the token from the mail', resetPasswordBodySchema);
+
   route(
     router,
     { method: 'POST', path: '/api/invitations', summary: 'Invite an e-mail with a role (sends a one-time link)', body: createInvitationBodySchema, response: createInvitationResponseSchema, status: 201 },
@@ -52,31 +66,5 @@ export function registerAccountRoutes(router: ApiRouter, deps: AppDeps) {
     router,
     { method: 'PATCH', path: '/api/admin/users/:id', summary: 'Change a user role or (de)activate them', params: idParamSchema, body: updateUserBodySchema, response: updateUserResponseSchema },
     ({ user, params, body }) => ({ user: updateUser(deps, user, params.id, body) }),
-  );
-
-  const summaryColumns = { id: mailboxMessage.id, from: mailboxMessage.from, to: mailboxMessage.to, subject: mailboxMessage.subject, receivedAt: mailboxMessage.receivedAt };
-
-  route(router, { method: 'GET', path: '/api/mailbox', summary: 'Mailbox (local): mails the local fake SMTP server caught', response: mailboxListResponseSchema }, () => ({
-    messages: deps.db
-      .select(summaryColumns)
-      .from(mailboxMessage)
-      .orderBy(desc(mailboxMessage.id))
-      .limit(500)
-      .all()
-      .map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() })),
-  }));
-
-  route(
-    router,
-    { method: 'GET', path: '/api/mailbox/:id', summary: 'Mailbox (local): one caught mail', params: numericIdParamSchema, response: mailboxMessageResponseSchema },
-    ({ params }) => {
-      const m = deps.db
-        .select({ ...summaryColumns, text: mailboxMessage.text, html: mailboxMessage.html })
-        .from(mailboxMessage)
-        .where(eq(mailboxMessage.id, params.id))
-        .get();
-      if (!m) throw new NotFound(`No caught mail ${params.id}.`);
-      return { message: { ...m, receivedAt: m.receivedAt.toISOString() } };
-    },
   );
 }

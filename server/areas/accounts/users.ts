@@ -2,7 +2,7 @@ import { asc, eq } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import { roleSchema } from '../../../shared/contracts/common';
 import type { AdminUser, UpdateUserBody } from '../../../shared/contracts/users';
-import type { AppDeps } from '../../platform/deps';
+import type { PlatformDeps } from '../../platform/deps';
 import { session, user } from '../../platform/auth/schema';
 import { Conflict, NotFound } from '../../platform/http/errors';
 
@@ -23,11 +23,11 @@ function toAdminUser(row: { id: string; email: string; name: string; role: strin
   };
 }
 
-export function listUsers(deps: AppDeps): AdminUser[] {
+export function listUsers(deps: PlatformDeps): AdminUser[] {
   return deps.db.select(columns).from(user).orderBy(asc(user.email)).all().map(toAdminUser);
 }
 
-export function updateUser(deps: AppDeps, actor: SessionUser, id: string, change: UpdateUserBody): AdminUser {
+export function updateUser(deps: PlatformDeps, actor: SessionUser, id: string, change: UpdateUserBody): AdminUser {
   return deps.db.transaction((tx) => {
     const row = tx.select(columns).from(user).where(eq(user.id, id)).get();
     if (!row) throw new NotFound(`No user ${id}.`);

@@ -21,50 +21,15 @@ import type { DbOrTx } from '../../platform/db/client';
 import { user as userTable } from '../../platform/auth/schema';
 import { edition, editionProof, editionSlot } from './schema';
 import { publication } from './publication-schema';
-import type { AppDeps } from '../../platform/deps';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
-import { renderEditionPdf } from '../print/render-edition';
-import { getPageTemplate } from '../print/templates';
-import type { EditionDocument, LayoutRect, PuzzlePrint, SolutionPrint, SolvedTiling } from '../print/types';
+import { getPageTemplate, renderEditionPdf, type EditionDocument, type PuzzlePrint, type SolutionPrint } from '../print/index';
+import type { EditionUsage } from '../puzzles/ports';
+import type { EditionsDeps, PuzzleForPrint } from './ports';
 import { getPublicationRow } from './publications';
 
 // Editions: dated issues of a publication with slots for puzzles, an introduction, and
 // the state machine draft -> in_proof -> approved -> published (a returned proof goes back
 // to draft). The proof round itself lives in services/proofs.ts.
-
-// ---- the puzzle store, as print needs it -----------------------------------------------
-
-/**
- * What print needs of one puzzle. The puzzle area implements PuzzleSource and wires it
- * into AppDeps.puzzlesForPrint; until then no puzzle can be slotted.
- */
-export type PuzzleForPrint = {
-  id: string;
-  kind: 'assembly' | 'deduction';
-  title: string;
-  grade: number;
-  /** the canonical key of the stock tiling it was made from (the reuse guard compares these) */
-  tilingKey: string;
-  /** who is paid when it is printed; null for tilings without a setter (foundry, demo) */
-  setterId: string | null;
-  /** the uniqueness certificate; `current` = made by the engine version in use for this puzzle as it is now */
-  certificate: { current: boolean; summary: string } | null;
-  assembly?: { frame: { W: number; H: number }; pieces: number[]; starters: { size: number; x: number; y: number }[] } | undefined;
-  deduction?: { layout: { W: number; H: number; rects: LayoutRect[] }; givens: { rect: number; size: number }[] } | undefined;
-  solution: { tiling: SolvedTiling; steps?: string[] | undefined };
-};
-
-export type PuzzleSource = {
-  getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint | null;
-  /** ids of puzzles that could go into an edition (certificate current), newest first; used by the demo seeder */
-  listPrintablePuzzleIds?(db: DbOrTx): string[];
-};
-
-export const noPuzzleSource: PuzzleSource = { getPuzzleForPrint: () => null };
-
-export function puzzleSource(deps: Pick<AppDeps, 'puzzlesForPrint'>): PuzzleSource {
-  return deps.puzzlesForPrint ?? noPuzzleSource;
-}
 
 // ---- reading ------------------------------------------------------------------------------
 
@@ -123,10 +88,10 @@ function sizeText(p: PuzzleForPrint): string {
   return `${p.solution.tiling.W} x ${p.solution.tiling.H}`;
 }
 
-export function toEdition(deps: Pick<AppDeps, 'db' | 'puzzlesForPrint'>, r: EditionRow): Edition {
+export function toEdition(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, r: EditionRow): Edition {
   const db = deps.db;
   const pub = getPublicationRow(db, r.publicationId);
-  const source = puzzleSource(deps);
+  const source = deps.puzzles;
   return {
     id: r.id,
     publicationId: r.publicationId,
@@ -173,7 +138,7 @@ export function visibleToPrinter(db: DbOrTx, editionId: string): boolean {
   return db.select({ id: editionProof.id }).from(editionProof).where(eq(editionProof.editionId, editionId)).limit(1).get() !== undefined;
 }
 
-export function getEditionFor(deps: Pick<AppDeps, 'db' | 'puzzlesForPrint'>, who: SessionUser, id: string): Edition | PrinterEdition {
+export function getEditionFor(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, who: SessionUser, id: string): Edition | PrinterEdition {
   const row = getEditionRow(deps.db, id);
   if (who.role === 'printer') {
     if (!visibleToPrinter(deps.db, id)) throw new NotFound(`No edition ${id}.`);
@@ -182,7 +147,7 @@ export function getEditionFor(deps: Pick<AppDeps, 'db' | 'puzzlesForPrint'>, who
   return toEdition(deps, row);
 }
 
-export function listEditions(deps: Pick<AppDeps, 'db'>, who: SessionUser, q: EditionListQuery): EditionSummary[] {
+export function listEditions(deps: Pick<EditionsDeps, 'db'>, who: SessionUser, q: EditionListQuery): EditionSummary[] {
   const db = deps.db;
   const conds = [];
   if (q.month) conds.push(like(edition.editionDate, `${q.month}-%`));
@@ -221,6 +186,22 @@ export function listEditions(deps: Pick<AppDeps, 'db'>, who: SessionUser, q: Edi
   return out;
 }
 
+/** Where puzzles are printed (EditionUsage in ../puzzles/ports.ts): every slot holding one of them, oldest edition first. */
+export const editionUsage: EditionUsage = {
+  usesOf(db, puzzleIds) {
+    if (puzzleIds.length === 0) return [];
+    return db
+      .select({ puzzleId: editionSlot.puzzleId, editionId: edition.id, number: edition.number, editionDate: edition.editionDate, state: edition.state, publicationTitle: publication.title })
+      .from(editionSlot)
+      .innerJoin(edition, eq(edition.id, editionSlot.editionId))
+      .innerJoin(publication, eq(publication.id, edition.publicationId))
+      .where(inArray(editionSlot.puzzleId, puzzleIds.map(String)))
+      .orderBy(asc(edition.editionDate), asc(edition.number))
+      .all()
+      .map((r) => ({ ...r, puzzleId: Number(r.puzzleId) }));
+  },
+};
+
 // ---- writing --------------------------------------------------------------------------
 
 function numberTaken(db: DbOrTx, publicationId: string, number: number, exceptId?: string): boolean {
@@ -232,7 +213,7 @@ function numberTaken(db: DbOrTx, publicationId: string, number: number, exceptId
   return row !== undefined && row.id !== exceptId;
 }
 
-export function createEdition(deps: Pick<AppDeps, 'db' | 'clock' | 'puzzlesForPrint'>, who: SessionUser, input: EditionCreate): Edition {
+export function createEdition(deps: Pick<EditionsDeps, 'db' | 'clock' | 'puzzles'>, who: SessionUser, input: EditionCreate): Edition {
   const row = deps.db.transaction((tx) => {
     getPublicationRow(tx, input.publicationId);
     if (numberTaken(tx, input.publicationId, input.number)) {
@@ -264,8 +245,8 @@ export function requireState(r: EditionRow, allowed: EditionState, doing: string
   }
 }
 
-export function updateEdition(deps: Pick<AppDeps, 'db' | 'clock' | 'puzzlesForPrint'>, id: string, patch: EditionPatch): Edition {
-  const source = puzzleSource(deps);
+export function updateEdition(deps: Pick<EditionsDeps, 'db' | 'clock' | 'puzzles'>, id: string, patch: EditionPatch): Edition {
+  const source = deps.puzzles;
   const row = deps.db.transaction((tx) => {
     const r = getEditionRow(tx, id);
     requireState(r, 'draft', 'change the edition');
@@ -325,13 +306,13 @@ function previousEdition(db: DbOrTx, r: EditionRow): EditionRow | undefined {
 export type BuiltDocument = { doc: EditionDocument; missing: { slot: number; puzzleId: string }[]; puzzles: { slot: number; puzzle: PuzzleForPrint }[] };
 
 /** Builds the print document of an edition; solutions follow the publication's rule. */
-export function buildEditionDocument(deps: Pick<AppDeps, 'db' | 'puzzlesForPrint'>, id: string): BuiltDocument {
+export function buildEditionDocument(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, id: string): BuiltDocument {
   const db = deps.db;
   const r = getEditionRow(db, id);
   const pub = getPublicationRow(db, r.publicationId);
   const template = getPageTemplate(pub.templateId);
   if (!template) throw new Unprocessable(`The publication's page template "${pub.templateId}" is not installed.`);
-  const source = puzzleSource(deps);
+  const source = deps.puzzles;
   const missing: BuiltDocument['missing'] = [];
   const puzzles: BuiltDocument['puzzles'] = [];
   const prints: PuzzlePrint[] = [];
@@ -373,12 +354,12 @@ const dayNumber = (iso: string) => Math.round(Date.parse(`${iso}T00:00:00Z`) / D
  * printed once (a puzzle in one edition of the publication only), fits the template
  * (slot count), legibility (the preflight of a rendered preview).
  */
-export async function runEditionChecks(deps: Pick<AppDeps, 'db' | 'puzzlesForPrint'>, id: string): Promise<EditionChecks> {
+export async function runEditionChecks(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, id: string): Promise<EditionChecks> {
   const db = deps.db;
   const r = getEditionRow(db, id);
   const pub = getPublicationRow(db, r.publicationId);
   const built = buildEditionDocument(deps, id);
-  const source = puzzleSource(deps);
+  const source = deps.puzzles;
   const checks: EditionCheck[] = [];
   const slotCount = built.puzzles.length + built.missing.length;
 

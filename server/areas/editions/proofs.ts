@@ -8,22 +8,20 @@ import { appRoot } from '../../platform/app-root';
 import type { DbOrTx } from '../../platform/db/client';
 import { user as userTable } from '../../platform/auth/schema';
 import { edition, editionProof, editionSlot } from './schema';
-import type { AppDeps } from '../../platform/deps';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
-import { renderEditionPdf } from '../print/render-edition';
-import type { EditionDocument } from '../print/types';
-import { recordPublicationFees } from '../payouts/ledger';
-import { buildEditionDocument, createEdition, getEditionRow, puzzleSource, requireState, runEditionChecks, toEdition, updateEdition, visibleToPrinter } from './editions';
+import { renderEditionPdf, type EditionDocument } from '../print/index';
+import type { EditionsDeps } from './ports';
+import { buildEditionDocument, createEdition, getEditionRow, requireState, runEditionChecks, toEdition, updateEdition, visibleToPrinter } from './editions';
 import { feeFor, getPublicationRow, listPublications } from './publications';
 
 // The proof round: send to proof (render version n, store it hashed, mail the printers),
 // approve (the press file is the proof re-rendered without the stamp) or return with
 // notes (mail the editor), then publish (fees into the ledger in the same transaction).
 
-type Deps = Pick<AppDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzlesForPrint'>;
+type Deps = Pick<EditionsDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzles' | 'fees'>;
 
-export function dataDir(deps: Pick<AppDeps, 'env'>): string {
+export function dataDir(deps: Pick<EditionsDeps, 'env'>): string {
   return isAbsolute(deps.env.DATA_DIR) ? deps.env.DATA_DIR : resolve(appRoot(), deps.env.DATA_DIR);
 }
 
@@ -58,7 +56,7 @@ function activeUsersWithRole(db: DbOrTx, role: string) {
     .all();
 }
 
-function editionLink(deps: Pick<AppDeps, 'env'>, path: string) {
+function editionLink(deps: Pick<EditionsDeps, 'env'>, path: string) {
   return `${deps.env.PUBLIC_URL}${path}`;
 }
 
@@ -138,7 +136,7 @@ function proofRow(db: DbOrTx, editionId: string, version: number) {
 }
 
 /** The stored proof file (printers only for editions sent to them). */
-export function readProofFile(deps: Pick<AppDeps, 'db' | 'env'>, who: SessionUser, editionId: string, version: number): { pdf: Buffer; sha256: string; name: string } {
+export function readProofFile(deps: Pick<EditionsDeps, 'db' | 'env'>, who: SessionUser, editionId: string, version: number): { pdf: Buffer; sha256: string; name: string } {
   const r = getEditionRow(deps.db, editionId);
   if (who.role === 'printer' && !visibleToPrinter(deps.db, editionId)) throw new NotFound(`No edition ${editionId}.`);
   const p = proofRow(deps.db, editionId, version);
@@ -148,7 +146,7 @@ export function readProofFile(deps: Pick<AppDeps, 'db' | 'env'>, who: SessionUse
   return { pdf: readFileSync(file), sha256: p.sha256, name: `${slug(pub.title)}-no${r.number}-proof-v${version}.pdf` };
 }
 
-export function readPressFile(deps: Pick<AppDeps, 'db' | 'env'>, editionId: string): { pdf: Buffer; sha256: string; name: string } {
+export function readPressFile(deps: Pick<EditionsDeps, 'db' | 'env'>, editionId: string): { pdf: Buffer; sha256: string; name: string } {
   const r = getEditionRow(deps.db, editionId);
   if (!r.pressPath || !r.pressSha256) throw new NotFound(`Edition No. ${r.number} has no press file yet.`);
   const file = join(dataDir(deps), r.pressPath);
@@ -223,7 +221,7 @@ export function returnProof(deps: Deps, who: SessionUser, editionId: string, ver
  * publication's fee for its kind in the ledger, in the same transaction.
  */
 export function publishEdition(deps: Deps, who: SessionUser, editionId: string): Edition {
-  const source = puzzleSource(deps);
+  const source = deps.puzzles;
   deps.db.transaction((tx) => {
     const r = getEditionRow(tx, editionId);
     requireState(r, 'approved', 'publish');
@@ -235,7 +233,7 @@ export function publishEdition(deps: Deps, who: SessionUser, editionId: string):
       if (!p || !p.setterId) continue;
       entries.push({ puzzleId: p.id, setterId: p.setterId, kind: p.kind, ...feeFor(pub, p.kind) });
     }
-    if (entries.length > 0) recordPublicationFees(tx, { editionId, publicationId: pub.id, date: r.editionDate, entries });
+    if (entries.length > 0) deps.fees.recordPublicationFees(tx, { editionId, publicationId: pub.id, date: r.editionDate, entries });
     const now = deps.clock.now();
     tx.update(edition).set({ state: 'published', publishedAt: now, publishedBy: who.id, updatedAt: now }).where(eq(edition.id, editionId)).run();
   });
@@ -267,7 +265,7 @@ export function saturdayOnOrAfter(d: Date): Date {
  * driven through the real services when the puzzle store offers printable puzzles;
  * otherwise the editions stay empty drafts.
  */
-export async function seedDemoEditions(deps: AppDeps): Promise<void> {
+export async function seedDemoEditions(deps: EditionsDeps): Promise<void> {
   const pubs = new Map(listPublications(deps.db).map((p) => [p.title, p]));
   const quadrant = pubs.get('The Saturday Quadrant');
   const monthly = pubs.get('Squared Away Monthly');
@@ -284,7 +282,7 @@ export async function seedDemoEditions(deps: AppDeps): Promise<void> {
   const firstOfNext = new Date(Date.UTC(next.getUTCFullYear(), next.getUTCMonth() + 1, 1));
   createEdition(deps, editorUser, { publicationId: monthly.id, number: 12, date: isoDay(firstOfNext), introduction: plainRichText('Squared Away Monthly: this month\u2019s squared rectangles, with full solutions at the back.') });
 
-  const ids = puzzleSource(deps).listPrintablePuzzleIds?.(deps.db) ?? [];
+  const ids = deps.puzzles.listPrintablePuzzleIds(deps.db);
   if (ids.length < 4) {
     deps.log.info(`demo editions: ${ids.length} printable puzzle(s) found, so the demo editions stay drafts`);
     return;

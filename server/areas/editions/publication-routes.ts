@@ -1,9 +1,9 @@
 import { publicationIdParamsSchema, publicationInputSchema, publicationListSchema, publicationPatchSchema, publicationSchema } from '../../../shared/contracts/publications';
-import type { AppDeps } from '../../platform/deps';
+import type { PlatformDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { createPublication, listPublications, updatePublication } from './publications';
 
-export function registerPublicationRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerPublicationRoutes(router: ApiRouter, deps: PlatformDeps) {
   const tags = ['publications'];
 
   route(

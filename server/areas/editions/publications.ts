@@ -3,9 +3,9 @@ import { asc, eq } from 'drizzle-orm';
 import type { Publication, PublicationInput, PublicationPatch } from '../../../shared/contracts/publications';
 import type { DbOrTx } from '../../platform/db/client';
 import { publication } from './publication-schema';
-import type { AppDeps } from '../../platform/deps';
+import type { PlatformDeps } from '../../platform/deps';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
-import { pageTemplates } from '../print/templates';
+import { pageTemplates } from '../print/index';
 
 type Row = typeof publication.$inferSelect;
 
@@ -50,7 +50,7 @@ function titleTaken(db: DbOrTx, title: string, exceptId?: string): boolean {
   return row !== undefined && row.id !== exceptId;
 }
 
-export function createPublication(deps: Pick<AppDeps, 'db' | 'clock'>, input: PublicationInput): Publication {
+export function createPublication(deps: Pick<PlatformDeps, 'db' | 'clock'>, input: PublicationInput): Publication {
   checkTemplate(input.templateId);
   return deps.db.transaction((tx) => {
     if (titleTaken(tx, input.title)) throw new Conflict(`A publication called "${input.title}" exists already.`, [{ path: 'body.title', message: 'is taken' }]);
@@ -64,7 +64,7 @@ export function createPublication(deps: Pick<AppDeps, 'db' | 'clock'>, input: Pu
   });
 }
 
-export function updatePublication(deps: Pick<AppDeps, 'db' | 'clock'>, id: string, patch: PublicationPatch): Publication {
+export function updatePublication(deps: Pick<PlatformDeps, 'db' | 'clock'>, id: string, patch: PublicationPatch): Publication {
   checkTemplate(patch.templateId);
   return deps.db.transaction((tx) => {
     getPublicationRow(tx, id);
@@ -111,7 +111,7 @@ export const demoPublications: PublicationInput[] = [
   },
 ];
 
-export function seedDemoPublications(deps: Pick<AppDeps, 'db' | 'clock'>): void {
+export function seedDemoPublications(deps: Pick<PlatformDeps, 'db' | 'clock'>): void {
   for (const p of demoPublications) {
     if (!titleTaken(deps.db, p.title)) createPublication(deps, p);
   }

@@ -11,9 +11,9 @@ import {
   proofParamsSchema,
   returnProofSchema,
 } from '../../../shared/contracts/editions';
-import type { AppDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { renderEditionPdf } from '../print/render-edition';
+import { renderEditionPdf } from '../print/index';
+import type { EditionsDeps } from './ports';
 import { buildEditionDocument, createEdition, getEditionFor, getEditionRow, listEditions, runEditionChecks, updateEdition } from './editions';
 import { approveProof, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
 
@@ -26,7 +26,7 @@ function sendPdf(res: import('express').Response, file: { pdf: Buffer; sha256: s
   res.send(file.pdf);
 }
 
-export function registerEditionRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
   const tags = ['editions'];
   const download = z.object({ download: z.enum(['1', '0']).optional() });
 

@@ -1,10 +1,10 @@
 import { runIdParamsSchema, runListSchema, runRequestSchema, runResultsQuerySchema, runResultsSchema, runSchema } from '../../../shared/contracts/foundry';
-import type { AppDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { jobRunnerFor } from '../../platform/jobs/runtime';
+import type { FoundryDeps } from './ports';
 import { cancelRun, getRun, listRuns, runResults, startRun } from './runs';
 
-export function registerFoundryRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerFoundryRoutes(router: ApiRouter, deps: FoundryDeps) {
   const tags = ['foundry'];
   // Created at start-up: jobs a previous process left running become interrupted now.
   const runner = jobRunnerFor(deps.db);
@@ -12,7 +12,7 @@ export function registerFoundryRoutes(router: ApiRouter, deps: AppDeps) {
   route(
     router,
     { method: 'POST', path: '/api/foundry/runs', summary: 'Start a foundry run (exhaustive by order, random with filters, or joining) in the worker pool', tags, body: runRequestSchema, response: runSchema, status: 201 },
-    ({ body, user }) => startRun(deps.db, runner, body, user.id),
+    ({ body, user }) => startRun(deps, runner, body, user.id),
   );
   route(
     router,

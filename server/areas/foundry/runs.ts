@@ -1,14 +1,13 @@
-import { and, count, desc, eq, sql } from 'drizzle-orm';
+import { count, desc, eq, sql } from 'drizzle-orm';
 import type { Run, RunList, RunRequest, RunResults } from '../../../shared/contracts/foundry';
 import { runRequestSchema } from '../../../shared/contracts/foundry';
 import type { Db } from '../../platform/db/client';
-import { foundryResult } from './schema';
-import { stock } from '../stock/schema';
+import type { DbOrTx } from '../../platform/db/client';
 import { Conflict, NotFound } from '../../platform/http/errors';
-import type { FoundryItem, FoundryInput } from './run-job';
 import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
-import { addToStock } from '../stock/stock';
-import { tilingFromJson } from '../stock/tiling-analysis';
+import type { StockPort } from '../stock/ports';
+import type { FoundryItem, FoundryInput } from './run-job';
+import { foundryResult } from './schema';
 
 // Foundry runs: a run is a job of kind 'foundry-run'. Results stream back from the worker and
 // go, in one transaction per batch, into the stock (provenance 'foundry', with the run's
@@ -18,10 +17,10 @@ export const FOUNDRY_KIND = 'foundry-run';
 /** Time budgets per run [common practice: bound every background job]. */
 const BUDGET_MS = { exhaustive: 30 * 60_000, random: 10 * 60_000, joining: 5 * 60_000 } as const;
 
-export function storeItems(tx: Db, runId: string, params: RunRequest, items: unknown[]): void {
+export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: RunRequest, items: unknown[]): void {
   for (const raw of items) {
     const it = raw as FoundryItem;
-    const s = addToStock(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } });
+    const s = stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } });
     tx.insert(foundryResult)
       .values({
         jobId: runId,
@@ -42,32 +41,23 @@ export function storeItems(tx: Db, runId: string, params: RunRequest, items: unk
   }
 }
 
-function inputFor(db: Db, params: RunRequest): FoundryInput {
-  if (params.mode === 'random') {
-    return { knownKeys: db.select({ k: stock.canonicalKey }).from(stock).all().map((r) => r.k) };
-  }
-  if (params.mode === 'joining') {
-    const rows = db
-      .select({ id: stock.id, width: stock.width, height: stock.height, squaresJson: stock.squaresJson })
-      .from(stock)
-      .where(and(eq(stock.perfect, true), eq(stock.square, false)))
-      .limit(50_000)
-      .all();
-    return { parts: rows.map((r) => ({ id: String(r.id), tiling: tilingFromJson(r.width, r.height, r.squaresJson) })) };
-  }
+function inputFor(stock: StockPort, db: Db, params: RunRequest): FoundryInput {
+  if (params.mode === 'random') return { knownKeys: stock.allKeys(db) };
+  if (params.mode === 'joining') return { parts: stock.perfectRectangles(db, 50_000).map((r) => ({ id: String(r.id), tiling: r.tiling })) };
   return {};
 }
 
-export function startRun(db: Db, runner: JobRunner, request: RunRequest, userId: string | null): Run {
+export function startRun(deps: { db: Db; stock: StockPort }, runner: JobRunner, request: RunRequest, userId: string | null): Run {
+  const { db } = deps;
   const params = runRequestSchema.parse(request);
   const id = runner.submit({
     kind: FOUNDRY_KIND,
     params,
-    input: inputFor(db, params),
+    input: inputFor(deps.stock, db, params),
     createdBy: userId,
     budgetMs: BUDGET_MS[params.mode],
     lane: 'bulk',
-    sink: { onResults: (items, tx) => storeItems(tx, id, params, items) },
+    sink: { onResults: (items, tx) => storeItems(deps.stock, tx, id, params, items) },
   });
   return getRun(db, runner, id);
 }

@@ -1,10 +1,10 @@
 import { checkRequestSchema, verdictSchema, type Verdict } from '../../../shared/contracts/tilings';
-import type { AppDeps } from '../../platform/deps';
+import type { IntakeDeps } from './ports';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { duplicateOf } from './submissions';
-import { analyseCode, smithDrawingOf } from '../stock/tiling-analysis';
+import { analyseCode, smithDrawingOf } from '../stock/index';
 
-export function registerTilingRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerTilingRoutes(router: ApiRouter, deps: IntakeDeps) {
   route(
     router,
     {
@@ -20,7 +20,7 @@ export function registerTilingRoutes(router: ApiRouter, deps: AppDeps) {
       if (!r.ok) return { valid: false, error: r.error };
       const a = r.analysis;
       const c = a.classification;
-      const dup = duplicateOf(deps.db, a.canonicalKey);
+      const dup = duplicateOf(deps.stock, deps.db, a.canonicalKey);
       return {
         valid: true,
         order: c.order,

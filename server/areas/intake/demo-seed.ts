@@ -2,10 +2,9 @@ import { eq } from 'drizzle-orm';
 import { canonicalKey, classifyTiling, solvePlaneNetwork, toBouwkamp, type PlaneGraph, type Tiling } from '../../../shared/tiling/index';
 import { user } from '../../platform/auth/schema';
 import type { Db } from '../../platform/db/client';
-import type { AppDeps } from '../../platform/deps';
-import { addToStock } from '../stock/stock';
-import { createSubmission, reviewSubmission } from './submissions';
-import { demoAccounts } from '../accounts/demo-accounts';
+import { demoAccounts } from '../accounts/index';
+import type { IntakeDeps } from './ports';
+import { createSubmission, reviewSubmission, type IntakeStore } from './submissions';
 
 // Demo stock made by OUR engine: c-nets built as wheels with chords across the rim face,
 // solved by Kirchhoff's laws (solvePlaneNetwork) for every pole edge, deduplicated by
@@ -86,11 +85,11 @@ export function demoStockTilings(): { stock: MadeTiling[]; forSubmissions: MadeT
 
 const titles = ['Harbour lights', 'Quill and square', 'Larkspur corner', 'Saturday stack'];
 
-export function seedDemoStock(deps: AppDeps): void {
+export function seedDemoStock(deps: IntakeDeps): void {
   const db: Db = deps.db;
   const { stock, forSubmissions } = demoStockTilings();
   db.transaction((tx) => {
-    for (const m of stock) addToStock(tx, { tiling: m.tiling, provenance: 'demo', params: m.params });
+    for (const m of stock) deps.stock.add(tx, { tiling: m.tiling, provenance: 'demo', params: m.params });
   });
   const setterEmail = demoAccounts.find((a) => a.role === 'setter')?.email;
   const editorEmail = demoAccounts.find((a) => a.role === 'editor')?.email;
@@ -98,10 +97,10 @@ export function seedDemoStock(deps: AppDeps): void {
   const editor = editorEmail ? db.select({ id: user.id }).from(user).where(eq(user.email, editorEmail)).get() : undefined;
   if (!setter) return;
   forSubmissions.forEach((m, i) => {
-    const s = createSubmission(db, { id: setter.id, role: 'setter' }, { code: toBouwkamp(m.tiling, { header: true }), title: titles[i % titles.length], source: 'paste' });
+    const s = createSubmission(deps, { id: setter.id, role: 'setter' }, { code: toBouwkamp(m.tiling, { header: true }), title: titles[i % titles.length], source: 'paste' });
     // the first one went through review already, so the setter's list and the stock show both states
     if (i === 0 && editor) {
-      reviewSubmission(db, { id: editor.id, role: 'editor' }, s.id, 'accept', 'Clean and clear: into the stock for the Saturday column.', {
+      reviewSubmission(deps, { id: editor.id, role: 'editor' }, s.id, 'accept', 'Clean and clear: into the stock for the Saturday column.', {
         publicUrl: deps.env.PUBLIC_URL,
         now: () => deps.clock.now(),
       });
@@ -130,7 +129,8 @@ export function sideBySide(a: Tiling, b: Tiling): Tiling {
  * wheels with chords and the rest as pairs of them side by side. One transaction. Returns
  * how many rows were created.
  */
-export function seedBulkStock(db: Db, n: number): number {
+export function seedBulkStock(deps: IntakeStore, n: number): number {
+  const { db } = deps;
   const bases: Tiling[] = [];
   for (const m of wheelChordTilings(6, 12, 2)) {
     bases.push(m.tiling);
@@ -141,12 +141,12 @@ export function seedBulkStock(db: Db, n: number): number {
   db.transaction((tx) => {
     for (const t of bases) {
       if (created >= n) break;
-      if (addToStock(tx, { tiling: t, provenance: 'foundry', params: { bulk: true } }).created) created++;
+      if (deps.stock.add(tx, { tiling: t, provenance: 'foundry', params: { bulk: true } }).created) created++;
     }
     for (let i = 0; i < bases.length && created < n; i++) {
       for (let j = i + 1; j < bases.length && created < n; j++) {
         const t = sideBySide(bases[i]!, bases[j]!);
-        if (addToStock(tx, { tiling: t, provenance: provenances[(i + j) % 3]!, params: { bulk: true, pair: [i, j] } }).created) created++;
+        if (deps.stock.add(tx, { tiling: t, provenance: provenances[(i + j) % 3]!, params: { bulk: true, pair: [i, j] } }).created) created++;
       }
     }
   });

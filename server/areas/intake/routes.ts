@@ -13,7 +13,7 @@ import {
   submissionSchema,
   uploadReportSchema,
 } from '../../../shared/contracts/submissions';
-import type { AppDeps } from '../../platform/deps';
+import type { IntakeDeps } from './ports';
 import { Unprocessable } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import {
@@ -26,7 +26,7 @@ import {
 } from './submissions';
 
 
-export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } });
   const reviewOpts = () => ({ publicUrl: deps.env.PUBLIC_URL, now: () => deps.clock.now() });
   const tags = ['intake'];
@@ -34,7 +34,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
   route(
     router,
     { method: 'POST', path: '/api/submissions', summary: 'Submit one tiling (pasted code or sketched squares)', tags, body: createSubmissionSchema, response: submissionSchema, status: 201 },
-    ({ user, body }) => createSubmission(deps.db, user, body),
+    ({ user, body }) => createSubmission(deps, user, body),
   );
 
   route(
@@ -52,7 +52,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
     ({ req, user }) => {
       const file = req.file;
       if (!file) throw new Unprocessable('no file: send the codes as multipart form data in the field "file"', { path: 'file' });
-      return uploadSubmissions(deps.db, user, file.originalname, file.buffer);
+      return uploadSubmissions(deps, user, file.originalname, file.buffer);
     },
   );
 
@@ -65,14 +65,14 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
   route(
     router,
     { method: 'GET', path: '/api/submissions/:id', summary: 'One submission with drawing data, classification and (editors) duplicates', tags, params: idParamsSchema, response: submissionDetailSchema },
-    ({ user, params }) => getSubmissionDetail(deps.db, user, params.id),
+    ({ user, params }) => getSubmissionDetail(deps, user, params.id),
   );
 
   route(
     router,
     { method: 'POST', path: '/api/submissions/:id/accept', summary: 'Accept a pending submission into the stock; mails the setter', tags, params: idParamsSchema, body: reviewSchema, response: submissionSchema },
     ({ user, params, body }) => {
-      const s = reviewSubmission(deps.db, user, params.id, 'accept', body.note, reviewOpts());
+      const s = reviewSubmission(deps, user, params.id, 'accept', body.note, reviewOpts());
       deps.mail.kick();
       return s;
     },
@@ -82,7 +82,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
     router,
     { method: 'POST', path: '/api/submissions/:id/reject', summary: 'Reject a pending submission with a note; mails the setter', tags, params: idParamsSchema, body: rejectSchema, response: submissionSchema },
     ({ user, params, body }) => {
-      const s = reviewSubmission(deps.db, user, params.id, 'reject', body.note, reviewOpts());
+      const s = reviewSubmission(deps, user, params.id, 'reject', body.note, reviewOpts());
       deps.mail.kick();
       return s;
     },
@@ -92,7 +92,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: AppDeps) {
     router,
     { method: 'POST', path: '/api/submissions/bulk', summary: 'Accept or reject several pending submissions; a result per id', tags, body: bulkReviewSchema, response: bulkResultSchema },
     ({ user, body }) => {
-      const r = bulkReview(deps.db, user, body, reviewOpts());
+      const r = bulkReview(deps, user, body, reviewOpts());
       deps.mail.kick();
       return r;
     },

@@ -17,8 +17,8 @@ import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
-import { addToStock, findStockByKey } from '../stock/stock';
-import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, tilingFromJson, type TilingAnalysis } from '../stock/tiling-analysis';
+import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, tilingFromJson, type TilingAnalysis } from '../stock/index';
+import type { StockPort, SubmissionHistory } from '../stock/ports';
 
 // Setters' submissions: in by paste, sketch or file; verified and checked for duplicates on
 // the way in; accepted into the stock or rejected by an editor, with a mail to the setter.
@@ -28,11 +28,14 @@ export interface Actor {
   role: Role;
 }
 
+/** The intake's store: its own tables, and the stock through its port. */
+export type IntakeStore = { db: Db; stock: StockPort };
+
 const isEditor = (a: Actor) => a.role === 'editor' || a.role === 'admin';
 
 /** Is this canonical key already in the stock, or pending review? (Never says whose.) */
-export function duplicateOf(db: DbOrTx, key: string): 'stock' | 'pending' | null {
-  if (findStockByKey(db, key) !== null) return 'stock';
+export function duplicateOf(stock: StockPort, db: DbOrTx, key: string): 'stock' | 'pending' | null {
+  if (stock.findByKey(db, key) !== null) return 'stock';
   const p = db
     .select({ id: submission.id })
     .from(submission)
@@ -73,13 +76,14 @@ function insertSubmission(
 }
 
 /** POST /api/submissions: one tiling by paste or sketch. A bad tiling is a 422 with the engine's what-and-where. */
-export function createSubmission(db: Db, actor: Actor, input: CreateSubmission): Submission {
+export function createSubmission(deps: IntakeStore, actor: Actor, input: CreateSubmission): Submission {
+  const { db } = deps;
   const r = input.code !== undefined ? analyseCode(input.code) : analyseSquares(input.squares!);
   if (!r.ok) throw new Unprocessable(r.error.message, { code: r.error.code, where: r.error.where, path: input.code !== undefined ? 'body.code' : 'body.squares' });
   const a = r.analysis;
   const code = input.code ?? a.bouwkamp;
   const id = db.transaction((tx) => {
-    const dup = duplicateOf(tx, a.canonicalKey);
+    const dup = duplicateOf(deps.stock, tx, a.canonicalKey);
     return insertSubmission(tx, actor, a, { code, title: input.title, note: input.note, source: input.source }, dup);
   });
   return getSubmission(db, actor, id);
@@ -122,7 +126,8 @@ function captionOf(code: string): string | null {
  * first (no database work); then ONE transaction writes all valid lines, so a failure
  * half-way leaves nothing written.
  */
-export function uploadSubmissions(db: Db, actor: Actor, fileName: string, buf: Buffer, hooks: UploadHooks = {}): UploadReport {
+export function uploadSubmissions(deps: IntakeStore, actor: Actor, fileName: string, buf: Buffer, hooks: UploadHooks = {}): UploadReport {
+  const { db } = deps;
   if (!/\.(txt|bkp)$/i.test(fileName)) {
     throw new Unprocessable(`"${fileName}" is not a .txt or .bkp file`, { path: 'file', fileName });
   }
@@ -145,7 +150,7 @@ export function uploadSubmissions(db: Db, actor: Actor, fileName: string, buf: B
         continue;
       }
       seen.add(a.canonicalKey);
-      const dup = duplicateOf(tx, a.canonicalKey);
+      const dup = duplicateOf(deps.stock, tx, a.canonicalKey);
       hooks.beforeWrite?.(e.line);
       const id = insertSubmission(tx, actor, a, { code: e.code, title: captionOf(e.code), source: 'file' }, dup);
       report.push(
@@ -253,11 +258,12 @@ export function getSubmission(db: DbOrTx, actor: Actor, id: number): Submission 
   return toSubmission(r);
 }
 
-export function getSubmissionDetail(db: DbOrTx, actor: Actor, id: number): SubmissionDetail {
+export function getSubmissionDetail(deps: IntakeStore, actor: Actor, id: number): SubmissionDetail {
+  const { db } = deps;
   const { squaresJson, ...r } = rowOf(db, actor, id);
   const tiling = tilingFromJson(r.width, r.height, squaresJson);
   const a = analyseTiling(tiling);
-  const duplicates = isEditor(actor) ? sameTilingAs(db, r.canonicalKey, id) : { stockId: null, submissions: [] };
+  const duplicates = isEditor(actor) ? sameTilingAs(deps.stock, db, r.canonicalKey, id) : { stockId: null, submissions: [] };
   return { ...toSubmission(r), tiling, smith: smithDrawingOf(tiling), classification: a.classification, bouwkamp: a.bouwkamp, duplicates };
 }
 
@@ -271,13 +277,14 @@ export interface ReviewOptions {
  * transaction the setter's mail is queued in the outbox.
  */
 export function reviewSubmission(
-  db: Db,
+  deps: IntakeStore,
   reviewer: Actor,
   id: number,
   action: 'accept' | 'reject',
   note: string | undefined,
   opts: ReviewOptions,
 ): Submission {
+  const { db } = deps;
   const now = (opts.now ?? (() => new Date()))();
   db.transaction((tx) => {
     const r = tx
@@ -300,7 +307,7 @@ export function reviewSubmission(
     if (r.status !== 'pending') throw new Conflict(`submission ${id} was already ${r.status}`, { status: r.status });
     let stockId: number | null = null;
     if (action === 'accept') {
-      const added = addToStock(tx, {
+      const added = deps.stock.add(tx, {
         tiling: tilingFromJson(r.width, r.height, r.squaresJson),
         provenance: 'setter',
         setterId: r.setterId,
@@ -334,10 +341,10 @@ export function reviewSubmission(
   return getSubmission(db, reviewer, id);
 }
 
-export function bulkReview(db: Db, reviewer: Actor, input: BulkReview, opts: ReviewOptions) {
+export function bulkReview(deps: IntakeStore, reviewer: Actor, input: BulkReview, opts: ReviewOptions) {
   const results = input.ids.map((id) => {
     try {
-      const s = reviewSubmission(db, reviewer, id, input.action, input.note, opts);
+      const s = reviewSubmission(deps, reviewer, id, input.action, input.note, opts);
       return { id, ok: true, status: s.status };
     } catch (e) {
       if (e instanceof NotFound || e instanceof Conflict || e instanceof Unprocessable) return { id, ok: false, error: e.message };
@@ -348,7 +355,7 @@ export function bulkReview(db: Db, reviewer: Actor, input: BulkReview, opts: Rev
 }
 
 /** Other submissions of the same tiling (up to symmetry) and its stock row: for editors' eyes only. */
-export function sameTilingAs(db: DbOrTx, key: string, exceptId: number): SubmissionDetail['duplicates'] {
+export function sameTilingAs(stock: StockPort, db: DbOrTx, key: string, exceptId: number): SubmissionDetail['duplicates'] {
   const subs = db
     .select({ id: submission.id, status: submission.status })
     .from(submission)
@@ -356,5 +363,16 @@ export function sameTilingAs(db: DbOrTx, key: string, exceptId: number): Submiss
     .orderBy(asc(submission.id))
     .all()
     .filter((s) => s.id !== exceptId);
-  return { stockId: findStockByKey(db, key), submissions: subs };
+  return { stockId: stock.findByKey(db, key), submissions: subs };
 }
+
+/** Accepted submissions of a stock tiling, oldest first: the stock's history (see SubmissionHistory in ../stock/ports.ts). */
+export const submissionHistory: SubmissionHistory = {
+  acceptedFor: (db, stockId) =>
+    db
+      .select({ submissionId: submission.id, submittedAt: submission.createdAt, acceptedAt: submission.reviewedAt })
+      .from(submission)
+      .where(and(eq(submission.stockId, stockId), eq(submission.status, 'accepted')))
+      .orderBy(asc(submission.createdAt))
+      .all(),
+};

@@ -1,7 +1,8 @@
 import { eq } from 'drizzle-orm';
-import { ledgerEntry, payoutAccount, user } from '../../schema';
-import { demoPassword } from '../accounts/demo-accounts';
-import type { AppDeps } from '../../platform/deps';
+import { user } from '../../platform/auth/schema';
+import { ledgerEntry, payoutAccount } from './schema';
+import { demoPassword } from '../accounts/index';
+import type { MoneyDeps } from './ports';
 import { recordPublicationFees } from './ledger';
 import { createPayoutRun, resumePendingPayouts } from './payouts';
 import { payoutsDepsFrom } from './runtime';
@@ -21,14 +22,14 @@ function isoDay(year: number, month: number, day: number): string {
   return new Date(Date.UTC(year, month, day)).toISOString().slice(0, 10);
 }
 
-async function ensureUser(deps: AppDeps, email: string, name: string): Promise<string> {
+async function ensureUser(deps: MoneyDeps, email: string, name: string): Promise<string> {
   const existing = deps.db.select({ id: user.id }).from(user).where(eq(user.email, email)).get();
   if (existing) return existing.id;
   const created = await deps.auth.api.createUser({ body: { email, password: demoPassword, name, role: 'setter', data: { emailVerified: true } } });
   return created.user.id;
 }
 
-export async function seedDemoPayouts(deps: AppDeps): Promise<void> {
+export async function seedDemoPayouts(deps: MoneyDeps): Promise<void> {
   const selma = deps.db.select({ id: user.id }).from(user).where(eq(user.email, demoSetterEmail)).get();
   const editor = deps.db.select({ id: user.id }).from(user).where(eq(user.email, demoEditorEmail)).get();
   if (!selma || !editor) throw new Error('the demo setter and editor accounts must exist first');

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { monthSchema, statementSchema, statementSendResponseSchema } from '../../../shared/contracts/ledger';
 import { earningsSchema, payoutDetailsInputSchema, payoutDetailsResponseSchema } from '../../../shared/contracts/payouts';
-import type { AppDeps } from '../../platform/deps';
+import type { MoneyDeps } from './ports';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { buildStatement, statementCsv } from './ledger';
 import { earningsOf, refreshPayoutDetails, sendStatement, startPayoutDetails } from './payouts';
@@ -12,7 +12,7 @@ import { moneyErrors, payoutsDepsOrFail } from './payments-common';
 
 const monthParams = z.object({ month: monthSchema }).strict();
 
-export function registerEarningsRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerEarningsRoutes(router: ApiRouter, deps: MoneyDeps) {
   route(router, { method: 'GET', path: '/api/earnings', summary: 'My ledger entries, statements, payouts and payout details', tags: ['earnings'], response: earningsSchema }, async ({ user }) => {
     if (deps.payments) await refreshPayoutDetails(payoutsDepsOrFail(deps), user.id);
     return earningsOf(deps.db, user.id, deps.clock.now());

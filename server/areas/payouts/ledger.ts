@@ -11,7 +11,9 @@ import {
   type Statement,
 } from '../../../shared/contracts/ledger';
 import type { DbOrTx } from '../../platform/db/client';
-import { ledgerEntry, payout, user } from '../../schema';
+import type { FeeRecorder } from '../editions/ports';
+import { user } from '../../platform/auth/schema';
+import { ledgerEntry, payout } from './schema';
 
 // The setters' fee ledger. Append-only: fees are written by the publish step, corrections
 // by editors, and nothing is ever updated or deleted.
@@ -99,6 +101,9 @@ export function recordPublicationFees(tx: DbOrTx, input: PublicationFeesInput): 
   }
   return written;
 }
+
+/** Fees into the ledger when an edition is published (FeeRecorder in ../editions/ports.ts). */
+export const feeRecorder: FeeRecorder = { recordPublicationFees: (tx, input) => void recordPublicationFees(tx, input) };
 
 /** Records a correction (positive or negative) as a new entry, never an edit. */
 export function recordCorrection(tx: DbOrTx, input: LedgerCorrectionInput, createdBy: string | null, now: Date = new Date()): LedgerEntry {

@@ -1,4 +1,4 @@
-import type { AppDeps } from '../../platform/deps';
+import type { MoneyDeps } from './ports';
 import { Conflict, HttpError, NotFound } from '../../platform/http/errors';
 import { payoutsDepsFrom } from './runtime';
 import { LedgerError } from './ledger';
@@ -34,7 +34,7 @@ export function moneyErrors<T>(run: () => T): T {
   }
 }
 
-export function payoutsDepsOrFail(deps: AppDeps): PayoutsDeps {
+export function payoutsDepsOrFail(deps: MoneyDeps): PayoutsDeps {
   if (!deps.payments) {
     throw new ServiceUnavailable('Payments are not configured: set PAYMENTS_SECRET_KEY and PAYMENTS_WEBHOOK_SECRET, or leave both unset so the local fake provider starts.');
   }
@@ -46,7 +46,7 @@ export function payoutsDepsOrFail(deps: AppDeps): PayoutsDeps {
  * (same idempotency keys, so nothing is paid twice), and mail last month's statements to
  * setters who have not had them (month close), then check again every hour.
  */
-export function startPayoutRecovery(deps: AppDeps): void {
+export function startPayoutRecovery(deps: MoneyDeps): void {
   if (deps.env.NODE_ENV === 'test' || !deps.payments) return;
   const p = payoutsDepsFrom(deps, deps.payments);
   const tick = async () => {

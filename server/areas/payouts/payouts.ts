@@ -13,7 +13,8 @@ import type {
 } from '../../../shared/contracts/payouts';
 import type { Clock } from '../../platform/clock';
 import type { Db, DbOrTx } from '../../platform/db/client';
-import { payout, payoutAccount, paymentEvent, payoutRun, statementMailing, user } from '../../schema';
+import { user } from '../../platform/auth/schema';
+import { payout, payoutAccount, paymentEvent, payoutRun, statementMailing } from './schema';
 import type { Logger } from '../../platform/log';
 import { queueMail } from '../../platform/mail/outbox';
 import { ProviderRefused, ProviderUnavailable, type PaymentsProvider, type ProviderEvent, type ProviderPayout } from './provider';

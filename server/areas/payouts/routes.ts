@@ -1,6 +1,6 @@
 import { ledgerCorrectionInputSchema, ledgerCorrectionResponseSchema } from '../../../shared/contracts/ledger';
 import { createPayoutRunInputSchema, createPayoutRunResponseSchema, payoutIdParamsSchema, payoutResponseSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import type { AppDeps } from '../../platform/deps';
+import type { MoneyDeps } from './ports';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { recordCorrection } from './ledger';
 import { createPayoutRun, payoutsOverview, retryPayout } from './payouts';
@@ -10,7 +10,7 @@ import { registerPaymentsWebhookRoutes } from './webhook-routes';
 
 // Editors: what is owed, payout runs and their results, ledger corrections.
 
-export function registerPayoutRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerPayoutRoutes(router: ApiRouter, deps: MoneyDeps) {
   startPayoutRecovery(deps);
 
   route(router, { method: 'GET', path: '/api/payouts', summary: 'Owed per setter, payout runs and their payouts', tags: ['payouts'], response: payoutsOverviewSchema }, () =>
@@ -52,8 +52,8 @@ export function registerPayoutRoutes(router: ApiRouter, deps: AppDeps) {
   );
 }
 
-/** The whole money area (payouts, earnings, the provider's webhook): the one line in server/routes/index.ts. */
-export function registerMoneyRoutes(router: ApiRouter, deps: AppDeps) {
+/** The whole money area (payouts, earnings, the provider's webhook): the one line in server/area-routes.ts. */
+export function registerMoneyRoutes(router: ApiRouter, deps: MoneyDeps) {
   registerPayoutRoutes(router, deps);
   registerEarningsRoutes(router, deps);
   registerPaymentsWebhookRoutes(router, deps);

@@ -1,11 +1,11 @@
 import { randomBytes } from 'node:crypto';
 import { isAbsolute, join, resolve } from 'node:path';
 import { appRoot } from '../../platform/app-root';
-import type { AppDeps } from '../../platform/deps';
+import type { MoneyDeps } from './ports';
 import type { Env } from '../../platform/env';
 import { FAKE_SECRET_KEY, startPaymentsFake } from './fake-provider';
 import type { PayoutsDeps } from './payouts';
-import type { LocalFake } from '../../local-fakes';
+import type { LocalFake } from '../../platform/local-fake';
 import { createPaymentsProvider, type PaymentsProvider } from './provider';
 
 // How the server gets its payments provider. With PAYMENTS_SECRET_KEY: the real provider.
@@ -32,7 +32,7 @@ export function paymentsProviderFromEnv(env: PaymentsEnv): PaymentsProvider | nu
   return null;
 }
 
-/** The local fake provider, for the list in server/services/local-fakes.ts. */
+/** The local fake provider, for the list in server/local-fakes.ts. */
 export const localPaymentsFake: LocalFake = {
   name: 'payments',
   shouldStart: (env) => !env.PAYMENTS_SECRET_KEY && !env.PAYMENTS_API_URL,
@@ -62,7 +62,7 @@ export class PaymentsNotConfigured extends Error {
 }
 
 /** The payout service's dependencies from the app's. */
-export function payoutsDepsFrom(deps: AppDeps, provider: PaymentsProvider): PayoutsDeps {
+export function payoutsDepsFrom(deps: MoneyDeps, provider: PaymentsProvider): PayoutsDeps {
   return {
     db: deps.db,
     provider,

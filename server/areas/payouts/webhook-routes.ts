@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { AppDeps } from '../../platform/deps';
+import type { MoneyDeps } from './ports';
 import { BadRequest } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { applyProviderEvent } from './payouts';
@@ -11,7 +11,7 @@ import { payoutsDepsOrFail } from './payments-common';
 
 const webhookAnswerSchema = z.object({ received: z.literal(true), result: z.enum(['applied', 'duplicate', 'ignored']) });
 
-export function registerPaymentsWebhookRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerPaymentsWebhookRoutes(router: ApiRouter, deps: MoneyDeps) {
   route(
     router,
     { method: 'POST', path: '/api/payments/webhook', summary: 'Signed events from the payments provider (payout paid/failed, account updated)', tags: ['payouts'], response: webhookAnswerSchema },

@@ -1,13 +1,13 @@
 import { z } from 'zod';
 import { templateGeometry, templateListResponseSchema } from '../../../shared/contracts/templates';
-import type { AppDeps } from '../../platform/deps';
+import type { PlatformDeps } from '../../platform/deps';
 import { NotFound } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderEditionPdf, warmPrint } from './render-edition';
 import { templateSampleEdition } from './sample-edition';
 import { pageTemplates } from './templates';
 
-export function registerTemplateRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerTemplateRoutes(router: ApiRouter, deps: PlatformDeps) {
   const tags = ['templates'];
   // Loading here makes a bad template file stop the server at start-up, naming file and field.
   pageTemplates();

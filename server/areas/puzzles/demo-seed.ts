@@ -1,13 +1,12 @@
 import { and, asc, eq, gte, lte } from 'drizzle-orm';
 import { user } from '../../platform/auth/schema';
 import { puzzle } from './schema';
-import { stock } from '../stock/schema';
-import type { AppDeps } from '../../platform/deps';
+import { stock } from '../stock/index';
+import type { PuzzlesDeps } from './ports';
 import { solveAssembly } from '../../../shared/puzzle/index';
-import { provePuzzle, type PuzzleJobInput } from './prove-job';
+import { provePuzzle, type PuzzleJobInput } from './rules';
 import { puzzleTitle, storeResult } from './puzzles';
-import { markStockUsed, stockTiling } from '../stock/stock';
-import { demoAccounts } from '../accounts/demo-accounts';
+import { demoAccounts } from '../accounts/index';
 
 // Demo puzzles: from the smallest tilings of the demo stock, three Deduction puzzles (levels
 // 2, 3 and the closure) and three Assembly puzzles (the last, when the stock has one, from a
@@ -17,7 +16,7 @@ import { demoAccounts } from '../accounts/demo-accounts';
 /** Per-puzzle time limit at seed time, so a slow case can never hold up start-up (our choice). */
 const SEED_MS_PER_PUZZLE = 3000;
 
-export function seedDemoPuzzles(deps: AppDeps): void {
+export function seedDemoPuzzles(deps: PuzzlesDeps): void {
   const db = deps.db;
   const editorEmail = demoAccounts.find((a) => a.role === 'editor')?.email;
   const editor = editorEmail ? db.select({ id: user.id }).from(user).where(eq(user.email, editorEmail)).get() : undefined;
@@ -30,7 +29,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
   const chosen = rows.slice(0, 6);
   // show starter pieces too: the last Assembly goes to a tiling whose bare set assembles in more than one way, if the stock has one
   const several = rows.slice(6).find((r) => {
-    const { tiling } = stockTiling(db, r.id);
+    const { tiling } = deps.stock.tiling(db, r.id);
     return solveAssembly({ width: tiling.W, height: tiling.H, pieces: tiling.squares.map((q) => q.s) }, { budget: { maxNodes: 200_000 } }).verdict === 'multiple';
   });
   if (several && chosen.length === 6) chosen[5] = several;
@@ -46,7 +45,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
   chosen.forEach((s, i) => {
     const p = plan[i];
     if (!p) return;
-    const { tiling } = stockTiling(db, s.id);
+    const { tiling } = deps.stock.tiling(db, s.id);
     const input: PuzzleJobInput = { kind: p.kind, tiling, level: p.level, showFrame: false, starters: null, givens: null, grade: null, seed: 7 + i };
     const until = Date.now() + SEED_MS_PER_PUZZLE;
     const summary = provePuzzle(input, 'make', 1, { shouldStop: () => Date.now() > until, now: () => deps.clock.now() });
@@ -59,7 +58,7 @@ export function seedDemoPuzzles(deps: AppDeps): void {
         })
         .returning({ id: puzzle.id })
         .get();
-      markStockUsed(tx, s.id);
+      deps.stock.markUsed(tx, s.id);
       storeResult(tx, row.id, summary, deps.clock.now());
     });
     made++;

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import {
   puzzleCertificateSchema,
@@ -19,15 +19,14 @@ import { inputHash, isCertificateCurrent, notToScaleLayout, PUZZLE_ENGINE_VERSIO
 import type { Certificate } from '../../../shared/puzzle/index';
 import type { Tiling } from '../../../shared/tiling/index';
 import type { Db, DbOrTx } from '../../platform/db/client';
-import { edition, editionSlot } from '../editions/schema';
-import { publication } from '../editions/publication-schema';
 import { puzzle } from './schema';
-import { stock } from '../stock/schema';
+import { stock } from '../stock/index';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
-import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './prove-job';
+import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
 import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
-import type { PuzzleForPrint, PuzzleSource } from '../editions/editions';
-import { markStockUsed, setStockUsage, stockTiling } from '../stock/stock';
+import type { PuzzleForPrint, PuzzleSource } from '../editions/ports';
+import type { StockPort, StockUsage } from '../stock/ports';
+import type { EditionUsage } from './ports';
 
 // Puzzles: made from a stock tiling, proved in the worker pool (job kind 'puzzle-prove'),
 // stored with the certificate of their latest proof. Every change bumps the revision and
@@ -39,6 +38,9 @@ import { markStockUsed, setStockUsage, stockTiling } from '../stock/stock';
 const JOB_BUDGET_MS = 3 * 60_000;
 
 type PuzzleRow = typeof puzzle.$inferSelect;
+
+/** The puzzles' store: its own table, the stock and the editions through their ports. */
+export type PuzzlesStore = { db: Db; stock: StockPort; editionUsage: EditionUsage };
 
 function parseJson<T>(s: string | null, fallback: T): T {
   if (s === null) return fallback;
@@ -152,10 +154,11 @@ function jobInputOf(r: PuzzleRow, tiling: Tiling, overrides: Partial<PuzzleJobIn
 
 // ---- commands ---------------------------------------------------------------------------
 
-export function createPuzzle(db: Db, runner: JobRunner, who: SessionUser, body: PuzzleCreate): PuzzleStarted {
+export function createPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, body: PuzzleCreate): PuzzleStarted {
+  const { db } = deps;
   const found = db.select({ id: stock.id }).from(stock).where(eq(stock.id, body.stockId)).get();
   if (!found) throw new Unprocessable(`There is no stock tiling ${body.stockId}.`, [{ path: 'body.stockId', message: `no stock tiling ${body.stockId}` }]);
-  const { tiling } = stockTiling(db, body.stockId);
+  const { tiling } = deps.stock.tiling(db, body.stockId);
   const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : null;
   const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : null;
   const level: PuzzleLevel | null = body.kind === 'deduction' ? (body.level ?? null) : null;
@@ -172,7 +175,7 @@ export function createPuzzle(db: Db, runner: JobRunner, who: SessionUser, body: 
       })
       .returning({ id: puzzle.id })
       .get();
-    markStockUsed(tx, body.stockId);
+    deps.stock.markUsed(tx, body.stockId);
     return row.id;
   });
   const input: PuzzleJobInput = { kind: body.kind, tiling, level, showFrame, starters, givens, grade: body.grade ?? null, seed: body.seed ?? 1 };
@@ -187,26 +190,21 @@ function getRow(db: DbOrTx, id: number): PuzzleRow {
 }
 
 /** A puzzle in an edition that has gone to proof (or beyond) may not change. */
-function lockedBy(db: DbOrTx, id: number): string | null {
-  const r = db
-    .select({ number: edition.number, state: edition.state, title: publication.title })
-    .from(editionSlot)
-    .innerJoin(edition, eq(edition.id, editionSlot.editionId))
-    .innerJoin(publication, eq(publication.id, edition.publicationId))
-    .where(and(eq(editionSlot.puzzleId, String(id)), inArray(edition.state, ['in_proof', 'approved', 'published'])))
-    .get();
-  return r ? `${r.title} No. ${r.number} (${r.state.replace('_', ' ')})` : null;
+function lockedBy(deps: PuzzlesStore, id: number): string | null {
+  const r = deps.editionUsage.usesOf(deps.db, [id]).find((u) => u.state !== 'draft');
+  return r ? `${r.publicationTitle} No. ${r.number} (${r.state.replace('_', ' ')})` : null;
 }
 
-export function patchPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: number, body: PuzzlePatch): PuzzleStarted {
+export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, id: number, body: PuzzlePatch): PuzzleStarted {
+  const { db } = deps;
   const r = getRow(db, id);
-  const locked = lockedBy(db, id);
+  const locked = lockedBy(deps, id);
   if (locked) throw new Conflict(`Puzzle ${id} is in ${locked}; it can no longer change.`);
   if (r.kind === 'assembly' && (body.givens !== undefined || body.level !== undefined || body.showFrame !== undefined)) {
     throw new Unprocessable('An Assembly puzzle has starter pieces only.', [{ path: body.givens !== undefined ? 'body.givens' : 'body.level', message: 'not for an Assembly puzzle' }]);
   }
   if (r.kind === 'deduction' && body.starters !== undefined) throw new Unprocessable('A Deduction puzzle has givens, not starter pieces.', [{ path: 'body.starters', message: 'not for a Deduction puzzle' }]);
-  const { tiling } = stockTiling(db, r.stockId);
+  const { tiling } = deps.stock.tiling(db, r.stockId);
   const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : parseJson<Placed[]>(r.startersJson, []);
   const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : parseJson<Placed[]>(r.givensJson, []);
   const level = r.kind === 'deduction' ? (body.level ?? levelOf(r) ?? DEFAULT_LEVEL) : null;
@@ -227,12 +225,13 @@ export function patchPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: num
   return { id, jobId: submitJob(db, runner, id, revision, propose ? 'make' : 'prove', input, who.id) };
 }
 
-export function recheckPuzzle(db: Db, runner: JobRunner, who: SessionUser, id: number): PuzzleStarted {
+export function recheckPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, id: number): PuzzleStarted {
+  const { db } = deps;
   const r = getRow(db, id);
   if (r.status === 'proving') throw new Conflict(`Puzzle ${id} is being proved; re-check it when the proof is done.`);
   const cert = certificateOf(r);
   if (!cert) throw new Conflict(`Puzzle ${id} has no certificate to re-check.`);
-  const { tiling } = stockTiling(db, r.stockId);
+  const { tiling } = deps.stock.tiling(db, r.stockId);
   db.update(puzzle).set({ status: 'proving', updatedAt: new Date() }).where(eq(puzzle.id, id)).run();
   return { id, jobId: submitJob(db, runner, id, r.revision, 'recheck', jobInputOf(r, tiling, { certificate: cert as Certificate }), who.id) };
 }
@@ -270,22 +269,13 @@ export function staleReasons(r: Pick<PuzzleRow, 'certificateJson' | 'inputHash' 
   return out;
 }
 
-function usesOf(db: DbOrTx, ids: number[]): Map<number, PuzzleSummary['usedIn']> {
+function usesOf(deps: PuzzlesStore, ids: number[]): Map<number, PuzzleSummary['usedIn']> {
   const m = new Map<number, PuzzleSummary['usedIn']>();
   if (ids.length === 0) return m;
-  const rows = db
-    .select({ puzzleId: editionSlot.puzzleId, editionId: edition.id, number: edition.number, editionDate: edition.editionDate, state: edition.state, title: publication.title })
-    .from(editionSlot)
-    .innerJoin(edition, eq(edition.id, editionSlot.editionId))
-    .innerJoin(publication, eq(publication.id, edition.publicationId))
-    .where(inArray(editionSlot.puzzleId, ids.map(String)))
-    .orderBy(asc(edition.editionDate))
-    .all();
-  for (const x of rows) {
-    const k = Number(x.puzzleId);
-    const list = m.get(k) ?? [];
-    list.push({ editionId: x.editionId, publicationTitle: x.title, number: x.number, editionDate: x.editionDate, state: x.state });
-    m.set(k, list);
+  for (const x of deps.editionUsage.usesOf(deps.db, ids)) {
+    const list = m.get(x.puzzleId) ?? [];
+    list.push({ editionId: x.editionId, publicationTitle: x.publicationTitle, number: x.number, editionDate: x.editionDate, state: x.state });
+    m.set(x.puzzleId, list);
   }
   return m;
 }
@@ -319,13 +309,14 @@ const summaryColumns = {
   tilingKey: stock.canonicalKey, order: stock.order, width: stock.width, height: stock.height,
 };
 
-export function getPuzzle(db: Db, runner: JobRunner, id: number): PuzzleDetail {
+export function getPuzzle(deps: PuzzlesStore, runner: JobRunner, id: number): PuzzleDetail {
+  const { db } = deps;
   const r = getRow(db, id);
   const s = db.select(summaryColumns).from(puzzle).innerJoin(stock, eq(stock.id, puzzle.stockId)).where(eq(puzzle.id, id)).get()!;
-  const { tiling } = stockTiling(db, r.stockId);
+  const { tiling } = deps.stock.tiling(db, r.stockId);
   const job = r.jobId ? runner.get(r.jobId) : null;
   return {
-    ...toSummary(s, usesOf(db, [id]).get(id) ?? [], job),
+    ...toSummary(s, usesOf(deps, [id]).get(id) ?? [], job),
     showFrame: r.showFrame,
     tiling,
     starters: parseJson<Placed[]>(r.startersJson, []),
@@ -344,7 +335,8 @@ const printableWhere = (): SQL => and(eq(puzzle.status, 'unique'), eq(puzzle.cer
 
 const sortColumns = { createdAt: puzzle.createdAt, updatedAt: puzzle.updatedAt, grade: puzzle.grade, order: stock.order, id: puzzle.id } as const;
 
-export function listPuzzles(db: Db, runner: JobRunner, q: PuzzleListQuery): PuzzleList {
+export function listPuzzles(deps: PuzzlesStore, runner: JobRunner, q: PuzzleListQuery): PuzzleList {
+  const { db } = deps;
   const w: SQL[] = [];
   if (q.kind) w.push(eq(puzzle.kind, q.kind));
   if (q.status) w.push(eq(puzzle.status, q.status));
@@ -364,13 +356,13 @@ export function listPuzzles(db: Db, runner: JobRunner, q: PuzzleListQuery): Puzz
     .offset((q.page - 1) * q.pageSize)
     .all();
   const total = db.select({ n: count() }).from(puzzle).innerJoin(stock, eq(stock.id, puzzle.stockId)).where(where).get()?.n ?? 0;
-  const used = usesOf(db, rows.map((r) => r.id));
+  const used = usesOf(deps, rows.map((r) => r.id));
   return { items: rows.map((r) => toSummary(r, used.get(r.id) ?? [], r.status === 'proving' && r.jobId ? runner.get(r.jobId) : null)), total, page: q.page, pageSize: q.pageSize };
 }
 
 // ---- print's view and the stock's history ---------------------------------------------
 
-export function getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint | null {
+export function getPuzzleForPrint(stockPort: StockPort, db: DbOrTx, puzzleId: string): PuzzleForPrint | null {
   if (!/^\d{1,15}$/.test(puzzleId)) return null;
   const r = db
     .select({ row: puzzle, tilingKey: stock.canonicalKey, setterId: stock.setterId })
@@ -380,7 +372,7 @@ export function getPuzzleForPrint(db: DbOrTx, puzzleId: string): PuzzleForPrint 
     .get();
   if (!r) return null;
   const p = r.row;
-  const { tiling } = stockTiling(db, p.stockId);
+  const { tiling } = stockPort.tiling(db, p.stockId);
   const cert = certificateOf(p);
   const stale = staleReasons(p);
   const certificate = cert ? { current: stale.length === 0, summary: stale.length === 0 ? `unique (${cert.engineVersion}, ${cert.createdAt.slice(0, 10)}, input ${cert.inputHash.slice(0, 12)})` : stale.join('; ') } : null;
@@ -403,30 +395,28 @@ export function listPrintablePuzzleIds(db: DbOrTx): string[] {
   return db.select({ id: puzzle.id }).from(puzzle).where(printableWhere()).orderBy(desc(puzzle.createdAt), desc(puzzle.id)).all().map((r) => String(r.id));
 }
 
-export const puzzleStore: PuzzleSource = { getPuzzleForPrint, listPrintablePuzzleIds };
+/** Print's view of the puzzle store (PuzzleSource in ../editions/ports.ts). */
+export function createPuzzleSource(stockPort: StockPort): PuzzleSource {
+  return { getPuzzleForPrint: (db, puzzleId) => getPuzzleForPrint(stockPort, db, puzzleId), listPrintablePuzzleIds };
+}
 
-/** The stock's history and summary: puzzles made from a tiling, counts by grade. */
-export function installStockUsage(): void {
-  setStockUsage({
+/** The stock's history and summary (StockUsage in ../stock/ports.ts): puzzles made from a tiling, the editions they went into, counts by grade. */
+export function createStockUsage(editionUsage: EditionUsage): StockUsage {
+  return {
     puzzlesFor: (db, stockId) =>
       db.select({ id: puzzle.id, kind: puzzle.kind, grade: puzzle.grade, createdAt: puzzle.createdAt }).from(puzzle).where(eq(puzzle.stockId, stockId)).orderBy(asc(puzzle.createdAt)).all()
         .map((p) => ({ id: p.id, kind: p.kind, grade: p.grade, createdAt: p.createdAt.toISOString() })),
     // editions whose slots hold a puzzle made from this tiling, one entry per edition
     editionsFor: (db, stockId) => {
-      const rows = db
-        .select({ id: edition.id, number: edition.number, date: edition.editionDate, title: publication.title })
-        .from(editionSlot)
-        .innerJoin(edition, eq(edition.id, editionSlot.editionId))
-        .innerJoin(publication, eq(publication.id, edition.publicationId))
-        .innerJoin(puzzle, sql`${puzzle.id} = cast(${editionSlot.puzzleId} as integer)`)
-        .where(eq(puzzle.stockId, stockId))
-        .orderBy(asc(edition.editionDate))
-        .all();
+      const ids = db.select({ id: puzzle.id }).from(puzzle).where(eq(puzzle.stockId, stockId)).all().map((r) => r.id);
       const seen = new Set<string>();
-      return rows.filter((r) => !seen.has(r.id) && seen.add(r.id)).map((r) => ({ id: r.id, title: `${r.title} No. ${r.number}`, date: r.date }));
+      return editionUsage
+        .usesOf(db, ids)
+        .filter((u) => !seen.has(u.editionId) && seen.add(u.editionId))
+        .map((u) => ({ id: u.editionId, title: `${u.publicationTitle} No. ${u.number}`, date: u.editionDate }));
     },
     gradeCounts: (db) =>
       db.select({ grade: puzzle.grade, count: count() }).from(puzzle).where(sql`${puzzle.grade} is not null`).groupBy(puzzle.grade).orderBy(asc(puzzle.grade)).all()
         .map((g) => ({ grade: g.grade ?? 0, count: g.count })),
-  });
+  };
 }

@@ -1,14 +1,14 @@
 import { idParamsSchema } from '../../../shared/contracts/submissions';
 import { imageQuerySchema, stockDetailSchema, stockExportQuerySchema, stockListQuerySchema, stockListSchema, stockSummarySchema } from '../../../shared/contracts/stock';
-import type { AppDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderTilingPng, PNG_SIZES } from '../../platform/images/tiling-png';
+import type { StockDeps } from './ports';
 import { exportStock, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary, stockTiling } from './stock';
 
 /** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
 const PNG_CACHE_MAX = 500;
 
-export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
+export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
   const tags = ['stock'];
   const pngCache = new Map<string, Buffer>();
 
@@ -21,7 +21,7 @@ export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
   route(
     router,
     { method: 'GET', path: '/api/stock/summary', summary: 'Counts of the stock by order (and grade once puzzles exist)', tags, response: stockSummarySchema },
-    () => stockSummary(deps.db),
+    () => stockSummary(deps.db, deps.stockUsage),
   );
 
   route(
@@ -70,6 +70,6 @@ export function registerStockRoutes(router: ApiRouter, deps: AppDeps) {
   route(
     router,
     { method: 'GET', path: '/api/stock/:id', summary: 'One stock tiling: drawing and Smith diagram data, codes, class, provenance, history', tags, params: idParamsSchema, response: stockDetailSchema },
-    ({ params }) => getStockDetail(deps.db, params.id),
+    ({ params }) => getStockDetail(deps, params.id),
   );
 }

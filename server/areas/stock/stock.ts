@@ -6,27 +6,12 @@ import type { z } from 'zod';
 import type { Statement } from 'better-sqlite3';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { stock } from './schema';
-import { submission } from '../intake/schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
+import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
 // (review, foundry, demo seed all call it).
-
-export interface AddToStockInput {
-  tiling: Tiling;
-  provenance: Provenance;
-  setterId?: string | null;
-  params?: Record<string, unknown> | null;
-  acceptedAt?: Date | null;
-}
-
-export interface AddToStockResult {
-  id: number;
-  /** false when the tiling (up to symmetry) was already in the stock: nothing changed */
-  created: boolean;
-  canonicalKey: string;
-}
 
 /**
  * Put a tiling into the stock inside the caller's transaction. Idempotent by canonical key:
@@ -90,21 +75,6 @@ export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
 /** The id of the stock row with this canonical key, if any. */
 export function findStockByKey(db: DbOrTx, key: string): number | null {
   return db.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, key)).get()?.id ?? null;
-}
-
-/**
- * Where stock tilings were used: the puzzle and edition areas plug in here (setStockUsage)
- * once they exist; until then the history lists are empty.
- */
-export interface StockUsage {
-  puzzlesFor(db: DbOrTx, stockId: number): StockDetail['history']['puzzles'];
-  editionsFor(db: DbOrTx, stockId: number): StockDetail['history']['editions'];
-  gradeCounts(db: DbOrTx): StockSummary['byGrade'];
-}
-const noUsage: StockUsage = { puzzlesFor: () => [], editionsFor: () => [], gradeCounts: () => [] };
-let usage: StockUsage = noUsage;
-export function setStockUsage(u: StockUsage | null): void {
-  usage = u ?? noUsage;
 }
 
 type StockFilter = z.infer<typeof stockFilterSchema>;
@@ -423,17 +393,18 @@ function listStockUncached(db: Db, q: StockListQuery): StockList {
   };
 }
 
-export function stockTiling(db: DbOrTx, id: number): { tiling: Tiling; canonicalKey: string } {
+export function stockTiling(db: DbOrTx, id: number): StockTiling {
   const r = db
-    .select({ width: stock.width, height: stock.height, squaresJson: stock.squaresJson, canonicalKey: stock.canonicalKey })
+    .select({ width: stock.width, height: stock.height, squaresJson: stock.squaresJson, canonicalKey: stock.canonicalKey, setterId: stock.setterId })
     .from(stock)
     .where(eq(stock.id, id))
     .get();
   if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
-  return { tiling: tilingFromJson(r.width, r.height, r.squaresJson), canonicalKey: r.canonicalKey };
+  return { tiling: tilingFromJson(r.width, r.height, r.squaresJson), canonicalKey: r.canonicalKey, setterId: r.setterId };
 }
 
-export function getStockDetail(db: DbOrTx, id: number): StockDetail {
+export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submissionHistory: SubmissionHistory }, id: number): StockDetail {
+  const { db, stockUsage: usage } = deps;
   const r = db
     .select({ ...itemColumns, squaresJson: stock.squaresJson, paramsJson: stock.paramsJson })
     .from(stock)
@@ -443,17 +414,12 @@ export function getStockDetail(db: DbOrTx, id: number): StockDetail {
   const { squaresJson, paramsJson, ...item } = r;
   // the stored orientation is the canonical one: its Bouwkamp code is the canonical code
   const tiling = tilingFromJson(r.width, r.height, squaresJson);
-  const subs = db
-    .select({ id: submission.id, createdAt: submission.createdAt, reviewedAt: submission.reviewedAt, status: submission.status })
-    .from(submission)
-    .where(and(eq(submission.stockId, id), eq(submission.status, 'accepted')))
-    .orderBy(asc(submission.createdAt))
-    .all();
+  const subs = deps.submissionHistory.acceptedFor(db, id);
   const events: StockDetail['history']['events'] = [];
   if (subs.length === 0) events.push({ kind: 'added', at: r.createdAt.toISOString(), note: `added by ${r.provenance}` });
   for (const s of subs) {
-    events.push({ kind: 'submitted', at: s.createdAt.toISOString(), submissionId: s.id });
-    if (s.reviewedAt) events.push({ kind: 'accepted', at: s.reviewedAt.toISOString(), submissionId: s.id });
+    events.push({ kind: 'submitted', at: s.submittedAt.toISOString(), submissionId: s.submissionId });
+    if (s.acceptedAt) events.push({ kind: 'accepted', at: s.acceptedAt.toISOString(), submissionId: s.submissionId });
   }
   return {
     ...toItem(item),
@@ -466,7 +432,7 @@ export function getStockDetail(db: DbOrTx, id: number): StockDetail {
   };
 }
 
-export function stockSummary(db: DbOrTx): StockSummary {
+export function stockSummary(db: DbOrTx, usage: StockUsage): StockSummary {
   const byOrder = db
     .select({ order: stock.order, count: count() })
     .from(stock)
@@ -510,3 +476,30 @@ export function stockCodeFile(items: StockItem[], now: Date): string {
   const head = [`# Squarewright stock export, ${items.length} tilings, ${now.toISOString()}`, '# one canonical Bouwkamp code per line'];
   return [...head, ...items.map((i) => i.canonicalCode)].join('\n') + '\n';
 }
+
+/** Every canonical key in the stock. */
+export function allStockKeys(db: DbOrTx): string[] {
+  return db.select({ k: stock.canonicalKey }).from(stock).all().map((r) => r.k);
+}
+
+/** Perfect rectangles that are not squares, by id, at most `limit`. */
+export function perfectRectangles(db: DbOrTx, limit: number): { id: number; tiling: Tiling }[] {
+  return db
+    .select({ id: stock.id, width: stock.width, height: stock.height, squaresJson: stock.squaresJson })
+    .from(stock)
+    .where(and(eq(stock.perfect, true), eq(stock.square, false)))
+    .orderBy(asc(stock.id))
+    .limit(limit)
+    .all()
+    .map((r) => ({ id: r.id, tiling: tilingFromJson(r.width, r.height, r.squaresJson) }));
+}
+
+/** The stock's port for other areas (see ./ports.ts), wired in server/compose.ts. */
+export const stockPort: StockPort = {
+  add: addToStock,
+  markUsed: markStockUsed,
+  tiling: stockTiling,
+  findByKey: findStockByKey,
+  allKeys: allStockKeys,
+  perfectRectangles,
+};

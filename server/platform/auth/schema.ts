@@ -1,10 +1,10 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 
-// Sign-in tables in the shape better-auth expects (core models + admin plugin fields),
-// plus our invitations. Other areas reference `user.id` for ownership.
+// Sign-in tables in the shape better-auth expects (core models + admin plugin fields).
+// Areas reference `user.id` for ownership and read names and e-mails from `user`.
 
-const createdAt = () =>
+export const createdAt = () =>
   integer('created_at', { mode: 'timestamp_ms' })
     .notNull()
     .default(sql`(cast(unixepoch('subsecond') * 1000 as integer))`);
@@ -79,21 +79,4 @@ export const verification = sqliteTable(
     updatedAt: updatedAt(),
   },
   (t) => [index('verification_identifier_idx').on(t.identifier)],
-);
-
-/** An admin's invitation: only the SHA-256 of the token is stored. */
-export const invitation = sqliteTable(
-  'invitation',
-  {
-    id: text('id').primaryKey(),
-    email: text('email').notNull(),
-    role: text('role', { enum: ['admin', 'editor', 'setter', 'printer'] }).notNull(),
-    tokenHash: text('token_hash').notNull().unique(),
-    invitedBy: text('invited_by').references(() => user.id, { onDelete: 'set null' }),
-    expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
-    acceptedAt: integer('accepted_at', { mode: 'timestamp_ms' }),
-    acceptedUserId: text('accepted_user_id').references(() => user.id, { onDelete: 'set null' }),
-    createdAt: createdAt(),
-  },
-  (t) => [index('invitation_email_idx').on(t.email)],
 );

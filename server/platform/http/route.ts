@@ -5,7 +5,7 @@ import type { SessionUser } from '../../../shared/contracts/auth';
 import { roleSchema, type Role } from '../../../shared/contracts/common';
 import { isAllowed, permissions, type Access } from '../auth/permissions';
 import { readSessionFast } from '../auth/session-reader';
-import type { AppDeps } from '../deps';
+import type { PlatformDeps } from '../deps';
 import { Forbidden, Unauthorized } from './errors';
 import { OpenApiCollector } from './openapi';
 
@@ -73,12 +73,12 @@ export type RouteHandler<P, Q, B, R> = (
 /** What register<Area>Routes(router, deps) receives. */
 export type ApiRouter = {
   express: Router;
-  deps: AppDeps;
+  deps: PlatformDeps;
   openapi: OpenApiCollector;
   registered: Set<string>;
 };
 
-export function createApiRouter(deps: AppDeps): ApiRouter {
+export function createApiRouter(deps: PlatformDeps): ApiRouter {
   return { express: Router(), deps, openapi: new OpenApiCollector(), registered: new Set() };
 }
 
@@ -89,7 +89,7 @@ function toSessionUser(u: { id: string; email: string; name: string; role?: stri
   return { id: u.id, email: u.email, name: u.name, role: role.data };
 }
 
-async function readSessionUser(deps: AppDeps, req: Request, res: Response): Promise<SessionUser | null> {
+async function readSessionUser(deps: PlatformDeps, req: Request, res: Response): Promise<SessionUser | null> {
   // the common case (a live session that needs no extension) is read straight from the database,
   // fresh on every request; anything else is better-auth's (server/auth/session-reader.ts)
   const fast = await readSessionFast(deps.auth, deps.db, req.headers.cookie);

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { invitation } from '../../../server/platform/auth/schema';
+import { invitation } from '../../../server/areas/accounts/schema';
 import { hashToken, invitationLifetimeMs } from '../../../server/areas/accounts/invitations';
 import { errorBodySchema } from '../../../shared/contracts/common';
 import { adminUserListResponseSchema, mailboxListResponseSchema, mailboxMessageResponseSchema } from '../../../shared/contracts/users';

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { user } from '../../../server/platform/auth/schema';
-import type { PuzzleForPrint } from '../../../server/areas/editions/editions';
+import type { PuzzleForPrint } from '../../../server/areas/editions/ports';
 import { listEditions } from '../../../server/areas/editions/editions';
 import { saturdayOnOrAfter, seedDemoEditions } from '../../../server/areas/editions/proofs';
 import { listPublications, seedDemoPublications } from '../../../server/areas/editions/publications';
@@ -42,7 +42,7 @@ describe('print demo data', () => {
         solution: { tiling },
       }),
     );
-    t.deps.puzzlesForPrint = { getPuzzleForPrint: (_db, id) => puzzles.find((p) => p.id === id) ?? null, listPrintablePuzzleIds: () => puzzles.map((p) => p.id) };
+    t.deps.puzzles = { getPuzzleForPrint: (_db, id) => puzzles.find((p) => p.id === id) ?? null, listPrintablePuzzleIds: () => puzzles.map((p) => p.id) };
     await seedDemoEditions(t.deps);
     const list = listEditions(t.deps, admin, {});
     expect(list.map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort()).toEqual([

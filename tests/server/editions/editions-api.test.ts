@@ -5,7 +5,7 @@ import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
-import type { PuzzleForPrint, PuzzleSource } from '../../../server/areas/editions/editions';
+import type { PuzzleForPrint, PuzzleSource } from '../../../server/areas/editions/ports';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { hasPoppler, pdftotext, writeTemp } from '../print/poppler';
@@ -27,11 +27,11 @@ function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => 
   res.on('end', () => cb(null, Buffer.concat(chunks)));
 }
 
-const source: PuzzleSource = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null };
+const source: PuzzleSource = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null, listPrintablePuzzleIds: () => [...puzzles.keys()] };
 
 beforeAll(async () => {
   t = await createTestApp();
-  t.deps.puzzlesForPrint = source;
+  t.deps.puzzles = source;
   admin = await t.signInAs('admin');
   editor = await t.signInAs('editor');
   printer = await t.signInAs('printer');

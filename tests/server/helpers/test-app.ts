@@ -12,7 +12,7 @@ import { buildDeps } from '../../../server/compose';
 import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
 import { user } from '../../../server/platform/auth/schema';
 import { mailboxMessage } from '../../../server/platform/mail/schema';
-import type { AppDeps } from '../../../server/platform/deps';
+import type { AppDeps } from '../../../server/app-deps';
 import type { ApiRouter } from '../../../server/platform/http/route';
 import { loadEnv, type EnvInput } from '../../../server/platform/env';
 import { startFakeSmtp, type FakeSmtp } from '../../../server/platform/mail/fake-smtp';

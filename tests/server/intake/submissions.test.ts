@@ -141,7 +141,7 @@ describe('POST /api/submissions/upload', () => {
     const before = rows();
     const file = Buffer.from([order10Codes[3], order10Codes[4], order10Codes[5]].join('\n'));
     expect(() =>
-      uploadSubmissions(t.db, { id: setterId, role: 'setter' }, 'crash.txt', file, {
+      uploadSubmissions(t.deps, { id: setterId, role: 'setter' }, 'crash.txt', file, {
         beforeWrite: (line) => {
           if (line === 3) throw new Error('simulated crash at line 3');
         },

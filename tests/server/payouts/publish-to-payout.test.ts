@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import type { PuzzleForPrint } from '../../../server/areas/editions/editions';
+import type { PuzzleForPrint } from '../../../server/areas/editions/ports';
 import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
@@ -18,7 +18,7 @@ const puzzles = new Map<string, PuzzleForPrint>();
 
 beforeAll(async () => {
   t = await createMoneyTestApp();
-  t.deps.puzzlesForPrint = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null };
+  t.deps.puzzles = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null, listPrintablePuzzleIds: () => [...puzzles.keys()] };
 });
 afterAll(async () => {
   await t.closeAll();

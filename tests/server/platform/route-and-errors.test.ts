@@ -4,7 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { APIError } from 'better-auth/api';
 import { eq } from 'drizzle-orm';
-import { invitation } from '../../../server/platform/auth/schema';
+import { invitation } from '../../../server/areas/accounts/schema';
 import { z } from 'zod';
 import { isAllowed, permissions } from '../../../server/platform/auth/permissions';
 import { apiNotFound, errorHandler } from '../../../server/platform/http/error-handler';

@@ -6,7 +6,7 @@ import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runt
 import { listEditions } from '../../../server/areas/editions/editions';
 import { seedDemoEditions } from '../../../server/areas/editions/proofs';
 import { seedDemoPublications } from '../../../server/areas/editions/publications';
-import { getPuzzle, installStockUsage, listPrintablePuzzleIds, listPuzzles } from '../../../server/areas/puzzles/puzzles';
+import { getPuzzle, listPrintablePuzzleIds, listPuzzles } from '../../../server/areas/puzzles/puzzles';
 import { getStockDetail } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
@@ -28,13 +28,13 @@ const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
 describe('demo puzzles', () => {
   it('are made from the demo stock, of both kinds, proved unique at seed time, quickly', () => {
     const runner = jobRunnerFor(t.db);
-    const list = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } });
+    const list = listPuzzles(t.deps, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } });
     expect(list.total).toBe(6);
     expect(new Set(list.items.map((p) => p.kind))).toEqual(new Set(['assembly', 'deduction']));
     // distinct tilings, so the editions' reuse guard lets them all in
     expect(new Set(list.items.map((p) => p.tilingKey)).size).toBe(6);
     for (const s of list.items) {
-      const p = getPuzzle(t.db, runner, s.id);
+      const p = getPuzzle(t.deps, runner, s.id);
       expect(p.status).toBe('unique');
       expect(p.certificateCurrent).toBe(true);
       expect(verifyTiling(p.tiling).ok).toBe(true);
@@ -42,7 +42,7 @@ describe('demo puzzles', () => {
     }
     expect(listPrintablePuzzleIds(t.db)).toHaveLength(6);
     // the demo stock has a perfect order-16 set with two ways to assemble it: one demo Assembly carries starter pieces
-    expect(list.items.some((s) => s.kind === 'assembly' && getPuzzle(t.db, runner, s.id).starters.length > 0)).toBe(true);
+    expect(list.items.some((s) => s.kind === 'assembly' && getPuzzle(t.deps, runner, s.id).starters.length > 0)).toBe(true);
     // "keep it fast": under 5 s for all six (our budget for start-up work, common practice)
     expect(seedMs).toBeLessThan(5000);
   });
@@ -52,16 +52,15 @@ describe('demo puzzles', () => {
     const states = listEditions(t.deps, admin, {}).map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort();
     expect(states).toContain('The Saturday Quadrant 40 published');
     expect(states).toContain('The Saturday Quadrant 41 in_proof');
-    const used = listPuzzles(t.db, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
+    const used = listPuzzles(t.deps, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
     expect(used.length).toBe(4);
   });
 
   it("show on each stock tiling's history the editions its puzzles went into", () => {
-    installStockUsage();
     const runner = jobRunnerFor(t.db);
-    const used = listPuzzles(t.db, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
+    const used = listPuzzles(t.deps, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
     for (const p of used) {
-      const detail = getStockDetail(t.db, getPuzzle(t.db, runner, p.id).stockId);
+      const detail = getStockDetail(t.deps, getPuzzle(t.deps, runner, p.id).stockId);
       const expected = p.usedIn.map((u) => `${u.publicationTitle} No. ${u.number}`);
       expect(detail.history.editions.map((e) => e.title)).toEqual(expected);
       expect(detail.history.editions.map((e) => e.id)).toEqual(p.usedIn.map((u) => u.editionId));

@@ -25,7 +25,7 @@ it('a proof interrupted by a server stop leaves the puzzle failed and not printa
   const runner = jobRunnerFor(t.db);
   expect(runner.get(jobId)?.state).toBe('interrupted');
   await new Promise((r) => setTimeout(r, 50));
-  const p = getPuzzle(t.db, runner, id);
+  const p = getPuzzle(t.deps, runner, id);
   expect(p.status).toBe('failed');
   expect(p.certificate).toBeNull();
   expect(p.certificateCurrent).toBe(false);

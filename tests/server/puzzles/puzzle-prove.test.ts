@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { canonicalJson, normaliseCertificateInput, sha256Hex } from '../../../shared/puzzle/index';
 import { parseTiling } from '../../../shared/tiling/index';
-import { assemblyGrade, certificateInputOf, provePuzzle, type PuzzleJobInput } from '../../../server/areas/puzzles/prove-job';
+import { assemblyGrade, certificateInputOf, provePuzzle, type PuzzleJobInput } from '../../../server/areas/puzzles/rules';
 import { ORDER_9, SQUARE_112, TWIN_13 } from './fixtures';
 
 // The work of a 'puzzle-prove' job, run in-process (the worker runs the same function).

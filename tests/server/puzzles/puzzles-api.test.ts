@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { puzzleDetailSchema, puzzleListSchema, puzzleStartedSchema, type PuzzleDetail } from '../../../shared/contracts/puzzles';
 import { parseTiling, verifyTiling } from '../../../shared/tiling/index';
 import { closeJobRunner } from '../../../server/platform/jobs/runtime';
-import { getPuzzleForPrint, listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
+import { listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
 import { addToStock } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { ORDER_9, ORDER_9_SIZES, TWIN_13 } from './fixtures';
@@ -86,7 +86,7 @@ describe('puzzles API', () => {
     expect(p.grade).toBeGreaterThanOrEqual(1);
     expect(p.grade).toBeLessThanOrEqual(5);
     expect(listPrintablePuzzleIds(t.db)).toContain(String(p.id));
-    const print = getPuzzleForPrint(t.db, String(p.id));
+    const print = t.deps.puzzles.getPuzzleForPrint(t.db, String(p.id));
     expect(print?.certificate?.current).toBe(true);
     expect(print?.deduction?.givens.length).toBe(p.givens.length);
     expect(print?.solution.steps?.length).toBe(p.steps.length);
@@ -106,7 +106,7 @@ describe('puzzles API', () => {
     const during = puzzleDetailSchema.parse((await editor.get(`/api/puzzles/${id}`).expect(200)).body);
     if (during.status === 'proving') {
       expect(during.certificateCurrent).toBe(false);
-      expect(getPuzzleForPrint(t.db, String(id))?.certificate?.current).toBe(false);
+      expect(t.deps.puzzles.getPuzzleForPrint(t.db, String(id))?.certificate?.current).toBe(false);
     }
     const none = await settled(editor, id);
     expect(none.status).toBe('not-unique');
@@ -115,7 +115,7 @@ describe('puzzles API', () => {
     expect(none.certificateCurrent).toBe(false);
     expect(none.staleReasons.join(' ')).toMatch(/not unique/);
     expect(listPrintablePuzzleIds(t.db)).not.toContain(String(id));
-    const print = getPuzzleForPrint(t.db, String(id));
+    const print = t.deps.puzzles.getPuzzleForPrint(t.db, String(id));
     expect(print?.certificate?.current).toBe(false);
 
     // one printed size fixes the scale: the rank proof says unique (same fact, other side),

@@ -14,7 +14,7 @@ let setterId: string;
 beforeAll(async () => {
   t = await createTestApp();
   setterId = await t.createUser('setter');
-  seedBulkStock(t.db, 400);
+  seedBulkStock(t.deps, 400);
   const setterRows = t.db.select({ id: stock.id }).from(stock).where(eq(stock.provenance, 'setter')).all().slice(0, 30);
   for (const r of setterRows) t.db.update(stock).set({ setterId }).where(eq(stock.id, r.id)).run();
   t.db.transaction((tx) => {

@@ -1,0 +1,3 @@
+// The foundry area's public face: its routes and its demo seeder (composition root only).
+export { registerFoundryRoutes } from './routes';
+export { seedDemoFoundry } from './demo-seed';

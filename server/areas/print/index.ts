@@ -1,0 +1,6 @@
+// The print area's public face: page templates, the edition document's types, and the
+// renderer (PDF with its preflight). The editions area prints through these.
+export { registerTemplateRoutes } from './routes';
+export { renderEditionPdf, warmPrint, type RenderOptions } from './render-edition';
+export { getPageTemplate, pageTemplates } from './templates';
+export type { EditionDocument, LayoutRect, PuzzlePrint, RenderResult, SolutionPrint, SolvedTiling } from './types';

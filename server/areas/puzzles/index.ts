@@ -1,0 +1,5 @@
+// The puzzles area's public face: routes, the demo seeder, and what it offers other areas
+// (print's PuzzleSource and the stock's StockUsage), wired in server/compose.ts.
+export { registerPuzzleRoutes } from './routes';
+export { seedDemoPuzzles } from './demo-seed';
+export { createPuzzleSource, createStockUsage } from './puzzles';

@@ -1,0 +1,173 @@
+import { createHash } from 'node:crypto';
+import { z } from 'zod';
+import { certify, findFewestStarters, makeDeductionPuzzle, recheckCertificate } from '../../../shared/puzzle/index';
+import type { Certificate, CertificateInput } from '../../../shared/puzzle/index';
+import type { Tiling } from '../../../shared/tiling/index';
+
+// The puzzle rules and the proof procedure, used by the puzzle service, the proof job
+// (./prove-job.ts, in the worker pool) and the demo seeder. Three tasks:
+// - make:    the engine proposes (Assembly: the fewest starter pieces when the bare set is not
+//            unique; Deduction: givens for the level, or the level whose grade comes closest
+//            to the grade wished) and certifies the result;
+// - prove:   certify the starters / givens the editor chose;
+// - recheck: recompute a stored certificate and compare.
+// The SHA-256 of the certificate input is node's (node:crypto), injected into the engine.
+
+export const PUZZLE_JOB_KIND = 'puzzle-prove';
+
+/** Deduction levels tried when a grade is wished and no level given (our choice: 1..4, then the closure). */
+const GRADE_LEVELS: (number | 'closure')[] = [1, 2, 3, 4, 'closure'];
+/** Default Deduction level when neither a level nor a grade is given (our choice). */
+export const DEFAULT_LEVEL = 3;
+/** Time for one Assembly search inside a job [common practice: bound every search]. */
+const ASSEMBLY_MS = 60_000;
+
+export const nodeSha256 = (text: string): string => createHash('sha256').update(text, 'utf8').digest('hex');
+
+const placed = z.object({ x: z.number().int(), y: z.number().int(), size: z.number().int() });
+export const puzzleJobParamsSchema = z.object({ puzzleId: z.number().int().positive(), revision: z.number().int().min(1), task: z.enum(['make', 'prove', 'recheck']) });
+export type PuzzleJobParams = z.infer<typeof puzzleJobParamsSchema>;
+
+export type Placed = z.infer<typeof placed>;
+
+export interface PuzzleJobInput {
+  kind: 'assembly' | 'deduction';
+  tiling: Tiling;
+  level: number | 'closure' | null;
+  showFrame: boolean;
+  /** null: the engine chooses */
+  starters: Placed[] | null;
+  givens: Placed[] | null;
+  grade: number | null;
+  seed: number;
+  /** recheck: the stored certificate */
+  certificate?: Certificate | null;
+}
+
+export interface PuzzleStepOut { square: number; label: string; round: number; value: number; text: string }
+
+export interface PuzzleJobSummary {
+  revision: number;
+  task: PuzzleJobParams['task'];
+  certificate: Certificate;
+  starters: Placed[];
+  givens: Placed[];
+  level: number | 'closure' | null;
+  steps: PuzzleStepOut[];
+  grade: number | null;
+  second: { tiling: Tiling; differ: number[] } | null;
+  notes: string[];
+  recheck?: { holds: boolean; reasons: string[] };
+}
+
+export interface ProveControl {
+  shouldStop?: () => boolean;
+  progress?: (phase: string, done: number) => void;
+  now?: () => Date;
+}
+
+/**
+ * Our Assembly grade (decision 070): by the number of pieces, one easier for every two
+ * starter pieces printed; 1..5.
+ */
+export function assemblyGrade(order: number, starters: number): number {
+  const base = order <= 11 ? 1 : order <= 14 ? 2 : order <= 18 ? 3 : order <= 22 ? 4 : 5;
+  return Math.max(1, Math.min(5, base - Math.floor(starters / 2)));
+}
+
+function levelArg(level: number | 'closure'): number {
+  return level === 'closure' ? Number.POSITIVE_INFINITY : level;
+}
+
+export function certificateInputOf(i: Pick<PuzzleJobInput, 'kind' | 'tiling' | 'level' | 'showFrame'>, starters: Placed[], givens: Placed[]): CertificateInput {
+  if (i.kind === 'assembly') {
+    return { kind: 'assembly', width: i.tiling.W, height: i.tiling.H, pieces: i.tiling.squares.map((q) => q.s), ...(starters.length > 0 ? { starters } : {}) };
+  }
+  return { kind: 'deduction', tiling: i.tiling, givens, level: i.level ?? DEFAULT_LEVEL, showFrame: i.showFrame };
+}
+
+function certifyPuzzle(i: PuzzleJobInput, starters: Placed[], givens: Placed[], c: ProveControl) {
+  return certify(certificateInputOf(i, starters, givens), {
+    hash: nodeSha256,
+    ...(c.now ? { createdAt: c.now } : {}),
+    assembly: {
+      budget: { maxMs: ASSEMBLY_MS },
+      ...(c.shouldStop ? { shouldStop: c.shouldStop } : {}),
+      onProgress: (nodes) => c.progress?.('assembly search nodes', nodes),
+    },
+  });
+}
+
+function summaryOf(i: PuzzleJobInput, task: PuzzleJobParams['task'], revision: number, starters: Placed[], givens: Placed[], level: number | 'closure' | null, notes: string[], c: ProveControl): PuzzleJobSummary {
+  const r = certifyPuzzle({ ...i, level }, starters, givens, c);
+  if (r.kind === 'assembly') {
+    const second = r.result.second ? { tiling: r.result.second.tiling, differ: r.result.second.difference.second } : null;
+    if (r.result.verdict === 'multiple' && r.result.second) notes.push(`a second solution moves the pieces of sizes ${r.result.second.difference.sizes.join(', ')}`);
+    if (r.result.reason) notes.push(r.result.reason);
+    return { revision, task, certificate: r.certificate, starters, givens: [], level: null, steps: [], grade: assemblyGrade(i.tiling.squares.length, starters.length), second, notes };
+  }
+  const res = r.result;
+  if (r.certificate.verdict === 'stuck') notes.push(`unique by rank, but level ${String(level)} does not reach every size`);
+  if (r.certificate.verdict === 'not-unique') notes.push(`the givens leave ${res.proof.unknowns - res.proof.rank} size(s) free: more than one solution`);
+  return {
+    revision, task, certificate: r.certificate, starters: [], givens, level,
+    steps: res.steps.map((s) => ({ square: s.square, label: s.label, round: s.round, value: s.value, text: s.text })),
+    grade: res.grade, second: null, notes,
+  };
+}
+
+/** The work of one puzzle job, outside the worker too (the demo seeder calls it directly). */
+export function provePuzzle(i: PuzzleJobInput, task: PuzzleJobParams['task'], revision: number, c: ProveControl = {}): PuzzleJobSummary {
+  const notes: string[] = [];
+  if (task === 'recheck') {
+    if (!i.certificate) throw new Error('there is no certificate to re-check');
+    const starters = i.starters ?? [];
+    const givens = i.givens ?? [];
+    const rc = recheckCertificate(i.certificate, certificateInputOf(i, starters, givens), { hash: nodeSha256, ...(c.now ? { createdAt: c.now } : {}) });
+    const s = summaryOf(i, task, revision, starters, givens, i.level, notes, c);
+    return { ...s, certificate: rc.fresh, recheck: { holds: rc.holds, reasons: rc.reasons } };
+  }
+  if (i.kind === 'assembly') {
+    if (task === 'make' && i.starters === null) {
+      c.progress?.('bare set', 0);
+      const bare = certifyPuzzle(i, [], [], c);
+      if (bare.certificate.verdict !== 'multiple') {
+        if (bare.certificate.verdict === 'unique') notes.push('the bare set of pieces already assembles in exactly one way: no starter pieces needed');
+        return summaryOf(i, task, revision, [], [], null, notes, c);
+      }
+      c.progress?.('fewest starter pieces', 0);
+      const f = findFewestStarters(i.tiling, {
+        budget: { maxMs: ASSEMBLY_MS },
+        ...(c.shouldStop ? { shouldStop: c.shouldStop } : {}),
+        onProgress: (nodes) => c.progress?.('fewest starter pieces: search nodes', nodes),
+      });
+      if (!f.starters) {
+        notes.push(`no set of up to 4 starter pieces makes it unique${f.stoppedBy ? ` (stopped: ${f.stoppedBy})` : ''}`);
+        return summaryOf(i, task, revision, [], [], null, notes, c);
+      }
+      notes.push(`${f.starters.length} starter piece(s) ${f.fewestProved ? 'are proved the fewest' : 'make it unique (fewer not ruled out within the budget)'}; ${f.solves} candidate set(s) searched`);
+      return summaryOf(i, task, revision, f.starters.map((s) => ({ x: s.x, y: s.y, size: s.size })), [], null, notes, c);
+    }
+    return summaryOf(i, task, revision, i.starters ?? [], [], null, notes, c);
+  }
+  // deduction
+  if (task === 'make' && i.givens === null) {
+    const levels = i.level !== null ? [i.level] : i.grade !== null ? GRADE_LEVELS : [DEFAULT_LEVEL];
+    let best: { level: number | 'closure'; givens: Placed[]; grade: number } | null = null;
+    levels.forEach((level, n) => {
+      if (c.shouldStop?.()) return;
+      c.progress?.('choosing givens', n);
+      const p = makeDeductionPuzzle(i.tiling, { level: levelArg(level), showFrame: i.showFrame, seed: i.seed });
+      const cand = { level, givens: p.givens.map((g) => ({ x: g.x, y: g.y, size: g.size })), grade: p.grade };
+      const dist = (g: number) => (i.grade === null ? 0 : Math.abs(g - i.grade));
+      if (!best || dist(cand.grade) < dist(best.grade)) best = cand;
+      if (n === 0) notes.push(`givens chosen by seeded greedy removal (seed ${i.seed}), ${p.minimal === 'proved' ? 'proved the fewest' : p.minimal === 'inclusion' ? 'none can be left out' : 'minimality not checked'}`);
+    });
+    const chosen = best as { level: number | 'closure'; givens: Placed[]; grade: number } | null;
+    if (!chosen) throw new Error('cancelled before any givens were chosen');
+    if (i.grade !== null && i.level === null) notes.push(`level ${String(chosen.level)} comes closest to the grade wished (${i.grade}): grade ${chosen.grade}`);
+    return summaryOf(i, task, revision, [], chosen.givens, chosen.level, notes, c);
+  }
+  return summaryOf(i, task, revision, [], i.givens ?? [], i.level ?? DEFAULT_LEVEL, notes, c);
+}
+
