@@ -7,21 +7,19 @@
 import { classifyTiling, facesOf, solvePlaneNetwork, type PlaneGraph } from '../tiling/index';
 import { edgeOrbits } from './canonical-graph';
 import { graphFromKey, planeGraphsWithEdges } from './generate-graphs';
-import { describeTiling, type FoundTiling } from './found-tiling';
+import { describeTiling, type FoundryRunControl, type FoundTiling } from './found-tiling';
 import { FoundryInputError } from './errors';
 
 export const MIN_ORDER = 5;
 export const MAX_EXHAUSTIVE_ORDER = 25;
 
-export interface ExhaustiveOptions {
+/** onFound is called once per distinct simple tiling, when first found. */
+export interface ExhaustiveOptions extends FoundryRunControl {
   order: number;
   /** only squared squares, with Gambini's filter on the pole edges */
   squaresOnly?: boolean;
-  shouldStop?: () => boolean;
   /** 'levels': graph levels built; 'last-level': graphs with m - 1 edges extended; 'solving': graphs solved */
   onProgress?: (p: { phase: 'levels' | 'last-level' | 'solving'; done: number; total: number; found: number }) => void;
-  /** called once per distinct simple tiling, when first found */
-  onFound?: (t: FoundTiling) => void;
 }
 
 export interface ExhaustiveSummary {

@@ -19,6 +19,14 @@ export interface FoundTiling {
   origin: Record<string, unknown>;
 }
 
+/** What every foundry run (exhaustive, random, joining) takes besides its own options. */
+export interface FoundryRunControl {
+  /** polled during the run; true ends it early (the summary then says stopped) */
+  shouldStop?: () => boolean;
+  /** called once per tiling the run offers, as soon as it is found */
+  onFound?: (t: FoundTiling) => void;
+}
+
 /** Re-verify (exact cover) and classify; null when the tiling does not verify. */
 export function describeTiling(t: Tiling, origin: Record<string, unknown>, cls?: Classification): FoundTiling | null {
   if (!verifyTiling(t).ok) return null;

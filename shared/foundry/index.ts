@@ -6,7 +6,7 @@ export { canonicalForm, canonicalGraphKey, edgeOrbits, graphFromCode } from './c
 export type { CanonicalForm } from './canonical-graph';
 export { countPlaneGraphs, faceSplits, graphFromKey, planeGraphsWithEdges, MAX_EDGES, MIN_EDGES } from './generate-graphs';
 export type { GeneratedGraph, GenerateOptions } from './generate-graphs';
-export type { FoundTiling } from './found-tiling';
+export type { FoundryRunControl, FoundTiling } from './found-tiling';
 export { describeTiling } from './found-tiling';
 export { exhaustiveTilings, passesGambini, MAX_EXHAUSTIVE_ORDER, MIN_ORDER } from './exhaustive';
 export type { ExhaustiveOptions, ExhaustiveSummary } from './exhaustive';

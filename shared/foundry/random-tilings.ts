@@ -4,13 +4,13 @@
 // from the seed (mulberry32).
 import { classifyTiling, edgesOf, randomCNet, solvePlaneNetwork } from '../tiling/index';
 import { FoundryInputError } from './errors';
-import { describeTiling, type FoundTiling } from './found-tiling';
+import { describeTiling, type FoundryRunControl } from './found-tiling';
 import { mulberry32, randomInt } from './prng';
 
 export const MAX_RANDOM_ORDER = 40;
 export const MIN_RANDOM_ORDER = 9;
 
-export interface RandomOptions {
+export interface RandomOptions extends FoundryRunControl {
   count: number;
   orderMin: number;
   orderMax: number;
@@ -25,9 +25,7 @@ export interface RandomOptions {
   maxTries?: number;
   /** the stock already has this canonical key */
   isKnown?: (key: string) => boolean;
-  shouldStop?: () => boolean;
   onProgress?: (p: { done: number; total: number; tries: number }) => void;
-  onFound?: (t: FoundTiling) => void;
 }
 
 export interface RandomSummary {

@@ -88,14 +88,24 @@ function reducedLaplacian(g: PlaneGraph, p: number, q: number) {
   return { L, pos };
 }
 
+/**
+ * `count` seeded random c-nets of minEdges to minEdges + span - 1 edges, each with its edges
+ * and a random pole edge drawn from the same PRNG when asked for.
+ */
+function* seededNets(seed: number, count: number, minEdges: number, span: number) {
+  const rng = mulberry32(seed);
+  for (let i = 0; i < count; i++) {
+    const g = randomCNet(minEdges + Math.floor(rng() * span), rng);
+    const es = edgesOf(g);
+    yield { g, es, randomPole: () => es[Math.floor(rng() * es.length)]! };
+  }
+}
+
 describe('solvePlaneNetwork against mathjs (exact fractions) on seeded random networks', () => {
   it('potentials = det(L) * L^-1 e_p and widths = det(L) for 60 random c-nets of 10 to 40 edges', () => {
-    const rng = mulberry32(2026);
     let solved = 0;
-    for (let i = 0; i < 60; i++) {
-      const g = randomCNet(10 + Math.floor(rng() * 31), rng);
-      const es = edgesOf(g);
-      const [p, q] = es[Math.floor(rng() * es.length)]!;
+    for (const { g, randomPole } of seededNets(2026, 60, 10, 31)) {
+      const [p, q] = randomPole();
       const r = solvePlaneNetwork(g, { p, q });
       const { L, pos } = reducedLaplacian(g, p, q);
       const A = math.matrix(L.map((row) => row.map((v) => math.fraction(v))));
@@ -123,11 +133,8 @@ describe('solvePlaneNetwork against mathjs (exact fractions) on seeded random ne
 
 describe('deletion-contraction: tau(G) = tau(G - e) + tau(G / e) (engine.md test plan 5; matrix-tree theorem)', () => {
   it('holds for every pole edge of 20 seeded random c-nets', () => {
-    const rng = mulberry32(88);
     let checked = 0;
-    for (let i = 0; i < 20; i++) {
-      const g = randomCNet(8 + Math.floor(rng() * 20), rng);
-      const es = edgesOf(g);
+    for (const { g, es } of seededNets(88, 20, 8, 20)) {
       const tau = countSpanningTrees(g.n, es);
       for (const [p, q] of es) {
         const r = solvePlaneNetwork(g, { p, q });
@@ -142,12 +149,9 @@ describe('deletion-contraction: tau(G) = tau(G - e) + tau(G / e) (engine.md test
 
 describe('duality: (G, e) and (G*, e*) give the same rectangle turned 90 degrees (BSST 1940)', () => {
   it('holds for 40 seeded random c-nets and pole edges', () => {
-    const rng = mulberry32(606);
     let checked = 0;
-    for (let i = 0; i < 40; i++) {
-      const g = randomCNet(9 + Math.floor(rng() * 20), rng);
-      const es = edgesOf(g);
-      const [p, q] = es[Math.floor(rng() * es.length)]!;
+    for (const { g, randomPole } of seededNets(606, 40, 9, 20)) {
+      const [p, q] = randomPole();
       const r = solvePlaneNetwork(g, { p, q });
       if (!r.ok) continue;
       const fs = facesOf(g);
