@@ -7,6 +7,8 @@ import { submissionHistory } from './areas/intake/index';
 import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
 import { createPuzzleSource, createStockUsage } from './areas/puzzles/index';
 import { stockPort } from './areas/stock/index';
+import { jobKindNames } from './job-kinds';
+import { startJobRunner } from './platform/jobs/runtime';
 import type { Env } from './platform/env';
 import { createLogger, type Logger } from './platform/log';
 import { createMailSender, type MailSenderOptions } from './platform/mail/outbox';
@@ -45,6 +47,7 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     onMailQueued: () => mail.kick(),
     ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
   });
+  startJobRunner(input.db, jobKindNames);
   const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log };
   // The areas' ports, wired here and nowhere else: each area gets what it needs from the
   // others as typed interfaces (see server/areas/<area>/ports.ts).

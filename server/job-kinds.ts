@@ -11,6 +11,5 @@ export const jobKinds: Record<string, () => Promise<{ handler: AnyJobHandler }>>
   'test-count': () => import('./platform/jobs/test-count-job'),
 };
 
-export function isJobKind(kind: string): boolean {
-  return Object.hasOwn(jobKinds, kind);
-}
+/** The kinds' names, for the job runner (started in server/compose.ts). */
+export const jobKindNames: ReadonlySet<string> = new Set(Object.keys(jobKinds));

@@ -65,12 +65,15 @@ export const runProgressSchema = z.object({
   elapsedMs: z.number().optional(),
 });
 
+/** A run's closing summary as its job returned it (counts, what stopped it): shown as is. */
+export const runSummarySchema = z.record(z.string(), z.unknown());
+
 export const runSchema = z.object({
   id: z.string(),
   state: runStateSchema,
   params: runRequestSchema,
   progress: runProgressSchema.nullable(),
-  summary: z.record(z.string(), z.unknown()).nullable(),
+  summary: runSummarySchema.nullable(),
   error: z.string().nullable(),
   /** distinct tilings this run found */
   found: z.number().int().nonnegative(),

@@ -1,5 +1,7 @@
 import { exhaustiveTilings, joinStock, randomTilings, type FoundTiling } from '../../../shared/foundry/index';
+import { z } from 'zod';
 import { runRequestSchema } from '../../../shared/contracts/foundry';
+import { tilingSchema } from '../../../shared/contracts/tilings';
 import type { Tiling } from '../../../shared/tiling/index';
 import { defineJob } from '../../platform/jobs/types';
 
@@ -7,13 +9,28 @@ import { defineJob } from '../../platform/jobs/types';
 // Input from the main thread: `knownKeys` (random mode: the stock's canonical keys) and
 // `parts` (joining: the stock's perfect rectangles).
 
-/** One result of a run, as the engine describes it (verified and classified). */
-export type FoundryItem = FoundTiling;
+/** One result of a run, as the engine describes it (verified and classified); parsed when it reaches the main thread. */
+export const foundryItemSchema = z.object({
+  key: z.string().min(1),
+  code: z.string().min(1),
+  order: z.number().int().positive(),
+  width: z.number().int().positive(),
+  height: z.number().int().positive(),
+  perfect: z.boolean(),
+  simple: z.boolean(),
+  square: z.boolean(),
+  maxSize: z.number().int().positive(),
+  tiling: tilingSchema,
+  origin: z.record(z.string(), z.unknown()),
+}) satisfies z.ZodType<FoundTiling>;
+export type FoundryItem = z.infer<typeof foundryItemSchema>;
 
-export interface FoundryInput {
-  knownKeys?: string[];
-  parts?: { id: string; tiling: Tiling }[];
-}
+/** What the main thread hands the job (not persisted): the stock's keys, or its rectangles to join. */
+export const foundryInputSchema = z.object({
+  knownKeys: z.array(z.string()).optional(),
+  parts: z.array(z.object({ id: z.string(), tiling: tilingSchema })).optional(),
+});
+export type FoundryInput = { knownKeys?: string[]; parts?: { id: string; tiling: Tiling }[] };
 
 const phaseLabel = {
   levels: 'graph levels built',
@@ -26,7 +43,7 @@ export const handler = defineJob({
   parseParams: (raw) => runRequestSchema.parse(raw),
   run(ctx) {
     const p = ctx.params;
-    const input = (ctx.input ?? {}) as FoundryInput;
+    const input = foundryInputSchema.parse(ctx.input ?? {});
     let found = 0;
     const onFound = (t: FoundTiling) => {
       found++;

@@ -1,12 +1,12 @@
 import { count, desc, eq, sql } from 'drizzle-orm';
 import type { Run, RunList, RunRequest, RunResults } from '../../../shared/contracts/foundry';
-import { runRequestSchema } from '../../../shared/contracts/foundry';
+import { runRequestSchema, runSummarySchema } from '../../../shared/contracts/foundry';
 import type { Db } from '../../platform/db/client';
 import type { DbOrTx } from '../../platform/db/client';
 import { Conflict, NotFound } from '../../platform/http/errors';
 import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
 import type { StockPort } from '../stock/ports';
-import type { FoundryItem, FoundryInput } from './run-job';
+import { foundryItemSchema, type FoundryInput } from './run-job';
 import { foundryResult } from './schema';
 
 // Foundry runs: a run is a job of kind 'foundry-run'. Results stream back from the worker and
@@ -17,9 +17,16 @@ export const FOUNDRY_KIND = 'foundry-run';
 /** Time budgets per run [common practice: bound every background job]. */
 const BUDGET_MS = { exhaustive: 30 * 60_000, random: 10 * 60_000, joining: 5 * 60_000 } as const;
 
+/** Items streamed back from the worker are parsed (a malformed one fails the batch, naming the run). */
+function parseItem(runId: string, raw: unknown) {
+  const r = foundryItemSchema.safeParse(raw);
+  if (!r.success) throw new Error(`foundry run ${runId}: a result from the worker is malformed: ${r.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  return r.data;
+}
+
 export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: RunRequest, items: unknown[]): void {
   for (const raw of items) {
-    const it = raw as FoundryItem;
+    const it = parseItem(runId, raw);
     const s = stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } });
     tx.insert(foundryResult)
       .values({
@@ -34,7 +41,7 @@ export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: 
         square: it.square,
         maxSize: it.maxSize,
         origin: JSON.stringify({ ...it.origin, addedToStock: s.created }),
-        stockId: String(s.id),
+        stockId: s.id,
       })
       .onConflictDoNothing()
       .run();
@@ -82,7 +89,7 @@ function toRun(db: Db, r: JobRecord): Run {
     state: r.state,
     params: params.success ? params.data : { mode: 'joining' },
     progress: r.progress ?? null,
-    summary: r.summary && typeof r.summary === 'object' ? (r.summary as Record<string, unknown>) : null,
+    summary: runSummarySchema.nullable().parse(r.summary ?? null),
     error: r.error,
     found: c.found,
     addedToStock: c.added,
@@ -125,7 +132,7 @@ export function runResults(db: Db, runner: JobRunner, id: string, page: number, 
     items: rows.map((r) => ({
       code: r.code, canonicalKey: r.canonicalKey, order: r.order, width: r.width, height: r.height,
       perfect: r.perfect, simple: r.simple, square: r.square, maxSize: r.maxSize,
-      stockId: r.stockId === null ? null : Number(r.stockId),
+      stockId: r.stockId,
     })),
   };
 }

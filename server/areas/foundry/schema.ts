@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { job } from '../../platform/jobs/schema';
+import { stock } from '../stock/schema';
 
 // What each foundry run found: one row per distinct tiling (canonical key) per run, written
 // in the same transaction as the run's progress. `stockId` is set when the tiling went into
@@ -26,7 +27,7 @@ export const foundryResult = sqliteTable(
     maxSize: integer('max_size').notNull(),
     /** how it was made, JSON (graph code, pole, seed, joined parts) */
     origin: text('origin'),
-    stockId: text('stock_id'),
+    stockId: integer('stock_id').references(() => stock.id, { onDelete: 'set null' }),
     createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().default(nowMs),
   },
   (t) => [

@@ -1,9 +1,9 @@
+import { z } from 'zod';
 import { randomUUID } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db/client';
 import { job } from './schema';
-import { isJobKind } from '../../job-kinds';
 import type { FromWorker, JobProgress, StopReason, ToWorker } from './types';
 import { sourceBootstrap, workerSpec } from './worker-url';
 
@@ -53,6 +53,8 @@ export interface SubmitOptions {
 export type JobLane = 'interactive' | 'bulk';
 
 export interface JobRunnerOptions {
+  /** the job kinds the workers can run (the composition root's list, server/job-kinds.ts) */
+  kinds: ReadonlySet<string>;
   /** number of worker threads (default 1) */
   size?: number;
   /** grace after cancel / budget before the worker is terminated (default 5 s) */
@@ -97,7 +99,10 @@ export class JobRunner {
   private readonly size: number;
   private readonly graceMs: number;
 
-  constructor(private readonly db: Db, opts: JobRunnerOptions = {}) {
+  private readonly kinds: ReadonlySet<string>;
+
+  constructor(private readonly db: Db, opts: JobRunnerOptions) {
+    this.kinds = opts.kinds;
     this.size = Math.max(1, Math.floor(opts.size ?? 1));
     this.graceMs = opts.graceMs ?? 5000;
   }
@@ -115,7 +120,7 @@ export class JobRunner {
 
   submit(opts: SubmitOptions): string {
     if (this.closed) throw new Error('job runner is closed');
-    if (!isJobKind(opts.kind)) throw new Error(`unknown job kind '${opts.kind}'`);
+    if (!this.kinds.has(opts.kind)) throw new Error(`unknown job kind '${opts.kind}'`);
     const id = randomUUID();
     const budgetMs = opts.budgetMs ?? null;
     this.db
@@ -343,13 +348,29 @@ function clearTimers(a: ActiveJob): void {
   a.budgetTimer = null;
 }
 
-function parseJson(s: string | null): unknown {
-  if (s === null) return null;
+/** Stored progress as the runner wrote it: done/total/found/phase plus rate, time left and elapsed. */
+const storedProgressSchema = z.object({
+  done: z.number(),
+  total: z.number().optional(),
+  found: z.number().optional(),
+  phase: z.string().optional(),
+  rate: z.number().optional(),
+  etaMs: z.number().optional(),
+  elapsedMs: z.number().optional(),
+});
+
+/** A stored JSON column of the job table; a row that does not parse names the job and column. */
+function column<T>(id: string, name: string, text: string | null, schema: z.ZodType<T>): T | null {
+  if (text === null) return null;
+  let raw: unknown;
   try {
-    return JSON.parse(s) as unknown;
-  } catch {
-    return null;
+    raw = JSON.parse(text);
+  } catch (e) {
+    throw new Error(`job ${id}: column ${name} is not JSON (${(e as Error).message})`);
   }
+  const r = schema.safeParse(raw);
+  if (!r.success) throw new Error(`job ${id}: column ${name} does not have the stored shape: ${r.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`).join('; ')}`);
+  return r.data;
 }
 
 function toRecord(row: typeof job.$inferSelect): JobRecord {
@@ -357,9 +378,10 @@ function toRecord(row: typeof job.$inferSelect): JobRecord {
     id: row.id,
     kind: row.kind,
     state: row.state,
-    params: parseJson(row.params),
-    progress: parseJson(row.progress) as JobRecord['progress'],
-    summary: parseJson(row.summary),
+    // params and summary belong to the job's kind, which parses them with its own schema
+    params: column(row.id, 'params', row.params, z.unknown()),
+    progress: column(row.id, 'progress', row.progress, storedProgressSchema),
+    summary: column(row.id, 'summary', row.summary, z.unknown()),
     error: row.error,
     budgetMs: row.budgetMs,
     createdBy: row.createdBy,

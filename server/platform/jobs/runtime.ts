@@ -2,8 +2,9 @@ import { z } from 'zod';
 import type { Db } from '../db/client';
 import { JobRunner } from './runner';
 
-// One job runner per database (the app's), created when the routes are registered at start-up;
-// creating it turns jobs left queued/running by a previous process into `interrupted`.
+// One job runner per database (the app's), started by the composition root (server/compose.ts)
+// with the list of job kinds; starting it turns jobs left queued/running by a previous process
+// into `interrupted`. After closeJobRunner, jobRunnerFor starts a fresh one with the same kinds.
 // Pool size: JOB_WORKERS (default 1 on this 2-core machine), validated here.
 
 const jobEnvSchema = z.object({
@@ -17,11 +18,20 @@ export function jobWorkersFromEnv(source: Record<string, string | undefined> = p
 }
 
 const runners = new WeakMap<Db, JobRunner>();
+const kindsOf = new WeakMap<Db, ReadonlySet<string>>();
+
+/** Start (once) the job runner of this database with the job kinds the workers can run. */
+export function startJobRunner(db: Db, kinds: ReadonlySet<string>): JobRunner {
+  kindsOf.set(db, kinds);
+  return jobRunnerFor(db);
+}
 
 export function jobRunnerFor(db: Db): JobRunner {
   let r = runners.get(db);
   if (!r) {
-    r = new JobRunner(db, { size: jobWorkersFromEnv() });
+    const kinds = kindsOf.get(db);
+    if (!kinds) throw new Error('no job runner was started for this database (server/compose.ts starts it)');
+    r = new JobRunner(db, { kinds, size: jobWorkersFromEnv() });
     r.recoverInterrupted();
     runners.set(db, r);
   }

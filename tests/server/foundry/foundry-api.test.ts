@@ -1,3 +1,4 @@
+import { jobKindNames } from '../../../server/job-kinds';
 import { eq } from 'drizzle-orm';
 import { join } from 'node:path';
 import request from 'supertest';
@@ -134,7 +135,7 @@ describe('foundry runs API', () => {
     // the next server process opens the same database file and starts its own runner
     const db2 = openDatabase(join(t.deps.env.DATA_DIR, 'squarewright.db'));
     try {
-      expect(new JobRunner(db2).recoverInterrupted()).toBe(1);
+      expect(new JobRunner(db2, { kinds: jobKindNames }).recoverInterrupted()).toBe(1);
     } finally {
       closeDatabase(db2);
     }

@@ -1,3 +1,4 @@
+import { jobKindNames } from '../../../server/job-kinds';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -16,7 +17,7 @@ let runner: JobRunner;
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'sw-jobs-'));
   db = openDatabase(join(dir, 'jobs.db'));
-  runner = new JobRunner(db, { size: 1, graceMs: 1000 });
+  runner = new JobRunner(db, { kinds: jobKindNames, size: 1, graceMs: 1000 });
 });
 afterAll(async () => {
   await runner.close();
@@ -112,7 +113,7 @@ describe('job runner', () => {
       { id: 'left-queued', kind: 'test-count', params: '{}', state: 'queued' },
       { id: 'finished', kind: 'test-count', params: '{}', state: 'done' },
     ]).run();
-    const next = new JobRunner(db);
+    const next = new JobRunner(db, { kinds: jobKindNames });
     expect(next.recoverInterrupted()).toBe(2);
     expect(next.get('left-running')?.state).toBe('interrupted');
     expect(next.get('left-queued')?.state).toBe('interrupted');
