@@ -7,7 +7,7 @@
 // early abort as soon as a prefix exceeds the best. A 3-connected planar graph has a unique
 // embedding up to mirror image (Whitney), so this is a canonical code of the graph itself.
 // The starts that attain the minimum are exactly the automorphisms (reflections included).
-import { edgesOf, type PlaneGraph } from '../tiling/index';
+import { dartArrays, edgesOf, type PlaneGraph } from '../tiling/index';
 
 export interface CanonicalForm {
   /** [deg_0, nbrs_0..., deg_1, nbrs_1..., ...] in canonical numbering. */
@@ -18,46 +18,6 @@ export interface CanonicalForm {
   maps: Int32Array[];
   /** Canonical number of each input vertex (for the first minimal start). */
   labels: Int32Array;
-}
-
-interface Darts {
-  n: number;
-  off: Int32Array; // first dart of v
-  deg: Int32Array;
-  head: Int32Array;
-  rev: Int32Array;
-  tail: Int32Array;
-}
-
-function toDarts(g: PlaneGraph): Darts {
-  const n = g.n;
-  const off = new Int32Array(n + 1);
-  const deg = new Int32Array(n);
-  for (let v = 0; v < n; v++) {
-    deg[v] = g.adj[v]!.length;
-    off[v + 1] = off[v]! + deg[v]!;
-  }
-  const D = off[n]!;
-  const head = new Int32Array(D);
-  const tail = new Int32Array(D);
-  const rev = new Int32Array(D);
-  for (let v = 0; v < n; v++) {
-    const a = g.adj[v]!;
-    for (let i = 0; i < a.length; i++) {
-      head[off[v]! + i] = a[i]!;
-      tail[off[v]! + i] = v;
-    }
-  }
-  for (let v = 0; v < n; v++) {
-    const a = g.adj[v]!;
-    for (let i = 0; i < a.length; i++) {
-      const w = a[i]!;
-      const aw = g.adj[w]!;
-      const j = aw.indexOf(v);
-      rev[off[v]! + i] = off[w]! + j;
-    }
-  }
-  return { n, off, deg, head, rev, tail };
 }
 
 // Scratch buffers reused between calls (the engine is single-threaded per worker).
@@ -81,13 +41,14 @@ function ensure(n: number, len: number): void {
 
 /** Canonical form; set `withMaps` to collect the automorphisms as permutations. */
 export function canonicalForm(g: PlaneGraph, withMaps = false): CanonicalForm {
-  const d = toDarts(g);
-  const n = d.n;
-  const D = d.head.length;
+  const n = g.n;
+  const { first: off, head, rev, tail } = dartArrays(g);
+  const D = head.length;
   const len = n + D;
   if (n > 255) throw new RangeError(`canonicalForm: at most 255 vertices, got ${n}`);
   ensure(n, len);
-  const { off, deg, head, rev, tail } = d;
+  const deg = new Int32Array(n);
+  for (let v = 0; v < n; v++) deg[v] = off[v + 1]! - off[v]!;
   // Starts: darts maximising (deg tail, deg head).
   let bestKey = -1;
   for (let x = 0; x < D; x++) {

@@ -29,6 +29,6 @@ export { smithDiagram } from './smith-diagram';
 export { checkKirchhoff } from './kirchhoff';
 export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';
 export { planeGraphFromDrawing } from './drawing';
-export { analysePlaneGraph, dualOf, edgeCount, edgesOf, facesOf, splitFace, wheel } from './plane-graph';
+export { analysePlaneGraph, dartArrays, dualOf, edgeCount, edgesOf, facesOf, splitFace, wheel } from './plane-graph';
 export { randomCNet, mulberry32 } from './random-network';
 export { sparseSymmetricDeterminant } from './modular-determinant';

@@ -28,6 +28,33 @@ export interface Darts {
 
 export type GraphCheck = { ok: true; darts: Darts } | { ok: false; code: 'not-plane' | 'disconnected' | 'too-large'; message: string };
 
+/**
+ * The darts of a rotation system whose lists hold vertices 0..n-1: dart first[v] + i goes from
+ * v (tail) to adj[v][i] (head); rev[d] is the reverse dart, -1 where adj[head] lacks the tail.
+ */
+export function dartArrays(g: PlaneGraph): { first: Int32Array; tail: Int32Array; head: Int32Array; rev: Int32Array } {
+  const n = g.n;
+  const first = new Int32Array(n + 1);
+  for (let v = 0; v < n; v++) first[v + 1] = first[v]! + g.adj[v]!.length;
+  const D = first[n]!;
+  const tail = new Int32Array(D);
+  const head = new Int32Array(D);
+  for (let v = 0; v < n; v++) {
+    const a = g.adj[v]!;
+    for (let i = 0; i < a.length; i++) {
+      tail[first[v]! + i] = v;
+      head[first[v]! + i] = a[i]!;
+    }
+  }
+  const rev = new Int32Array(D);
+  for (let d = 0; d < D; d++) {
+    const v = head[d]!;
+    const j = g.adj[v]!.indexOf(tail[d]!);
+    rev[d] = j < 0 ? -1 : first[v]! + j;
+  }
+  return { first, tail, head, rev };
+}
+
 /** Checks shape, symmetry, loops, parallel edges, connectivity and Euler's formula V - E + F = 2. */
 export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
   if (g === null || typeof g !== 'object' || !Array.isArray(g.adj)) {
@@ -37,16 +64,13 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
   if (!Number.isInteger(n) || n < 2) return { ok: false, code: 'not-plane', message: `n must be an integer >= 2 (got ${String(n)})` };
   if (n > MAX_GRAPH_VERTICES) return { ok: false, code: 'too-large', message: `the graph has ${n} vertices; at most ${MAX_GRAPH_VERTICES} are accepted` };
   if (g.adj.length !== n) return { ok: false, code: 'not-plane', message: `adj has ${g.adj.length} lists but n = ${n}` };
-  const first = new Int32Array(n + 1);
+  let D = 0;
   for (let v = 0; v < n; v++) {
     const list = g.adj[v];
     if (!Array.isArray(list)) return { ok: false, code: 'not-plane', message: `adj[${v}] is not an array` };
-    first[v + 1] = first[v]! + list.length;
+    D += list.length;
   }
-  const D = first[n]!;
   if (D / 2 > MAX_GRAPH_EDGES) return { ok: false, code: 'too-large', message: `the graph has ${D / 2} edges; at most ${MAX_GRAPH_EDGES} are accepted` };
-  const tail = new Int32Array(D);
-  const head = new Int32Array(D);
   const stamp = new Int32Array(n).fill(-1);
   for (let v = 0; v < n; v++) {
     const list = g.adj[v]!;
@@ -58,17 +82,14 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
       if (u === v) return { ok: false, code: 'not-plane', message: `vertex ${v} has a loop (adj[${v}][${i}] = ${v})` };
       if (stamp[u] === v) return { ok: false, code: 'not-plane', message: `vertex ${v} lists neighbour ${u} twice; parallel edges are not accepted` };
       stamp[u] = v;
-      tail[first[v]! + i] = v;
-      head[first[v]! + i] = u;
     }
   }
-  const rev = new Int32Array(D);
-  for (let d = 0; d < D; d++) {
-    const u = tail[d]!;
-    const v = head[d]!;
-    const j = g.adj[v]!.indexOf(u);
-    if (j < 0) return { ok: false, code: 'not-plane', message: `edge ${u}-${v} appears in adj[${u}] but ${u} is missing from adj[${v}]` };
-    rev[d] = first[v]! + j;
+  const { first, tail, head, rev } = dartArrays(g);
+  const oneWay = rev.indexOf(-1);
+  if (oneWay >= 0) {
+    const u = tail[oneWay]!;
+    const v = head[oneWay]!;
+    return { ok: false, code: 'not-plane', message: `edge ${u}-${v} appears in adj[${u}] but ${u} is missing from adj[${v}]` };
   }
   // connectivity
   const seenV = new Uint8Array(n);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analysePlaneGraph } from '../../../shared/tiling/plane-graph';
-import { dualOf, edgeCount, edgesOf, facesOf, mulberry32, randomCNet, splitFace, wheel } from '../../../shared/tiling/index';
+import { dartArrays, dualOf, edgeCount, edgesOf, facesOf, mulberry32, randomCNet, splitFace, wheel } from '../../../shared/tiling/index';
 
 describe('analysePlaneGraph: rotation systems', () => {
   it("K4 as the wheel W_3 has 4 faces (Euler's formula V - E + F = 2)", () => {
@@ -112,5 +112,17 @@ describe('operations on rotation systems (faces, dual, face split, wheel)', () =
     expect(edgeCount(h)).toBe(13);
     expect(h.adj[rim[1]!]).toContain(rim[4]);
     expect(facesOf(h).map((f) => f.length).sort((x, y) => x - y)).toEqual([3, 3, 3, 3, 3, 3, 4, 4]);
+  });
+
+  it('dartArrays: dart first[v] + i runs v -> adj[v][i], its reverse runs back, and a one-way edge has no reverse (-1)', () => {
+    const g = randomCNet(30, mulberry32(14));
+    const { first, tail, head, rev } = dartArrays(g);
+    expect(first[g.n]).toBe(2 * edgeCount(g));
+    for (let v = 0; v < g.n; v++) g.adj[v]!.forEach((u, i) => expect([tail[first[v]! + i], head[first[v]! + i]]).toEqual([v, u]));
+    rev.forEach((r, d) => {
+      expect([tail[r], head[r]]).toEqual([head[d], tail[d]]);
+      expect(rev[r]).toBe(d);
+    });
+    expect([...dartArrays({ n: 3, adj: [[1, 2], [0], [1]] }).rev]).toEqual([2, -1, 0, -1]);
   });
 });
