@@ -1,4 +1,3 @@
-import { desc, eq } from 'drizzle-orm';
 import {
   acceptInvitationBodySchema,
   acceptInvitationResponseSchema,
