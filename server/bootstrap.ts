@@ -38,7 +38,7 @@ export type StartOptions = {
   source?: Record<string, string | undefined>;
   /** prepare client serving once the HTTP server exists (Vite needs it for its websocket) */
   prepareClient?: (httpServer: Server) => Promise<(app: Express) => void>;
-  /** demo seeders to run (default: the list in server/demo/seeders.ts) */
+  /** demo seeders to run (default: the list in server/demo-seeders.ts) */
   seeders?: DemoSeeder[];
   /** print the start-up banner (default true) */
   quiet?: boolean;

@@ -1,7 +1,7 @@
 import type { Role } from '../../../shared/contracts/common';
 
 // THE table of which role may call what. Every route registered through
-// server/http/route.ts must have an entry here (`METHOD /path` exactly as registered),
+// server/platform/http/route.ts must have an entry here (`METHOD /path` exactly as registered),
 // or the app refuses to start. 'public' = no session needed; 'signed-in' = any role.
 // An admin may do everything an editor may (see `isAllowed`).
 // Areas: add your lines in your own block, keep them sorted by path.

@@ -1,7 +1,7 @@
 import type { ErrorCode } from '../../../shared/contracts/common';
 
 // Domain errors. Throw these from services and handlers; the one error handler in
-// server/http/error-handler.ts turns them into `{ error: { code, message, details? } }`.
+// server/platform/http/error-handler.ts turns them into `{ error: { code, message, details? } }`.
 
 export class HttpError extends Error {
   constructor(

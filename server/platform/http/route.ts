@@ -12,7 +12,7 @@ import { OpenApiCollector } from './openapi';
 // THE way to add an API route. It reads the session, enforces the permission table,
 // parses params/query/body with zod (bad input -> 400 with details), calls the handler,
 // checks the response against its schema (outside production) and documents the route
-// in /api/openapi.json. A route without an entry in server/auth/permissions.ts throws
+// in /api/openapi.json. A route without an entry in server/platform/auth/permissions.ts throws
 // at start-up.
 
 declare module 'express-serve-static-core' {
@@ -91,7 +91,7 @@ function toSessionUser(u: { id: string; email: string; name: string; role?: stri
 
 async function readSessionUser(deps: PlatformDeps, req: Request, res: Response): Promise<SessionUser | null> {
   // the common case (a live session that needs no extension) is read straight from the database,
-  // fresh on every request; anything else is better-auth's (server/auth/session-reader.ts)
+  // fresh on every request; anything else is better-auth's (server/platform/auth/session-reader.ts)
   const fast = await readSessionFast(deps.auth, deps.db, req.headers.cookie);
   if (fast.kind === 'none') return null;
   if (fast.kind === 'session') return toSessionUser(fast.user);
@@ -123,7 +123,7 @@ export function route<
   const key = `${spec.method} ${spec.path}`;
   const access: Access | undefined = permissions[key];
   if (access === undefined) {
-    throw new Error(`route ${key} has no entry in server/auth/permissions.ts (add '${key}': [...roles])`);
+    throw new Error(`route ${key} has no entry in server/platform/auth/permissions.ts (add '${key}': [...roles])`);
   }
   if (router.registered.has(key)) throw new Error(`route ${key} is registered twice`);
   router.registered.add(key);

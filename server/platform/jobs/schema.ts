@@ -2,7 +2,7 @@ import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { user } from '../auth/schema';
 
-// Background jobs run by the worker-thread pool (server/jobs). A job never disappears:
+// Background jobs run by the worker-thread pool (server/platform/jobs). A job never disappears:
 // queued -> running -> done | cancelled | failed; a job found queued or running when the
 // server starts becomes interrupted.
 

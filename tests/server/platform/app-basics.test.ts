@@ -42,7 +42,7 @@ describe('foundation API', () => {
     const agent = await t.signInAs('printer');
     const fresh = await agent.get('/api/me').expect(200);
     expect(fresh.headers['set-cookie']).toBeUndefined();
-    // sessions last 7 days and are extended after 1 day (server/auth/auth.ts): age this one by 2 days
+    // sessions last 7 days and are extended after 1 day (server/platform/auth/auth.ts): age this one by 2 days
     const day = 24 * 60 * 60 * 1000;
     t.db.update(session).set({ expiresAt: new Date(Date.now() + 5 * day) }).where(eq(session.userId, fresh.body.user.id)).run();
     const res = await agent.get('/api/me').expect(200);

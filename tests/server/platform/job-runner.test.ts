@@ -8,7 +8,7 @@ import { job } from '../../../server/platform/jobs/schema';
 import { JobRunner } from '../../../server/platform/jobs/runner';
 import { jobWorkersFromEnv } from '../../../server/platform/jobs/runtime';
 
-// The worker-thread job runner with the tiny 'test-count' kind (server/jobs/kinds/test-count.ts).
+// The worker-thread job runner with the tiny 'test-count' kind (server/platform/jobs/test-count-job.ts).
 
 let dir: string;
 let db: Db;

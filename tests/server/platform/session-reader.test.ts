@@ -70,7 +70,7 @@ describe('the session read by route()', () => {
   it('a session due for its daily extension is extended by better-auth and the new cookie is passed on', async () => {
     const cookie = await signIn('fast-4@example.test');
     const token = tokenOf(cookie);
-    // sessions last 7 days and are extended once a day old (server/auth/auth.ts): make this one 2 days old
+    // sessions last 7 days and are extended once a day old (server/platform/auth/auth.ts): make this one 2 days old
     const old = new Date(Date.now() + 5 * DAY);
     t.db.update(session).set({ expiresAt: old }).where(eq(session.token, token)).run();
     const res = await request(t.app).get('/api/me').set('Cookie', cookie).expect(200);
