@@ -1,9 +1,9 @@
 import { formatMoney } from '../../../../shared/contracts/ledger';
 import { Alert } from '../../../components/alert';
 import { Loading } from '../../../components/page';
+import { PayoutStateBadge } from '../../../components/payout-state-badge';
 import { errorMessage } from '../../../lib/api-client';
 import { useEarnings } from '../api/get-earnings';
-import { PayoutStateBadge } from './payout-state-badge';
 
 /** Home card (setter): fees this month, what is owed, and the latest payout. */
 export function EarningsHomeCard() {

@@ -9,6 +9,7 @@ import { Button, buttonClasses } from '../../../components/button';
 import { CautionNote } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
+import { PayoutStateBadge } from '../../../components/payout-state-badge';
 import { SelectField } from '../../../components/select-field';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
@@ -17,7 +18,6 @@ import { useEarnings } from '../api/get-earnings';
 import { statementCsvUrl } from '../api/get-statement';
 import { useSendStatement } from '../api/send-statement';
 import { useStartPayoutDetails } from '../api/start-payout-details';
-import { PayoutStateBadge } from './payout-state-badge';
 import { StatementDialog } from './statement-dialog';
 
 /** /earnings (setter): fees, monthly statements, payouts and payout details. */

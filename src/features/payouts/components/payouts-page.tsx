@@ -6,13 +6,13 @@ import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
+import { PayoutStateBadge } from '../../../components/payout-state-badge';
 import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { usePayouts } from '../api/get-payouts';
 import { useRetryPayout } from '../api/retry-payout';
 import { CorrectionDialog } from './correction-dialog';
-import { PayoutStateBadge } from './payout-state-badge';
 import { RunPayoutDialog } from './run-payout-dialog';
 
 /** /payouts (editor): what each setter is owed, payout runs and their results. */

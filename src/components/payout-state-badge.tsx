@@ -1,5 +1,5 @@
-import type { PayoutState } from '../../../../shared/contracts/payouts';
-import { StatusBadge } from '../../../components/status-badge';
+import type { PayoutState } from '../../shared/contracts/payouts';
+import { StatusBadge } from './status-badge';
 
 const tone = { pending: 'info', paid: 'success', failed: 'danger' } as const;
 const label = { pending: 'Pending', paid: 'Paid', failed: 'Failed' } as const;
