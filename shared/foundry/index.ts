@@ -14,4 +14,6 @@ export { randomTilings, MAX_RANDOM_ORDER, MIN_RANDOM_ORDER } from './random-tili
 export type { RandomOptions, RandomSummary } from './random-tilings';
 export { joinCornerToCorner, joinOverlapping, joinStock } from './joining';
 export type { JoinOptions, JoinPart, JoinSummary } from './joining';
-export { mulberry32 } from './prng';
+
+// seeded randomness is the tiling engine's (shared/tiling/prng.ts), re-exported for callers of this API
+export { mulberry32 } from '../tiling/index';

@@ -2,10 +2,9 @@
 // edges from the tiling engine (randomCNet: a wheel grown by random face and vertex splits),
 // a random pole edge, an exact solve, classify, filter. Not uniform over graphs; reproducible
 // from the seed (mulberry32).
-import { classifyTiling, edgesOf, randomCNet, solvePlaneNetwork } from '../tiling/index';
+import { classifyTiling, edgesOf, mulberry32, randomCNet, randomInt, solvePlaneNetwork } from '../tiling/index';
 import { FoundryInputError } from './errors';
 import { describeTiling, type FoundryRunControl } from './found-tiling';
-import { mulberry32, randomInt } from './prng';
 
 export const MAX_RANDOM_ORDER = 40;
 export const MIN_RANDOM_ORDER = 9;

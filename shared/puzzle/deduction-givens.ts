@@ -1,6 +1,6 @@
 import { isSolvable } from './deduction-propagate';
 import type { DeductionBoard, DeductionRules } from './deduction-propagate';
-import { mulberry32, shuffled } from './prng';
+import { mulberry32, shuffled } from '../tiling/index';
 
 export interface GivensOptions {
   /** seed of the PRNG for the restarts (default 1) */

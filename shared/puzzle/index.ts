@@ -59,4 +59,4 @@ export type { AssembleAnswer, DeduceAnswer } from './cli-format';
 export { PuzzleInputError } from './errors';
 /** Budgets and cancellation for searches; mulberry32 / shuffled: seeded randomness. */
 export type { SearchBudget, SearchControl, StopReason } from './search-control';
-export { mulberry32, shuffled } from './prng';
+export { mulberry32, shuffled } from '../tiling/index';

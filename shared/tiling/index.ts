@@ -30,5 +30,6 @@ export { checkKirchhoff } from './kirchhoff';
 export { countSpanningTrees, tilingSpanningTrees } from './spanning-trees';
 export { planeGraphFromDrawing } from './drawing';
 export { analysePlaneGraph, dartArrays, dualOf, edgeCount, edgesOf, facesOf, splitFace, wheel } from './plane-graph';
-export { randomCNet, mulberry32 } from './random-network';
+export { randomCNet } from './random-network';
+export { mulberry32, randomInt, shuffled } from './prng';
 export { sparseSymmetricDeterminant } from './modular-determinant';

@@ -5,24 +5,11 @@
 // face split of the dual, dualised back) up to the asked number of edges; a chord across a face
 // keeps a plane graph 3-connected (Bondy & Murty, Graph Theory with Applications, 12.2). Not
 // uniform over graphs; reproducible from the seed. `rng` returns uniform numbers in [0, 1),
-// e.g. mulberry32(seed).
+// e.g. mulberry32(seed) (./prng).
 
 import { dualOf, edgeCount, facesOf, splitFace, wheel } from './plane-graph';
+import { randomInt } from './prng';
 import type { PlaneGraph } from './types';
-
-/** mulberry32, a small seeded PRNG (common practice; public-domain by T. Ettinger). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-const randomInt = (rng: () => number, n: number) => Math.floor(rng() * n);
 
 /** A chord across a random face of at least 4 corners between two non-consecutive corners; null when every face is a triangle. */
 function randomChord(g: PlaneGraph, rng: () => number): PlaneGraph | null {

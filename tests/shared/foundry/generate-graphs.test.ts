@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { canonicalForm, canonicalGraphKey, edgeOrbits } from '../../../shared/foundry/canonical-graph';
 import { countPlaneGraphs, graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
-import { dualOf, edgeCount, facesOf, wheel, type PlaneGraph } from '../../../shared/tiling/index';
-import { mulberry32 } from '../../../shared/foundry/prng';
+import { dualOf, edgeCount, facesOf, mulberry32, wheel, type PlaneGraph } from '../../../shared/tiling/index';
 import { isThreeConnected } from '../tiling/helpers';
 
 // OEIS A002840: number of 3-connected planar (polyhedral) graphs with n edges, n = 6..22.

@@ -1,9 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { canonicalKey, parseTiling, verifyTiling } from '../../../shared/tiling/index';
+import { canonicalKey, mulberry32, parseTiling, verifyTiling } from '../../../shared/tiling/index';
 import type { Tiling } from '../../../shared/tiling/index';
 import { solveAssembly } from '../../../shared/puzzle/assembly';
 import { PuzzleInputError } from '../../../shared/puzzle/errors';
-import { mulberry32 } from '../../../shared/puzzle/prng';
 import { catalogue } from './catalogue';
 import { referenceAssemble } from './reference-solver';
 

@@ -1,10 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { parseTiling } from '../../../shared/tiling/index';
+import { mulberry32, parseTiling } from '../../../shared/tiling/index';
 import type { Tiling } from '../../../shared/tiling/index';
 import { explainDeduction, isSolvable, squareLabel } from '../../../shared/puzzle/deduction-propagate';
 import type { DeductionBoard } from '../../../shared/puzzle/deduction-propagate';
 import { tilingLayout } from '../../../shared/puzzle/layout-graph';
-import { mulberry32 } from '../../../shared/puzzle/prng';
 import { catalogue } from './catalogue';
 
 const board = (t: Tiling): DeductionBoard => ({ layout: tilingLayout(t), sizes: t.squares.map((q) => q.s) });

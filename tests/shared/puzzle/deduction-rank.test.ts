@@ -1,10 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { all, create } from 'mathjs';
-import { parseTiling } from '../../../shared/tiling/index';
+import { mulberry32, parseTiling } from '../../../shared/tiling/index';
 import { kirchhoffSystem, proveUniqueByRank } from '../../../shared/puzzle/deduction-rank';
 import { isSolvable } from '../../../shared/puzzle/deduction-propagate';
 import { tilingLayout } from '../../../shared/puzzle/layout-graph';
-import { mulberry32 } from '../../../shared/puzzle/prng';
 import { catalogue } from './catalogue';
 
 // mathjs with exact fractions is the outside oracle for the linear algebra

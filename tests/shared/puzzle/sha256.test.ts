@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { sha256Hex } from '../../../shared/puzzle/sha256';
-import { mulberry32 } from '../../../shared/puzzle/prng';
+import { mulberry32 } from '../../../shared/tiling/index';
 
 describe('sha256', () => {
   it('gives the FIPS 180-2 example digests ("abc", the 448-bit message) and the empty-string digest', () => {
