@@ -3,9 +3,10 @@
 // and a puzzle PNG at web size (640 px, labels) and 2x (1280 px). Targets from issue 7:
 // edition under 3 s, PNG under 30 ms. Tilings come from our own foundry (order 12).
 import { plainRichText } from '../shared/contracts/editions';
+import { notToScaleRects } from '../shared/puzzle/index';
 import { renderTilingPng } from '../server/platform/images/tiling-png';
 import { renderEditionPdf } from '../server/areas/print/render-edition';
-import { foundryTilings, notToScaleLayout } from '../server/areas/print/sample-edition';
+import { foundryTilings } from '../server/areas/print/sample-edition';
 import { getPageTemplate } from '../server/areas/print/templates';
 import type { EditionDocument, PuzzlePrint } from '../server/areas/print/types';
 
@@ -18,7 +19,7 @@ async function main() {
   const puzzles: PuzzlePrint[] = tilings.map((t, i) =>
     i % 2 === 0
       ? { slot: i + 1, kind: 'assembly', title: `Rectangle ${t.W} by ${t.H}`, instructions: plainRichText('Place every piece.'), grade: 2, frame: { W: t.W, H: t.H }, pieces: t.squares.map((q) => q.s), starters: [] }
-      : { slot: i + 1, kind: 'deduction', title: 'Find every size', instructions: plainRichText('Not to scale.'), grade: 3, layout: notToScaleLayout(t), givens: [0, 1, 2].map((r) => ({ rect: r, size: t.squares[r]?.s ?? 0 })) },
+      : { slot: i + 1, kind: 'deduction', title: 'Find every size', instructions: plainRichText('Not to scale.'), grade: 3, layout: notToScaleRects(t), givens: [0, 1, 2].map((r) => ({ rect: r, size: t.squares[r]?.s ?? 0 })) },
   );
   const doc: EditionDocument = {
     publicationTitle: 'Squared Away Monthly',

@@ -90,6 +90,23 @@ function cornerLetter(ctx: Ctx, i: number, x: number, y: number, w: number, h: n
   );
 }
 
+/**
+ * A square of side `side` pt at (x, y) with its size label: noted for the preflight, the
+ * label left out (and reported) when it cannot be printed legibly.
+ */
+function labelledSquare(
+  ctx: Ctx,
+  sq: { x: number; y: number; side: number; size: number; fill: string; key: string },
+  omitted: { slot: number; where: 'puzzle' | 'solution' },
+): ReactElement[] {
+  noteSquare(ctx, sq.side);
+  const out = [<Rect key={`${sq.key}r`} x={sq.x} y={sq.y} width={sq.side} height={sq.side} fill={sq.fill} stroke={INK} strokeWidth={ctx.t.drawing.strokePt} />];
+  const l = label(ctx, String(sq.size), sq.x, sq.y, sq.side, sq.side, `${sq.key}l`);
+  if (l) out.push(l);
+  else ctx.metrics.omittedLabels.push({ ...omitted, size: sq.size });
+  return out;
+}
+
 type Box = { widthPt: number; maxHeightPt: number };
 
 function fitScale(W: number, H: number, box: Box) {
@@ -103,11 +120,7 @@ function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number, l
   const children: ReactNode[] = [];
   tiling.squares.forEach((sq, i) => {
     const side = sq.s * k;
-    noteSquare(ctx, side);
-    children.push(<Rect key={`r${i}`} x={sq.x * k} y={sq.y * k} width={side} height={side} fill={PIECE_FILL} stroke={INK} strokeWidth={stroke} />);
-    const l = label(ctx, String(sq.s), sq.x * k, sq.y * k, side, side, `t${i}`);
-    if (l) children.push(l);
-    else ctx.metrics.omittedLabels.push({ slot, where: 'solution', size: sq.s });
+    children.push(...labelledSquare(ctx, { x: sq.x * k, y: sq.y * k, side, size: sq.s, fill: PIECE_FILL, key: `t${i}` }, { slot, where: 'solution' }));
     const letter = letters ? cornerLetter(ctx, i, sq.x * k, sq.y * k, side, side, `c${i}`) : null;
     if (letter) children.push(letter);
   });
@@ -127,12 +140,7 @@ function assemblyDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>
   const h = p.frame.H * k;
   const children: ReactNode[] = [<Rect key="frame" x={0} y={0} width={w} height={h} fill="#ffffff" stroke={INK} strokeWidth={stroke * 1.6} />];
   p.starters.forEach((st, i) => {
-    const side = st.size * k;
-    noteSquare(ctx, side);
-    children.push(<Rect key={`s${i}`} x={st.x * k} y={st.y * k} width={side} height={side} fill={STARTER_FILL} stroke={INK} strokeWidth={stroke} />);
-    const l = label(ctx, String(st.size), st.x * k, st.y * k, side, side, `sl${i}`);
-    if (l) children.push(l);
-    else ctx.metrics.omittedLabels.push({ slot: p.slot, where: 'puzzle', size: st.size });
+    children.push(...labelledSquare(ctx, { x: st.x * k, y: st.y * k, side: st.size * k, size: st.size, fill: STARTER_FILL, key: `s${i}` }, { slot: p.slot, where: 'puzzle' }));
   });
   return (
     <Svg width={w + 2 * stroke} height={h + 2 * stroke} viewBox={`${-stroke} ${-stroke} ${w + 2 * stroke} ${h + 2 * stroke}`}>
@@ -160,16 +168,12 @@ function piecesDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>, 
   let rowH = 0;
   loose.forEach((s, i) => {
     const side = s * k;
-    noteSquare(ctx, side);
     if (x > 0 && x + side > box.widthPt) {
       x = 0;
       y += rowH + gap;
       rowH = 0;
     }
-    children.push(<Rect key={`p${i}`} x={x} y={y} width={side} height={side} fill={PIECE_FILL} stroke={INK} strokeWidth={stroke} />);
-    const l = label(ctx, String(s), x, y, side, side, `pl${i}`);
-    if (l) children.push(l);
-    else ctx.metrics.omittedLabels.push({ slot: p.slot, where: 'puzzle', size: s });
+    children.push(...labelledSquare(ctx, { x, y, side, size: s, fill: PIECE_FILL, key: `p${i}` }, { slot: p.slot, where: 'puzzle' }));
     x += side + gap;
     rowH = Math.max(rowH, side);
   });
@@ -394,8 +398,8 @@ function solutionBlock(ctx: Ctx, s: SolutionPrint, colW: number): ReactElement {
 
 export type LayoutOptions = { stamp: 'PROOF' | null; proofVersion?: number | undefined };
 
-/** Builds the document tree; metrics are filled in while building. */
-export function buildEditionDocument(doc: EditionDocument, opts: LayoutOptions): { element: ReactElement; metrics: LayoutMetrics; fonts: string[]; pageSizePt: { width: number; height: number } } {
+/** Lays the edition out as a @react-pdf/renderer document tree; metrics are filled in while laying out. */
+export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): { element: ReactElement; metrics: LayoutMetrics; fonts: string[]; pageSizePt: { width: number; height: number } } {
   const fonts = registerPrintFonts(Font);
   const t = doc.template;
   const g = templateGeometry(t);

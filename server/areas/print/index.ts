@@ -1,6 +1,8 @@
-// The print area's public face: page templates, the edition document's types, and the
-// renderer (PDF with its preflight). The editions area prints through these.
+// The print area's public face: page templates, the edition document (its types and the
+// schema a stored copy is parsed with), and the renderer (PDF with its preflight). The
+// editions area prints through these.
 export { registerTemplateRoutes } from './routes';
 export { renderEditionPdf, warmPrint, type RenderOptions } from './render-edition';
 export { getPageTemplate, pageTemplates } from './templates';
+export { editionDocumentSchema } from './types';
 export type { EditionDocument, LayoutRect, PuzzlePrint, RenderResult, SolutionPrint, SolvedTiling } from './types';

@@ -1,3 +1,4 @@
+import type { LayoutOptions } from './edition-layout';
 import type { EditionDocument, RenderResult } from './types';
 
 // @react-pdf/renderer costs about a second to import, so the layout module (which imports
@@ -11,13 +12,13 @@ function loadLayout() {
   return Promise.all([layoutModule, rendererModule]);
 }
 
-export type RenderOptions = { stamp: 'PROOF' | null; proofVersion?: number | undefined };
+export type RenderOptions = LayoutOptions;
 
 /** Renders an edition to PDF with its preflight report. */
 export async function renderEditionPdf(doc: EditionDocument, opts: RenderOptions): Promise<RenderResult> {
   const [layout, renderer] = await loadLayout();
   const { preflightPdf } = await import('./preflight');
-  const built = layout.buildEditionDocument(doc, opts);
+  const built = layout.buildEditionLayout(doc, opts);
   const pdf = await renderer.renderToBuffer(built.element as Parameters<typeof renderer.renderToBuffer>[0]);
   const preflight = preflightPdf({ template: doc.template, pdf, fontsRegistered: built.fonts, pageSizePt: built.pageSizePt, metrics: built.metrics });
   return { pdf, pages: preflight.pages, preflight };

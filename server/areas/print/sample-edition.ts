@@ -1,12 +1,14 @@
 import { plainRichText } from '../../../shared/contracts/editions';
 import type { PageTemplate } from '../../../shared/contracts/templates';
 import { exhaustiveTilings } from '../../../shared/foundry/index';
+import { notToScaleRects } from '../../../shared/puzzle/index';
 import type { Tiling } from '../../../shared/tiling/index';
-import type { EditionDocument, LayoutRect } from './types';
+import type { EditionDocument } from './types';
 
 // The sample page of a template (admin Templates screen): two layout samples made from
 // tilings our own foundry finds (order 10), so the page shows real drawings at the
-// template's sizes.
+// template's sizes. The Deduction sample is drawn not to scale by the puzzle engine's
+// notToScaleRects, as the puzzles area draws real Deduction puzzles.
 
 let cached: Tiling[] | undefined;
 
@@ -19,19 +21,6 @@ export function foundryTilings(order: number, count: number): Tiling[] {
     },
   });
   return out;
-}
-
-/** A monotone remapping of the coordinates (rank of each distinct value): the layout not to scale. */
-export function notToScaleLayout(t: Tiling): { W: number; H: number; rects: LayoutRect[] } {
-  const xs = [...new Set(t.squares.flatMap((q) => [q.x, q.x + q.s]))].sort((a, b) => a - b);
-  const ys = [...new Set(t.squares.flatMap((q) => [q.y, q.y + q.s]))].sort((a, b) => a - b);
-  const rx = (v: number) => xs.indexOf(v) * 4;
-  const ry = (v: number) => ys.indexOf(v) * 4;
-  return {
-    W: rx(t.W),
-    H: ry(t.H),
-    rects: t.squares.map((q) => ({ x: rx(q.x), y: ry(q.y), w: rx(q.x + q.s) - rx(q.x), h: ry(q.y + q.s) - ry(q.y) })),
-  };
 }
 
 export function templateSampleEdition(template: PageTemplate): EditionDocument {
@@ -62,7 +51,7 @@ export function templateSampleEdition(template: PageTemplate): EditionDocument {
         title: 'Layout sample',
         instructions: plainRichText('A drawing not to scale with a few sizes shown.'),
         grade: 1,
-        layout: notToScaleLayout(b),
+        layout: notToScaleRects(b),
         givens: [0, 1, 2].map((i) => ({ rect: i, size: b.squares[i]?.s ?? 0 })),
       },
     ],

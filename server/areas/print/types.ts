@@ -1,80 +1,77 @@
-import type { RichTextDoc } from '../../../shared/contracts/editions';
-import type { PageTemplate } from '../../../shared/contracts/templates';
+import { z } from 'zod';
+import { richTextDocSchema, type PreflightReport } from '../../../shared/contracts/editions';
+import { pageTemplateSchema } from '../../../shared/contracts/templates';
 
 // Plain data handed to the print layout. The editions service builds it from the
-// database; the renderer knows nothing about storage.
+// database; the renderer knows nothing about storage. The print document is stored with
+// every proof (edition_proof.document_json) and the press file is rendered from it, so its
+// shape is a schema: the stored copy is parsed through editionDocumentSchema, never cast.
 
-export type PlacedSquare = { x: number; y: number; s: number };
-export type SolvedTiling = { W: number; H: number; squares: PlacedSquare[] };
+const placedSquareSchema = z.object({ x: z.number(), y: z.number(), s: z.number() });
+export type PlacedSquare = z.infer<typeof placedSquareSchema>;
+
+export const solvedTilingSchema = z.object({ W: z.number(), H: z.number(), squares: z.array(placedSquareSchema) });
+export type SolvedTiling = z.infer<typeof solvedTilingSchema>;
 
 /** A not-to-scale layout rectangle of a Deduction puzzle (layout units, y downward). */
-export type LayoutRect = { x: number; y: number; w: number; h: number };
+const layoutRectSchema = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
+export type LayoutRect = z.infer<typeof layoutRectSchema>;
 
-export type AssemblyPrint = {
-  slot: number;
-  kind: 'assembly';
-  title: string;
-  instructions: RichTextDoc;
-  grade: number;
-  frame: { W: number; H: number };
+const assemblyPrintSchema = z.object({
+  slot: z.number().int(),
+  kind: z.literal('assembly'),
+  title: z.string(),
+  instructions: richTextDocSchema,
+  grade: z.number().int(),
+  frame: z.object({ W: z.number(), H: z.number() }),
   /** The sizes the solver must place (starter pieces included or not: all pieces). */
-  pieces: number[];
-  starters: { size: number; x: number; y: number }[];
-};
+  pieces: z.array(z.number()),
+  starters: z.array(z.object({ size: z.number(), x: z.number(), y: z.number() })),
+});
+export type AssemblyPrint = z.infer<typeof assemblyPrintSchema>;
 
-export type DeductionPrint = {
-  slot: number;
-  kind: 'deduction';
-  title: string;
-  instructions: RichTextDoc;
-  grade: number;
-  layout: { W: number; H: number; rects: LayoutRect[] };
+const deductionPrintSchema = z.object({
+  slot: z.number().int(),
+  kind: z.literal('deduction'),
+  title: z.string(),
+  instructions: richTextDocSchema,
+  grade: z.number().int(),
+  layout: z.object({ W: z.number(), H: z.number(), rects: z.array(layoutRectSchema) }),
   /** Sizes shown on the page: rect index into layout.rects and its size. */
-  givens: { rect: number; size: number }[];
-};
+  givens: z.array(z.object({ rect: z.number().int(), size: z.number() })),
+});
+export type DeductionPrint = z.infer<typeof deductionPrintSchema>;
 
-export type PuzzlePrint = AssemblyPrint | DeductionPrint;
+const puzzlePrintSchema = z.discriminatedUnion('kind', [assemblyPrintSchema, deductionPrintSchema]);
+export type PuzzlePrint = z.infer<typeof puzzlePrintSchema>;
 
-export type SolutionPrint = {
+const solutionPrintSchema = z.object({
   /** The slot the puzzle had (in this or the previous edition). */
-  slot: number;
+  slot: z.number().int(),
   /** Where the puzzle appeared, e.g. "No. 41, puzzle 2" when it was the previous edition. */
-  caption?: string | undefined;
-  kind: 'assembly' | 'deduction';
-  tiling: SolvedTiling;
-  steps?: string[] | undefined;
-};
+  caption: z.string().optional(),
+  kind: z.enum(['assembly', 'deduction']),
+  tiling: solvedTilingSchema,
+  steps: z.array(z.string()).optional(),
+});
+export type SolutionPrint = z.infer<typeof solutionPrintSchema>;
 
-export type EditionDocument = {
-  publicationTitle: string;
-  editionNumber: number;
+/** Everything one edition prints: what the layout draws and what a proof stores. */
+export const editionDocumentSchema = z.object({
+  publicationTitle: z.string(),
+  editionNumber: z.number().int(),
   /** ISO date, yyyy-mm-dd. */
-  editionDate: string;
-  template: PageTemplate;
-  introduction: RichTextDoc;
-  puzzles: PuzzlePrint[];
-  solutions: SolutionPrint[];
-};
+  editionDate: z.string(),
+  template: pageTemplateSchema,
+  introduction: richTextDocSchema,
+  puzzles: z.array(puzzlePrintSchema),
+  solutions: z.array(solutionPrintSchema),
+});
+export type EditionDocument = z.infer<typeof editionDocumentSchema>;
 
-export type PreflightWarning = { code: string; message: string };
+export type PreflightWarning = PreflightReport['warnings'][number];
 
-export type Preflight = {
-  ok: boolean;
-  templateId: string;
-  pages: number;
-  trimMm: { width: number; height: number };
-  bleedMm: number;
-  pageSizePt: { width: number; height: number };
-  /** Font families registered for print. */
-  fontsRegistered: string[];
-  /** Embedded TrueType font programs found in the produced file (/FontFile2). */
-  embeddedFontFiles: number;
-  fontsEmbedded: boolean;
-  smallestSquareMm: number | null;
-  smallestDigitPt: number | null;
-  /** Size labels left out because they could not be printed legibly. */
-  omittedLabels: { slot: number; where: 'puzzle' | 'solution'; size: number }[];
-  warnings: PreflightWarning[];
-};
+/** The preflight report of one PDF (the API's PreflightReport, shared/contracts/editions.ts). */
+export type Preflight = PreflightReport;
 
 export type RenderResult = { pdf: Buffer; pages: number; preflight: Preflight };
