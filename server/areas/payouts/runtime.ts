@@ -3,7 +3,7 @@ import { isAbsolute, join, resolve } from 'node:path';
 import { appRoot } from '../../platform/app-root';
 import type { MoneyDeps } from './ports';
 import type { Env } from '../../platform/env';
-import { FAKE_SECRET_KEY, startPaymentsFake } from './fake-provider';
+import { FAKE_SECRET_KEY, startPaymentsFake } from './fake-provider/index';
 import type { PayoutsDeps } from './payouts';
 import type { LocalFake } from '../../platform/local-fake';
 import { createPaymentsProvider, type PaymentsProvider } from './provider';

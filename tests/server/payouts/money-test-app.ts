@@ -3,7 +3,7 @@ import type { AddressInfo } from 'node:net';
 import type TestAgent from 'supertest/lib/agent';
 import { eq } from 'drizzle-orm';
 import { payoutAccount } from '../../../server/schema';
-import { startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider';
+import { startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider/index';
 import { payoutsDepsFrom } from '../../../server/areas/payouts/runtime';
 import { recordPublicationFees } from '../../../server/areas/payouts/ledger';
 import type { PayoutsDeps } from '../../../server/areas/payouts/payouts';

@@ -1,11 +1,12 @@
-import { mkdtempSync, rmSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { FAKE_SECRET_KEY, parseFormBody, startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { FAKE_SECRET_KEY, FakeStateFileError, parseFormBody, startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider/index';
+import { closeServer, listenOnLoopback } from '../../../server/areas/payouts/fake-provider/http-server';
 import { createPaymentsProvider, ProviderRefused } from '../../../server/areas/payouts/provider';
 
 // The local fake is checked against the provider's own SDK (stripe 23): the SDK's request
@@ -20,6 +21,11 @@ let sdk: Stripe;
 const received: { body: string; signature: string }[] = [];
 let hook: http.Server;
 
+/** The provider's SDK pointed at a fake, without retries (so every refusal shows). */
+function sdkFor(target: PaymentsFake, key = FAKE_SECRET_KEY): Stripe {
+  return new Stripe(key, { host: target.host, port: target.port, protocol: 'http', maxNetworkRetries: 0 });
+}
+
 beforeAll(async () => {
   hook = http.createServer((req, res) => {
     let body = '';
@@ -29,13 +35,13 @@ beforeAll(async () => {
       res.end('{}');
     });
   });
-  await new Promise<void>((r) => hook.listen(0, '127.0.0.1', () => r()));
-  fake = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, webhookUrl: `http://127.0.0.1:${(hook.address() as AddressInfo).port}/hook` });
-  sdk = new Stripe(FAKE_SECRET_KEY, { host: fake.host, port: fake.port, protocol: 'http', maxNetworkRetries: 0 });
+  const { url } = await listenOnLoopback(hook);
+  fake = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, webhookUrl: `${url}/hook` });
+  sdk = sdkFor(fake);
 });
 afterAll(async () => {
   await fake.stop();
-  await new Promise<void>((r) => hook.close(() => r()));
+  await closeServer(hook);
 });
 
 describe('the local fake provider', () => {
@@ -59,8 +65,18 @@ describe('the local fake provider', () => {
   });
 
   it('refuses a wrong API key the way the provider does (401, authentication error)', async () => {
-    const wrong = new Stripe('sk_test_wrong', { host: fake.host, port: fake.port, protocol: 'http', maxNetworkRetries: 0 });
-    await expect(wrong.accounts.create({ type: 'express' })).rejects.toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
+    await expect(sdkFor(fake, 'sk_test_wrong').accounts.create({ type: 'express' })).rejects.toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
+  });
+
+  it('refuses a missing or wrong parameter naming it, as the provider does (400, invalid request)', async () => {
+    const account = await sdk.accounts.create({ type: 'express', country: 'GB' });
+    fake.completeOnboarding(account.id);
+    const missing = await sdk.transfers.create({ amount: 500, currency: 'gbp' } as Stripe.TransferCreateParams).catch((e: unknown) => e);
+    expect(missing).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
+    expect(missing).toMatchObject({ code: 'parameter_missing', param: 'destination', message: 'Missing required param: destination.' });
+    const fraction = await sdk.transfers.create({ amount: 5.5, currency: 'gbp', destination: account.id }).catch((e: unknown) => e);
+    expect(fraction).toMatchObject({ code: 'parameter_invalid_integer', param: 'amount' });
+    expect(fake.balanceOf(account.id)).toEqual({});
   });
 
   it('refuses a payout larger than the account balance, as a refusal our client does not retry', async () => {
@@ -81,30 +97,87 @@ describe('the local fake provider', () => {
     expect(paid).toBeDefined();
     const event = sdk.webhooks.constructEvent(paid?.body ?? '', paid?.signature ?? '', secret);
     expect(event.type).toBe('payout.paid');
-    expect((event.data.object as { id: string }).id).toBe(po.id);
+    expect(z.object({ id: z.string() }).parse(event.data.object).id).toBe(po.id);
     expect(() => sdk.webhooks.constructEvent(paid?.body ?? '', paid?.signature ?? '', 'whsec_another_secret_000000')).toThrow(Stripe.errors.StripeSignatureVerificationError);
     expect(() => sdk.webhooks.constructEvent((paid?.body ?? '').replace('900', '901'), paid?.signature ?? '', secret)).toThrow(Stripe.errors.StripeSignatureVerificationError);
   });
 });
 
 describe('the local fake across a restart', () => {
+  let dir: string;
+  let stateFile: string;
+  beforeAll(() => {
+    dir = mkdtempSync(join(tmpdir(), 'sw-fake-'));
+  });
+  afterEach(() => {
+    rmSync(stateFile, { force: true });
+  });
+  afterAll(() => {
+    rmSync(dir, { recursive: true, force: true });
+  });
+  const fileNamed = (name: string) => (stateFile = join(dir, name));
+
   it('keeps accounts, balances and idempotency keys in its state file', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-fake-'));
-    const stateFile = join(dir, 'payments-fake.json');
+    fileNamed('payments-fake.json');
     const first = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, stateFile });
-    const one = new Stripe(FAKE_SECRET_KEY, { host: first.host, port: first.port, protocol: 'http', maxNetworkRetries: 0 });
-    const account = await one.accounts.create({ type: 'express', country: 'GB' });
+    const account = await sdkFor(first).accounts.create({ type: 'express', country: 'GB' });
     first.completeOnboarding(account.id);
-    const transfer = await one.transfers.create({ amount: 300, currency: 'gbp', destination: account.id }, { idempotencyKey: 'restart-1' });
+    const transfer = await sdkFor(first).transfers.create({ amount: 300, currency: 'gbp', destination: account.id }, { idempotencyKey: 'restart-1' });
     await first.stop();
 
     const second = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, stateFile });
-    const two = new Stripe(FAKE_SECRET_KEY, { host: second.host, port: second.port, protocol: 'http', maxNetworkRetries: 0 });
+    const two = sdkFor(second);
     const again = await two.transfers.create({ amount: 300, currency: 'gbp', destination: account.id }, { idempotencyKey: 'restart-1' });
     expect(again.id).toBe(transfer.id);
     expect(second.balanceOf(account.id)).toEqual({ gbp: 300 });
     expect((await two.accounts.retrieve(account.id)).payouts_enabled).toBe(true);
     await second.stop();
-    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('reads a state file the fake wrote before it was split into modules (fixtures/README.md)', async () => {
+    // The fixture's objects: account A paid 115.00 (payout p1), B with 40.00 pending (p2), C unfinished.
+    const [a, b, c] = ['acct_WtAlo5evu7KyH8MM', 'acct_zqIAe6o13DPZZ087', 'acct_reX9LzDWyoL51T5e'];
+    copyFileSync(join(import.meta.dirname, 'fixtures', 'payments-fake-state-2da9d42.json'), fileNamed('payments-fake.json'));
+    const lines: string[] = [];
+    const restarted = await startPaymentsFake({ webhookSecret: secret, autoSettle: false, stateFile, log: (line) => lines.push(line) });
+    expect(lines).toContain(`state loaded from ${stateFile}: 3 accounts, 2 payouts`);
+    const provider = createPaymentsProvider({ secretKey: FAKE_SECRET_KEY, webhookSecret: secret, local: { host: restarted.host, port: restarted.port } });
+    expect(await provider.getAccount(a)).toEqual({ id: a, ready: true, hint: 'Fake Test Bank ending 6789' });
+    expect(await provider.getAccount(c)).toEqual({ id: c, ready: false, hint: 'Details not finished' });
+    expect(restarted.paidOutTo(a)).toEqual({ gbp: 11_500 });
+    // Payout p1's transfer again, with its key: the stored answer, nothing moved.
+    const replay = await provider.createTransfer({ accountId: a, amountMinor: 11_500, currency: 'GBP', payoutId: 'p1', idempotencyKey: 'sw-payout-p1-a1-transfer' });
+    expect(replay.id).toBe('tr_CFwMDA0EVPJbFh1B');
+    expect(restarted.stats()).toMatchObject({ replays: 1, created: { transfers: 0 } });
+    expect(restarted.balanceOf(a)).toEqual({ gbp: 0 });
+    // The refused transfer to C is replayed as the refusal it was.
+    await expect(sdkFor(restarted).transfers.create({ amount: 100, currency: 'gbp', destination: c }, { idempotencyKey: 'sw-payout-p3-a1-transfer' })).rejects.toMatchObject({ code: 'account_invalid' });
+    expect(restarted.stats().replays).toBe(2);
+    // B's pending payout settles after the restart.
+    await restarted.settleAll();
+    expect(restarted.paidOutTo(b)).toEqual({ gbp: 4_000 });
+    await restarted.stop();
+  });
+
+  it('refuses to start on a state file that is not JSON, naming the file and leaving it as it was', async () => {
+    writeFileSync(fileNamed('payments-fake.json'), '{"accounts": [');
+    const failed = await startPaymentsFake({ webhookSecret: secret, stateFile }).catch((e: unknown) => e);
+    expect(failed).toBeInstanceOf(FakeStateFileError);
+    expect(failed).toMatchObject({ file: stateFile });
+    expect(String(failed)).toContain(stateFile);
+    expect(String(failed)).toContain('not valid JSON');
+    expect(readFileSync(stateFile, 'utf8')).toBe('{"accounts": [');
+  });
+
+  it('refuses to start on a state file of another shape, naming the file and the field', async () => {
+    const fixture = JSON.parse(readFileSync(join(import.meta.dirname, 'fixtures', 'payments-fake-state-2da9d42.json'), 'utf8'));
+    fixture.payouts[1].payout.status = 'lost';
+    const text = JSON.stringify(fixture);
+    writeFileSync(fileNamed('payments-fake.json'), text);
+    const failed = await startPaymentsFake({ webhookSecret: secret, stateFile }).catch((e: unknown) => e);
+    expect(failed).toBeInstanceOf(FakeStateFileError);
+    expect(String(failed)).toContain(stateFile);
+    expect(String(failed)).toContain('payouts[1].payout.status');
+    expect(readFileSync(stateFile, 'utf8')).toBe(text);
   });
 });
