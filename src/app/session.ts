@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { redirect, type LoaderFunctionArgs } from 'react-router-dom';
 import type { SessionUser } from '../../shared/contracts/auth';
-import { meQueryOptions } from '../lib/session-user';
+import { meQueryOptions } from '../api/session';
 
 /**
  * Loader of the signed-in part of the app: makes sure the session user is loaded and

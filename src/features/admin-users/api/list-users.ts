@@ -9,11 +9,11 @@ export async function listUsers(signal?: AbortSignal): Promise<AdminUser[]> {
 }
 
 /** Keys: ['admin-users'] (all), ['admin-users', 'list']. */
-export const usersKeys = { all: ['admin-users'] as const };
+export const usersKeys = { all: ['admin-users'] as const, list: () => [...usersKeys.all, 'list'] as const };
 
 export const usersQueryOptions = () =>
   queryOptions({
-    queryKey: [...usersKeys.all, 'list'] as const,
+    queryKey: usersKeys.list(),
     queryFn: ({ signal }) => listUsers(signal),
   });
 

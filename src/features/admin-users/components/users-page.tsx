@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { roleSchema } from '../../../../shared/contracts/common';
 import type { AdminUser } from '../../../../shared/contracts/users';
+import { useMe } from '../../../api/session';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
@@ -10,7 +11,6 @@ import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { roleLabel, roles, type Role } from '../../../lib/roles';
-import { useMe } from '../../../lib/session-user';
 import { useUsers } from '../api/list-users';
 import { useUpdateUser } from '../api/update-user';
 import { InviteDialog } from './invite-dialog';

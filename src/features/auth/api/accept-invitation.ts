@@ -4,8 +4,8 @@ import {
   type AcceptInvitationBody,
   type SessionUser,
 } from '../../../../shared/contracts/auth';
+import { meQueryOptions } from '../../../api/session';
 import { apiRequest } from '../../../lib/api-client';
-import { meQueryOptions } from '../../../lib/session-user';
 
 /** POST /api/invitations/:token/accept: sets name and password, and signs the new user in. */
 export async function acceptInvitation(token: string, body: AcceptInvitationBody): Promise<SessionUser> {

@@ -7,9 +7,12 @@ export function getInvitation(token: string, signal?: AbortSignal): Promise<Invi
   return apiRequest(`/api/invitations/${encodeURIComponent(token)}`, { schema: invitationLookupResponseSchema, signal });
 }
 
+/** Keys: ['invitations'] (all), ['invitations', 'detail', token]. */
+export const invitationKeys = { all: ['invitations'] as const, detail: (token: string) => [...invitationKeys.all, 'detail', token] as const };
+
 export const invitationQueryOptions = (token: string) =>
   queryOptions({
-    queryKey: ['invitations', 'detail', token] as const,
+    queryKey: invitationKeys.detail(token),
     queryFn: ({ signal }) => getInvitation(token, signal),
   });
 

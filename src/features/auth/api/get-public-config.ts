@@ -7,9 +7,12 @@ export function getPublicConfig(signal?: AbortSignal): Promise<PublicConfig> {
   return apiRequest('/api/public/config', { schema: publicConfigResponseSchema, signal });
 }
 
+/** Key: ['public-config']. */
+export const publicConfigKeys = { all: ['public-config'] as const };
+
 export const publicConfigQueryOptions = () =>
   queryOptions({
-    queryKey: ['public-config'] as const,
+    queryKey: publicConfigKeys.all,
     queryFn: ({ signal }) => getPublicConfig(signal),
     staleTime: Infinity,
   });

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SignInBody } from '../../../../shared/contracts/auth';
+import { meQueryOptions } from '../../../api/session';
 import { ApiError } from '../../../lib/api-client';
 import { authClient } from '../../../lib/auth-client';
-import { meQueryOptions } from '../../../lib/session-user';
 
 /** POST /api/auth/sign-in/email through better-auth; throws ApiError with the server's message. */
 export async function signIn(body: SignInBody): Promise<void> {

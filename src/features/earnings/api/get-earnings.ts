@@ -8,11 +8,15 @@ export function getEarnings(signal?: AbortSignal): Promise<Earnings> {
 }
 
 /** Keys: ['earnings'] (all), ['earnings', 'summary'], ['earnings', 'statement', month]. */
-export const earningsKeys = { all: ['earnings'] as const };
+export const earningsKeys = {
+  all: ['earnings'] as const,
+  summary: () => [...earningsKeys.all, 'summary'] as const,
+  statement: (month: string) => [...earningsKeys.all, 'statement', month] as const,
+};
 
 export const earningsQueryOptions = () =>
   queryOptions({
-    queryKey: [...earningsKeys.all, 'summary'] as const,
+    queryKey: earningsKeys.summary(),
     queryFn: ({ signal }) => getEarnings(signal),
     refetchInterval: (query) => (query.state.data?.payouts.some((p) => p.state === 'pending') ? 3_000 : false),
   });

@@ -15,7 +15,7 @@ export function statementCsvUrl(month: string): string {
 
 export const statementQueryOptions = (month: string) =>
   queryOptions({
-    queryKey: [...earningsKeys.all, 'statement', month] as const,
+    queryKey: earningsKeys.statement(month),
     queryFn: ({ signal }) => getStatement(month, signal),
   });
 

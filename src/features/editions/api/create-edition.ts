@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema, type EditionCreate } from '../../../../shared/contracts/editions';
+import { invalidateEditionQueries } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { editionKeys } from './list-editions';
 
 /** POST /api/editions (editor): a new draft. */
 export function createEdition(input: EditionCreate) {
@@ -10,5 +10,5 @@ export function createEdition(input: EditionCreate) {
 
 export function useCreateEdition() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: createEdition, onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+  return useMutation({ mutationFn: createEdition, onSettled: () => invalidateEditionQueries(qc) });
 }

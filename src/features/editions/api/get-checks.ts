@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { editionChecksSchema } from '../../../../shared/contracts/editions';
+import { editionKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { editionKeys } from './list-editions';
 
 /** GET /api/editions/:id/checks (editor): the checks before proof, with a preflight. */
 export function getChecks(id: string, signal?: AbortSignal) {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema } from '../../../../shared/contracts/editions';
+import { invalidateEditionQueries } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { editionKeys } from './list-editions';
 
 /** POST /api/editions/:id/publish (editor): approved -> published; fees go into the ledger. */
 export function publishEdition(id: string) {
@@ -10,5 +10,5 @@ export function publishEdition(id: string) {
 
 export function usePublishEdition(id: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: () => publishEdition(id), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+  return useMutation({ mutationFn: () => publishEdition(id), onSettled: () => invalidateEditionQueries(qc) });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema } from '../../../../shared/contracts/editions';
+import { invalidateEditionQueries } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { editionKeys } from './list-editions';
 
 /** POST /api/editions/:id/proofs (editor): render and store the next proof, mail the printers. */
 export function sendProof(id: string) {
@@ -10,5 +10,5 @@ export function sendProof(id: string) {
 
 export function useSendProof(id: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: () => sendProof(id), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+  return useMutation({ mutationFn: () => sendProof(id), onSettled: () => invalidateEditionQueries(qc) });
 }

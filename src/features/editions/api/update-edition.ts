@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema, type EditionPatch } from '../../../../shared/contracts/editions';
+import { editionKeys, invalidateEditionQueries } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { editionKeys } from './list-editions';
 
 /** PATCH /api/editions/:id (editor): number, date, introduction, slots of a draft. */
 export function updateEdition(id: string, patch: EditionPatch) {
@@ -13,6 +13,6 @@ export function useUpdateEdition(id: string) {
   return useMutation({
     mutationFn: (patch: EditionPatch) => updateEdition(id, patch),
     onSuccess: (ed) => qc.setQueryData(editionKeys.detail(id), ed),
-    onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }),
+    onSettled: () => invalidateEditionQueries(qc),
   });
 }

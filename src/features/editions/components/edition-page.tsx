@@ -1,18 +1,18 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { emptyRichText, type Edition, type RichTextDoc, type SlotInput } from '../../../../shared/contracts/editions';
+import { useEdition } from '../../../api/editions';
+import { usePuzzleList } from '../../../api/puzzles';
 import { Alert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { Card, Loading, Page } from '../../../components/page';
-import { StatusBadge } from '../../../components/status-badge';
 import { SelectField } from '../../../components/select-field';
+import { StatusBadge } from '../../../components/status-badge';
 import { TextField } from '../../../components/text-field';
 import { errorMessage, isApiError } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useChecks } from '../api/get-checks';
-import { useEdition } from '../api/get-edition';
-import { usePrintablePuzzles } from '../api/list-printable-puzzles';
 import { usePublishEdition } from '../api/publish-edition';
 import { useSendProof } from '../api/send-proof';
 import { useUpdateEdition } from '../api/update-edition';
@@ -41,13 +41,17 @@ function ErrorBox({ title, error }: { title: string; error: unknown }) {
   );
 }
 
+/** The slot picker offers puzzles with a current certificate (the shared puzzle list, filtered). */
+const printableSearch = { printable: true, pageSize: 200 };
+
 function Slots({ edition }: { edition: Edition }) {
   const update = useUpdateEdition(edition.id);
   const editable = edition.state === 'draft';
   const [slots, setSlots] = useState<SlotInput[]>(() => edition.slots.map((s) => ({ puzzleId: s.puzzleId, instructions: s.instructions })));
   const [newId, setNewId] = useState('');
   const [open, setOpen] = useState<number | null>(null);
-  const printable = usePrintablePuzzles();
+  const printable = usePuzzleList(printableSearch);
+  const printableItems = printable.data?.items ?? [];
   const info = new Map(edition.slots.map((s) => [s.puzzleId, s.puzzle]));
   const move = (i: number, by: number) =>
     setSlots((list) => {
@@ -99,13 +103,13 @@ function Slots({ edition }: { edition: Edition }) {
       </ol>
       {editable ? (
         <div className="flex flex-wrap items-end gap-2">
-          {(printable.data ?? []).length > 0 ? (
+          {printableItems.length > 0 ? (
             <SelectField
               label="Puzzle"
               placeholder="Choose a puzzle…"
               value={newId}
               onChange={(e) => setNewId(e.target.value)}
-              options={(printable.data ?? [])
+              options={printableItems
                 .filter((p) => !slots.some((s) => s.puzzleId === String(p.id)))
                 .map((p) => ({
                   value: String(p.id),

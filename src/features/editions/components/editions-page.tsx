@@ -4,6 +4,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { z } from 'zod';
 import { editionCreateSchema, type EditionSummary } from '../../../../shared/contracts/editions';
+import { useEditions } from '../../../api/editions';
+import { usePublications } from '../../../api/publications';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
@@ -15,8 +17,6 @@ import { TextField } from '../../../components/text-field';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { useCreateEdition } from '../api/create-edition';
-import { useEditions } from '../api/list-editions';
-import { useEditionPublications } from '../api/list-publications';
 import { EditionStateBadge } from './edition-state-badge';
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
@@ -94,7 +94,7 @@ const newEditionForm = editionCreateSchema.pick({ publicationId: true, date: tru
 type NewEdition = z.input<typeof newEditionForm>;
 
 function NewEditionForm() {
-  const pubs = useEditionPublications();
+  const pubs = usePublications();
   const create = useCreateEdition();
   const navigate = useNavigate();
   const form = useForm<NewEdition, unknown, z.output<typeof newEditionForm>>({ resolver: zodResolver(newEditionForm), defaultValues: { publicationId: '', number: 1, date: '' } });

@@ -8,8 +8,13 @@ export async function listRuns(signal?: AbortSignal): Promise<Run[]> {
   return body.items;
 }
 
-/** Keys: ['foundry'] (all), ['foundry', 'runs'], ['foundry', 'results', id, page]. */
-export const foundryKeys = { all: ['foundry'] as const };
+/** Keys: ['foundry'] (all), ['foundry', 'runs'], ['foundry', 'run', id], ['foundry', 'results', id, page]. */
+export const foundryKeys = {
+  all: ['foundry'] as const,
+  runs: () => [...foundryKeys.all, 'runs'] as const,
+  run: (id: string) => [...foundryKeys.all, 'run', id] as const,
+  results: (id: string, page: number) => [...foundryKeys.all, 'results', id, page] as const,
+};
 
 export function isActive(run: Run): boolean {
   return run.state === 'queued' || run.state === 'running';
@@ -17,7 +22,7 @@ export function isActive(run: Run): boolean {
 
 export const runsQueryOptions = () =>
   queryOptions({
-    queryKey: [...foundryKeys.all, 'runs'] as const,
+    queryKey: foundryKeys.runs(),
     queryFn: ({ signal }) => listRuns(signal),
     // poll while something is queued or running
     refetchInterval: (q) => (q.state.data?.some(isActive) ? 1000 : false),

@@ -15,14 +15,14 @@ export async function getRunResults(id: string, page: number, signal?: AbortSign
 
 export const runQueryOptions = (id: string) =>
   queryOptions({
-    queryKey: [...foundryKeys.all, 'run', id] as const,
+    queryKey: foundryKeys.run(id),
     queryFn: ({ signal }) => getRun(id, signal),
     refetchInterval: (q) => (q.state.data && isActive(q.state.data) ? 1000 : false),
   });
 
 export const runResultsQueryOptions = (id: string, page: number) =>
   queryOptions({
-    queryKey: [...foundryKeys.all, 'results', id, page] as const,
+    queryKey: foundryKeys.results(id, page),
     queryFn: ({ signal }) => getRunResults(id, page, signal),
   });
 

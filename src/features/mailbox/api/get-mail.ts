@@ -11,7 +11,7 @@ export async function getMail(id: string, signal?: AbortSignal) {
 
 export const mailQueryOptions = (id: string) =>
   queryOptions({
-    queryKey: [...mailboxKeys.all, 'detail', id] as const,
+    queryKey: mailboxKeys.detail(id),
     queryFn: ({ signal }) => getMail(id, signal),
   });
 

@@ -9,11 +9,15 @@ export async function listMail(signal?: AbortSignal) {
 }
 
 /** Keys: ['mailbox'] (all), ['mailbox', 'list'], ['mailbox', 'detail', id]. */
-export const mailboxKeys = { all: ['mailbox'] as const };
+export const mailboxKeys = {
+  all: ['mailbox'] as const,
+  list: () => [...mailboxKeys.all, 'list'] as const,
+  detail: (id: string) => [...mailboxKeys.all, 'detail', id] as const,
+};
 
 export const mailListQueryOptions = () =>
   queryOptions({
-    queryKey: [...mailboxKeys.all, 'list'] as const,
+    queryKey: mailboxKeys.list(),
     queryFn: ({ signal }) => listMail(signal),
     staleTime: 0,
   });

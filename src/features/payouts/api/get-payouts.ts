@@ -8,11 +8,11 @@ export function getPayouts(signal?: AbortSignal): Promise<PayoutsOverview> {
 }
 
 /** Keys: ['payouts'] (all), ['payouts', 'overview']. */
-export const payoutsKeys = { all: ['payouts'] as const };
+export const payoutsKeys = { all: ['payouts'] as const, overview: () => [...payoutsKeys.all, 'overview'] as const };
 
 export const payoutsQueryOptions = () =>
   queryOptions({
-    queryKey: [...payoutsKeys.all, 'overview'] as const,
+    queryKey: payoutsKeys.overview(),
     queryFn: ({ signal }) => getPayouts(signal),
     // While a payout waits for the provider's confirmation, look again every 2 s.
     refetchInterval: (query) => (query.state.data?.runs.some((r) => r.payouts.some((p) => p.state === 'pending')) ? 2_000 : false),

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { printerEditionSchema } from '../../../../shared/contracts/editions';
+import { editionKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
-import { proofKeys } from './list-proofs';
 
 /** POST /api/editions/:id/proofs/:version/approve (printer). */
 export function approveProof(id: string, version: number) {
@@ -15,10 +15,10 @@ export function returnProof(id: string, version: number, notes: string) {
 
 export function useApproveProof(id: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (version: number) => approveProof(id, version), onSettled: () => qc.invalidateQueries({ queryKey: proofKeys.all }) });
+  return useMutation({ mutationFn: (version: number) => approveProof(id, version), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
 }
 
 export function useReturnProof(id: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (v: { version: number; notes: string }) => returnProof(id, v.version, v.notes), onSettled: () => qc.invalidateQueries({ queryKey: proofKeys.all }) });
+  return useMutation({ mutationFn: (v: { version: number; notes: string }) => returnProof(id, v.version, v.notes), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
 }

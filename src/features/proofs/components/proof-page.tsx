@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { returnProofSchema } from '../../../../shared/contracts/editions';
+import { usePrinterEdition } from '../../../api/editions';
 import { Alert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
@@ -9,12 +10,11 @@ import { StatusBadge } from '../../../components/status-badge';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useApproveProof, useReturnProof } from '../api/decide-proof';
-import { useProofEdition } from '../api/get-proof-edition';
 
 /** /proofs/:id (printer): the proof, its preflight, approve or return with notes. */
 export function ProofPage() {
   const { id = '' } = useParams();
-  const edition = useProofEdition(id);
+  const edition = usePrinterEdition(id);
   const approve = useApproveProof(id);
   const ret = useReturnProof(id);
   const [notes, setNotes] = useState('');

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { publicationSchema, type PublicationInput } from '../../../../shared/contracts/publications';
+import { publicationKeys } from '../../../api/publications';
 import { apiRequest } from '../../../lib/api-client';
-import { publicationKeys } from './list-publications';
 
 /** POST /api/publications (admin) or PATCH /api/publications/:id (admin). */
 export function savePublication(input: PublicationInput, id?: string) {

@@ -3,6 +3,8 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { cadences, formatFee, publicationInputSchema, type Publication } from '../../../../shared/contracts/publications';
+import { usePublications } from '../../../api/publications';
+import { useTemplates } from '../../../api/templates';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
@@ -12,8 +14,6 @@ import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
 import { errorMessage } from '../../../lib/api-client';
-import { usePublications } from '../api/list-publications';
-import { useTemplateChoices } from '../api/list-templates';
 import { useSavePublication } from '../api/save-publication';
 
 // The form edits fees as decimals ("45.00") and sends whole minor units (4500).
@@ -38,7 +38,7 @@ function toForm(p: Publication): FormIn {
 }
 
 function PublicationForm({ editing, onDone }: { editing: Publication | null; onDone: () => void }) {
-  const templates = useTemplateChoices();
+  const templates = useTemplates();
   const save = useSavePublication();
   const form = useForm<FormIn, unknown, FormOut>({ resolver: zodResolver(formSchema), defaultValues: editing ? toForm(editing) : blank });
   const { errors } = form.formState;

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { okSchema } from '../../../../shared/contracts/common';
 import { puzzleStartedSchema, type PuzzleCreate, type PuzzlePatch } from '../../../../shared/contracts/puzzles';
+import { puzzleKeys } from '../../../api/puzzles';
+import { stockKeys } from '../../../api/stock';
 import { apiRequest } from '../../../lib/api-client';
-import { puzzleKeys } from './puzzles-queries';
 
 /** POST /api/puzzles (editor): make a puzzle; the proof starts in the worker pool (202). */
 export async function createPuzzle(body: PuzzleCreate) {
@@ -24,9 +25,13 @@ export async function cancelPuzzle(id: number) {
   return apiRequest(`/api/puzzles/${id}/cancel`, { method: 'POST', schema: okSchema });
 }
 
+/** A puzzle change refreshes the puzzles and the stock (a tiling's use count follows its puzzles). */
 function useInvalidating<A, R>(fn: (a: A) => Promise<R>) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: fn, onSettled: () => queryClient.invalidateQueries({ queryKey: puzzleKeys.all }) });
+  return useMutation({
+    mutationFn: fn,
+    onSettled: () => Promise.all([queryClient.invalidateQueries({ queryKey: puzzleKeys.all }), queryClient.invalidateQueries({ queryKey: stockKeys.all })]),
+  });
 }
 
 export const useCreatePuzzle = () => useInvalidating(createPuzzle);

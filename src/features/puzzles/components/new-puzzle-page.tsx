@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { puzzleCreateSchema, type PuzzleKind } from '../../../../shared/contracts/puzzles';
+import { useStockDetail } from '../../../api/stock';
 import { Alert } from '../../../components/alert';
 import { Button, ButtonLink } from '../../../components/button';
 import { CheckboxField } from '../../../components/checkbox-field';
@@ -10,7 +11,6 @@ import { SelectField } from '../../../components/select-field';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { errorMessage } from '../../../lib/api-client';
 import { useCreatePuzzle } from '../api/puzzle-mutations';
-import { useStockTiling } from '../api/puzzles-queries';
 import { levelOptions, parseLevel } from './puzzle-labels';
 
 /** /puzzles/new?stockId= (editor): choose the kind and level; the engine proposes the rest. */
@@ -18,7 +18,7 @@ export function NewPuzzlePage() {
   const [search] = useSearchParams();
   const raw = Number(search.get('stockId'));
   const stockId = Number.isInteger(raw) && raw > 0 ? raw : null;
-  const stock = useStockTiling(stockId);
+  const stock = useStockDetail(stockId);
   const create = useCreatePuzzle();
   const navigate = useNavigate();
   const [kind, setKind] = useState<PuzzleKind>('deduction');

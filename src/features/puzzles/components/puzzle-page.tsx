@@ -13,8 +13,8 @@ import { Tabs } from '../../../components/tabs';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
+import { isProving, usePuzzle } from '../api/get-puzzle';
 import { useCancelPuzzle, useRecheckPuzzle, useUpdatePuzzle } from '../api/puzzle-mutations';
-import { isProving, usePuzzle } from '../api/puzzles-queries';
 import { AssemblyPreview, ChooseSquares, DeductionPreview } from './puzzle-drawings';
 import { kindLabel, levelLabel, levelOptions, parseLevel, statusLabel, statusTone } from './puzzle-labels';
 

@@ -1,5 +1,6 @@
 import { Link, useNavigate } from 'react-router-dom';
 import type { PuzzleSummary } from '../../../../shared/contracts/puzzles';
+import { usePuzzleList } from '../../../api/puzzles';
 import { ButtonLink } from '../../../components/button';
 import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
@@ -7,7 +8,6 @@ import { Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
 import { formatDate } from '../../../lib/format';
-import { usePuzzleList } from '../api/puzzles-queries';
 import { kindLabel, levelLabel, statusLabel, statusTone } from './puzzle-labels';
 
 const col = dataTableColumnHelper<PuzzleSummary>();

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { submissionDetailSchema, type SubmissionDetail } from '../../../../shared/contracts/submissions';
+import { submissionKeys } from '../../../api/submissions';
 import { apiRequest } from '../../../lib/api-client';
-import { reviewKeys } from './list-review';
 
 /** GET /api/submissions/:id with drawing data, classification and duplicates. */
 export function getSubmission(id: number, signal?: AbortSignal): Promise<SubmissionDetail> {
@@ -9,7 +9,7 @@ export function getSubmission(id: number, signal?: AbortSignal): Promise<Submiss
 }
 
 export const submissionDetailQueryOptions = (id: number) =>
-  queryOptions({ queryKey: reviewKeys.detail(id), queryFn: ({ signal }) => getSubmission(id, signal) });
+  queryOptions({ queryKey: submissionKeys.detail(id), queryFn: ({ signal }) => getSubmission(id, signal) });
 
 export function useSubmissionDetail(id: number | null) {
   return useQuery({ ...submissionDetailQueryOptions(id ?? 0), enabled: id !== null });

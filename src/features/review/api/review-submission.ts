@@ -1,7 +1,8 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { bulkResultSchema, submissionSchema, type Submission } from '../../../../shared/contracts/submissions';
+import { stockKeys } from '../../../api/stock';
+import { submissionKeys } from '../../../api/submissions';
 import { apiRequest } from '../../../lib/api-client';
-import { reviewKeys } from './list-review';
 
 /** POST /api/submissions/:id/accept | /reject (editor). */
 export function reviewSubmission(input: { id: number; action: 'accept' | 'reject'; note?: string }): Promise<Submission> {
@@ -17,11 +18,16 @@ export function bulkReview(input: { ids: number[]; action: 'accept' | 'reject'; 
   return apiRequest('/api/submissions/bulk', { method: 'POST', body: input, schema: bulkResultSchema });
 }
 
+/** A decision changes the submission lists and details, and (on accept) the stock. */
+function invalidateAfterReview(qc: QueryClient) {
+  return Promise.all([qc.invalidateQueries({ queryKey: submissionKeys.all }), qc.invalidateQueries({ queryKey: stockKeys.all })]);
+}
+
 export function useReviewSubmission() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: reviewSubmission,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: reviewKeys.all }), qc.invalidateQueries({ queryKey: ['stock'] })]),
+    onSuccess: () => invalidateAfterReview(qc),
   });
 }
 
@@ -29,6 +35,6 @@ export function useBulkReview() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: bulkReview,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: reviewKeys.all }), qc.invalidateQueries({ queryKey: ['stock'] })]),
+    onSuccess: () => invalidateAfterReview(qc),
   });
 }

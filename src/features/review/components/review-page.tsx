@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import type { Submission } from '../../../../shared/contracts/submissions';
+import { useSubmissionList } from '../../../api/submissions';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
@@ -10,7 +11,6 @@ import { StatusBadge } from '../../../components/status-badge';
 import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
-import { useReviewList } from '../api/list-review';
 import { useBulkReview } from '../api/review-submission';
 import { ReviewDrawer } from './review-drawer';
 
@@ -22,7 +22,7 @@ export function ReviewPage() {
   const search = toListSearch(params.query);
   if (!params.query.filters.status) search.status = 'pending';
   if (params.query.filters.status === 'all') delete search.status;
-  const list = useReviewList(search);
+  const list = useSubmissionList(search);
   const [open, setOpen] = useState<number | null>(null);
   const [selected, setSelected] = useState<Set<number>>(new Set());
   const [bulkNote, setBulkNote] = useState('');

@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { stockListSchema, stockSummarySchema, type StockList, type StockSummary } from '../../../../shared/contracts/stock';
+import { stockKeys } from '../../../api/stock';
 import { apiRequest, buildUrl, type QueryValue } from '../../../lib/api-client';
 
 /** GET /api/stock (editor): filters, sort and page as query parameters. */
@@ -11,14 +12,6 @@ export function listStock(search: Record<string, QueryValue>, signal?: AbortSign
 export function getStockSummary(signal?: AbortSignal): Promise<StockSummary> {
   return apiRequest('/api/stock/summary', { schema: stockSummarySchema, signal });
 }
-
-/** Keys: ['stock'], ['stock', 'list', search], ['stock', 'summary'], ['stock', 'detail', id]. */
-export const stockKeys = {
-  all: ['stock'] as const,
-  list: (search: Record<string, QueryValue>) => ['stock', 'list', search] as const,
-  summary: () => ['stock', 'summary'] as const,
-  detail: (id: number) => ['stock', 'detail', id] as const,
-};
 
 export const stockListQueryOptions = (search: Record<string, QueryValue>) =>
   queryOptions({ queryKey: stockKeys.list(search), queryFn: ({ signal }) => listStock(search, signal), placeholderData: keepPreviousData });

@@ -1,4 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
+import { useStockDetail } from '../../../api/stock';
 import { Alert } from '../../../components/alert';
 import { ButtonLink } from '../../../components/button';
 import { Card, Loading, Page } from '../../../components/page';
@@ -7,7 +8,6 @@ import { TilingDrawing } from '../../../components/tiling-drawing';
 import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
-import { useStockDetail } from '../api/get-stock';
 
 const eventText = { submitted: 'Submitted', accepted: 'Accepted into the stock', added: 'Added' } as const;
 

@@ -1,11 +1,11 @@
 import type { Submission } from '../../../../shared/contracts/submissions';
+import { useSubmissionList } from '../../../api/submissions';
 import { ButtonLink } from '../../../components/button';
 import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { Page } from '../../../components/page';
 import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
 import { formatDate } from '../../../lib/format';
-import { useMySubmissions } from '../api/list-my-submissions';
 import { SubmissionStatusBadge } from './submission-status';
 
 const col = dataTableColumnHelper<Submission>();
@@ -29,7 +29,7 @@ const columns = col.columns([
 /** /submissions (setter): my submissions with state and the editor's note. */
 export function MySubmissionsPage() {
   const params = useTableSearchParams({ filterKeys: ['status', 'q'], defaultSort: { id: 'createdAt', desc: true } });
-  const list = useMySubmissions(toListSearch(params.query));
+  const list = useSubmissionList(toListSearch(params.query));
   return (
     <Page title="My submissions" description="Every tiling you sent, where it stands, and what the editor said." actions={<ButtonLink to="/submit" variant="primary">Submit a tiling</ButtonLink>}>
       <DataTable

@@ -1,13 +1,13 @@
 import { Link } from 'react-router-dom';
+import { useSubmissionList } from '../../../api/submissions';
 import { ButtonLink } from '../../../components/button';
 import { Loading } from '../../../components/page';
 import { formatDate } from '../../../lib/format';
-import { useMySubmissions } from '../api/list-my-submissions';
 import { SubmissionStatusBadge } from './submission-status';
 
 /** Setter Home card: my five latest submissions and a Submit button. */
 export function RecentSubmissionsCard() {
-  const list = useMySubmissions({ page: 1, pageSize: 5, sort: '-createdAt' });
+  const list = useSubmissionList({ page: 1, pageSize: 5, sort: '-createdAt' });
   if (list.isPending) return <Loading />;
   const items = list.data?.items ?? [];
   return (

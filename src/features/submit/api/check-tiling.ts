@@ -8,11 +8,11 @@ export function checkTiling(code: string, signal?: AbortSignal): Promise<Verdict
 }
 
 /** Keys: ['tilings'], ['tilings', 'check', code]. */
-export const tilingKeys = { all: ['tilings'] as const };
+export const tilingKeys = { all: ['tilings'] as const, check: (code: string) => [...tilingKeys.all, 'check', code] as const };
 
 export const checkTilingQueryOptions = (code: string) =>
   queryOptions({
-    queryKey: [...tilingKeys.all, 'check', code] as const,
+    queryKey: tilingKeys.check(code),
     queryFn: ({ signal }) => checkTiling(code, signal),
     staleTime: 60_000,
   });

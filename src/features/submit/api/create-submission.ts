@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { submissionSchema, type CreateSubmission, type Submission } from '../../../../shared/contracts/submissions';
+import { submissionKeys } from '../../../api/submissions';
 import { apiRequest } from '../../../lib/api-client';
 
 /** POST /api/submissions (setter): one tiling by paste or sketch. */
@@ -11,6 +12,6 @@ export function useCreateSubmission() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: createSubmission,
-    onSuccess: () => qc.invalidateQueries({ queryKey: ['submissions'] }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: submissionKeys.all }),
   });
 }

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { uploadReportSchema, type UploadReport } from '../../../../shared/contracts/submissions';
+import { submissionKeys } from '../../../api/submissions';
 import { ApiError } from '../../../lib/api-client';
 
 export interface UploadProgress {
@@ -50,6 +51,6 @@ export function useUploadSubmissions(onProgress?: (p: UploadProgress) => void) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (file: File) => uploadSubmissions(file, onProgress),
-    onSuccess: () => qc.invalidateQueries({ queryKey: ['submissions'] }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: submissionKeys.all }),
   });
 }

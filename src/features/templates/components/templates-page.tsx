@@ -1,9 +1,9 @@
 import { useState } from 'react';
+import { useTemplates } from '../../../api/templates';
 import { Alert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Card, Loading, Page } from '../../../components/page';
 import { errorMessage } from '../../../lib/api-client';
-import { useTemplates } from '../api/list-templates';
 
 /** /admin/templates: the page templates (templates/pages) and a sample page of each. */
 export function TemplatesPage() {

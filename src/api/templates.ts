@@ -1,8 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { templateListResponseSchema } from '../../../../shared/contracts/templates';
-import { apiRequest } from '../../../lib/api-client';
+import { templateListResponseSchema } from '../../shared/contracts/templates';
+import { apiRequest } from '../lib/api-client';
 
-/** Keys: ['templates'], ['templates', 'list']. */
+// Read by the templates feature (admin) and the publications feature (the template choice).
+
+/** Keys: ['templates'] (all), ['templates', 'list']. */
 export const templateKeys = { all: ['templates'] as const, list: () => [...templateKeys.all, 'list'] as const };
 
 /** GET /api/templates: every page template with its page size. */

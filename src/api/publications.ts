@@ -1,8 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { publicationListSchema } from '../../../../shared/contracts/publications';
-import { apiRequest } from '../../../lib/api-client';
+import { publicationListSchema } from '../../shared/contracts/publications';
+import { apiRequest } from '../lib/api-client';
 
-/** Keys: ['publications'], ['publications', 'list']. */
+// Read by the publications feature (admin) and the editions feature (choosing an edition's
+// publication): one key, so saving a publication refreshes both.
+
+/** Keys: ['publications'] (all), ['publications', 'list']. */
 export const publicationKeys = { all: ['publications'] as const, list: () => [...publicationKeys.all, 'list'] as const };
 
 /** GET /api/publications. */
