@@ -17,7 +17,7 @@ import { user } from '../../platform/auth/schema';
 import { payout, payoutAccount, paymentEvent, payoutRun, statementMailing } from './schema';
 import type { Logger } from '../../platform/log';
 import { queueMail } from '../../platform/mail/outbox';
-import { ProviderRefused, ProviderUnavailable, type PaymentsProvider, type ProviderEvent, type ProviderPayout } from './provider';
+import { ProviderRefused, ProviderUnavailable, summariseAccount, type AccountSummary, type PaymentsProvider, type ProviderEvent, type ProviderPayout } from './provider';
 import { buildStatement, listEntries, listStatementMonths, owedBalances } from './ledger';
 
 // Payout runs: an editor pays setters what the ledger says they are owed, through the
@@ -313,6 +313,11 @@ export async function resumePendingPayouts(deps: PayoutsDeps): Promise<{ resumed
   return { resumed: pending.length };
 }
 
+/** Our copy of a provider account's state (from an answer or a webhook). */
+function accountState(deps: Pick<PayoutsDeps, 'clock'>, remote: AccountSummary) {
+  return { status: remote.ready ? ('ready' as const) : ('onboarding' as const), displayHint: remote.hint, updatedAt: deps.clock.now() };
+}
+
 /** Applies one verified provider event; a repeated event id changes nothing. */
 export function applyProviderEvent(deps: PayoutsDeps, event: ProviderEvent): 'applied' | 'duplicate' | 'ignored' {
   return deps.db.transaction((tx) => {
@@ -323,11 +328,8 @@ export function applyProviderEvent(deps: PayoutsDeps, event: ProviderEvent): 'ap
     const inserted = tx.insert(paymentEvent).values({ id: event.id, type: event.type, payoutId, receivedAt: deps.clock.now() }).onConflictDoNothing().returning({ id: paymentEvent.id }).all();
     if (inserted.length === 0) return 'duplicate';
     if (event.type === 'account.updated') {
-      const acct = event.data.object;
-      const bank = acct.external_accounts?.data[0];
-      const ready = Boolean(acct.details_submitted && acct.payouts_enabled);
-      const hint = bank?.last4 ? `${bank.bank_name ?? 'Bank account'} ending ${bank.last4}` : ready ? 'Account ready' : 'Details not finished';
-      const changed = tx.update(payoutAccount).set({ status: ready ? 'ready' : 'onboarding', displayHint: hint, updatedAt: deps.clock.now() }).where(eq(payoutAccount.providerAccountId, acct.id)).run();
+      const remote = summariseAccount(event.data.object);
+      const changed = tx.update(payoutAccount).set(accountState(deps, remote)).where(eq(payoutAccount.providerAccountId, remote.id)).run();
       return changed.changes > 0 ? 'applied' : 'ignored';
     }
     if (!payoutId) return 'ignored';
@@ -375,7 +377,7 @@ export async function refreshPayoutDetails(deps: PayoutsDeps, setterId: string):
   if (row.status === 'onboarding') {
     try {
       const remote = await deps.provider.getAccount(row.accountId);
-      deps.db.update(payoutAccount).set({ status: remote.ready ? 'ready' : 'onboarding', displayHint: remote.hint, updatedAt: deps.clock.now() }).where(eq(payoutAccount.setterId, setterId)).run();
+      deps.db.update(payoutAccount).set(accountState(deps, remote)).where(eq(payoutAccount.setterId, setterId)).run();
     } catch (error) {
       deps.log.warn(`payout details of ${setterId}: provider not reachable (${(error as Error).message})`);
     }

@@ -56,12 +56,39 @@ const providerPayoutSchema = z
 export type ProviderPayout = z.infer<typeof providerPayoutSchema>;
 
 /** The webhook events we act on. */
-export const providerEventSchema = z.discriminatedUnion('type', [
+const providerEventSchema = z.discriminatedUnion('type', [
   z.object({ id: z.string(), type: z.literal('payout.paid'), account: z.string().optional(), data: z.object({ object: providerPayoutSchema }) }).loose(),
   z.object({ id: z.string(), type: z.literal('payout.failed'), account: z.string().optional(), data: z.object({ object: providerPayoutSchema }) }).loose(),
   z.object({ id: z.string(), type: z.literal('account.updated'), account: z.string().optional(), data: z.object({ object: accountSchema }) }).loose(),
 ]);
 export type ProviderEvent = z.infer<typeof providerEventSchema>;
+const actedOnEventTypes: ReadonlySet<string> = new Set(providerEventSchema.options.map((o) => o.shape.type.value));
+
+/** Any event has at least these; the events we do not act on are read no further. */
+const eventEnvelopeSchema = z.object({ id: z.string(), type: z.string() }).loose();
+
+/** A correctly signed webhook event that is not what the provider sends for its type (nothing is applied). */
+export class ProviderEventUnreadable extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ProviderEventUnreadable';
+  }
+}
+
+/**
+ * Reads a verified webhook event: an event we act on through its schema (one that does
+ * not fit is a ProviderEventUnreadable naming the event, never skipped in silence), any
+ * other type as `event: null`.
+ */
+export function readProviderEvent(verified: unknown): { id: string; type: string; event: ProviderEvent | null } {
+  const envelope = eventEnvelopeSchema.safeParse(verified);
+  if (!envelope.success) throw new ProviderEventUnreadable(`the event has no id or type:\n${z.prettifyError(envelope.error)}`);
+  const { id, type } = envelope.data;
+  if (!actedOnEventTypes.has(type)) return { id, type, event: null };
+  const parsed = providerEventSchema.safeParse(verified);
+  if (!parsed.success) throw new ProviderEventUnreadable(`event ${id} (${type}) is not what the provider sends:\n${z.prettifyError(parsed.error)}`);
+  return { id, type, event: parsed.data };
+}
 
 export type AccountSummary = { id: string; ready: boolean; hint: string };
 
@@ -73,11 +100,12 @@ export type PaymentsProvider = {
   createTransfer(input: { accountId: string; amountMinor: number; currency: string; payoutId: string; idempotencyKey: string }): Promise<{ id: string }>;
   createPayout(input: { accountId: string; amountMinor: number; currency: string; payoutId: string; idempotencyKey: string }): Promise<ProviderPayout>;
   retrievePayout(accountId: string, providerPayoutId: string): Promise<ProviderPayout>;
-  /** Verifies the signature and parses the event; throws on a bad signature. Returns null for event types we ignore. */
+  /** Verifies the signature and parses the event; throws on a bad signature, and ProviderEventUnreadable for an event that does not parse. `event` is null for types we ignore. */
   parseWebhook(rawBody: Buffer | string, signature: string | undefined): { id: string; type: string; event: ProviderEvent | null };
 };
 
-function summarise(account: z.infer<typeof accountSchema>): AccountSummary {
+/** Whether an account can be paid, and a hint for people (bank and last digits; never the number). */
+export function summariseAccount(account: z.infer<typeof accountSchema>): AccountSummary {
   const bank = account.external_accounts?.data[0];
   const ready = Boolean(account.details_submitted && account.payouts_enabled);
   const hint = bank?.last4 ? `${bank.bank_name ?? 'Bank account'} ending ${bank.last4}` : ready ? 'Account ready' : 'Details not finished';
@@ -130,7 +158,7 @@ export function createPaymentsProvider(config: PaymentsConfig): PaymentsProvider
         () => stripe.accountLinks.create({ account: accountId, type: 'account_onboarding', return_url: returnUrl, refresh_url: refreshUrl }),
         z.object({ url: z.string() }).loose(),
       ),
-    getAccount: async (accountId) => summarise(await call('read account', () => stripe.accounts.retrieve(accountId), accountSchema)),
+    getAccount: async (accountId) => summariseAccount(await call('read account', () => stripe.accounts.retrieve(accountId), accountSchema)),
     createTransfer: ({ accountId, amountMinor, currency, payoutId, idempotencyKey }) =>
       call(
         'transfer to setter',
@@ -151,9 +179,8 @@ export function createPaymentsProvider(config: PaymentsConfig): PaymentsProvider
       call('read payout', () => stripe.payouts.retrieve(providerPayoutId, {}, { stripeAccount: accountId }), providerPayoutSchema),
     parseWebhook: (rawBody, signature) => {
       if (!signature) throw new Error('the Stripe-Signature header is missing');
-      const event = stripe.webhooks.constructEvent(rawBody, signature, config.webhookSecret) as unknown as { id: string; type: string };
-      const parsed = providerEventSchema.safeParse(event);
-      return { id: event.id, type: event.type, event: parsed.success ? parsed.data : null };
+      const verified: unknown = stripe.webhooks.constructEvent(rawBody, signature, config.webhookSecret);
+      return readProviderEvent(verified);
     },
   };
 }

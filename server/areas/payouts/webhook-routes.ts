@@ -3,11 +3,13 @@ import type { MoneyDeps } from './ports';
 import { BadRequest } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { applyProviderEvent } from './payouts';
+import { ProviderEventUnreadable } from './provider';
 import { payoutsDepsOrFail } from './payments-common';
 
 // The payments provider's webhook. Public (the provider has no session) but every event
-// must carry a valid signature over the raw body; anything else is refused with 400,
-// logged, and changes nothing. The raw body is kept by express.raw in server/app.ts.
+// must carry a valid signature over the raw body, and an event we act on must parse as
+// the provider sends it; anything else is refused with 400, logged, and changes nothing.
+// The raw body is kept by express.raw in server/app.ts.
 
 const webhookAnswerSchema = z.object({ received: z.literal(true), result: z.enum(['applied', 'duplicate', 'ignored']) });
 
@@ -27,6 +29,10 @@ export function registerPaymentsWebhookRoutes(router: ApiRouter, deps: MoneyDeps
       try {
         parsed = payouts.provider.parseWebhook(raw, typeof signature === 'string' ? signature : undefined);
       } catch (error) {
+        if (error instanceof ProviderEventUnreadable) {
+          deps.log.warn(`payments webhook: refused, ${error.message}`);
+          throw new BadRequest('The webhook event is not in the form the provider sends for its type; nothing was applied.');
+        }
         deps.log.warn(`payments webhook: refused, bad signature (${(error as Error).message.split('\n')[0]})`);
         throw new BadRequest('The webhook signature is not valid.');
       }

@@ -102,9 +102,7 @@ describe('corrections', () => {
 
 describe('monthly statements', () => {
   it('shows a month on screen and as CSV (RFC 4180 quoting, exact decimals, a total row)', async () => {
-    const email = 'stmt@test.squarewright.test';
-    const agent = await t.signInAs('setter', { email, name: 'Statement Setter' });
-    const setter = await t.createUser('setter', { email });
+    const { agent, id: setter } = await t.newSetter('Statement Setter', 'stmt@test.squarewright.test');
     t.seedFees(setter, [2500, 1205], { date: '2026-09-12' });
     t.seedFees(setter, [999], { date: '2026-10-01' });
     const editor = await t.signInAs('editor');
@@ -134,9 +132,7 @@ describe('monthly statements', () => {
   });
 
   it('mails the statement through the outbox, and a month close mails each setter once', async () => {
-    const email = 'mailme@test.squarewright.test';
-    const agent = await t.signInAs('setter', { email, name: 'Mail Setter' });
-    const setter = await t.createUser('setter', { email });
+    const { agent, id: setter, email } = await t.newSetter('Mail Setter', 'mailme@test.squarewright.test');
     t.seedFees(setter, [1800], { date: '2026-08-20' });
     const sent = await agent.post('/api/earnings/statements/2026-08/send').expect(200);
     expect(sent.body).toEqual({ month: '2026-08', to: email, queued: true });

@@ -1,9 +1,9 @@
 import http from 'node:http';
-import type { AddressInfo } from 'node:net';
 import type TestAgent from 'supertest/lib/agent';
 import { eq } from 'drizzle-orm';
 import { payoutAccount } from '../../../server/schema';
 import { startPaymentsFake, type PaymentsFake } from '../../../server/areas/payouts/fake-provider/index';
+import { closeServer, listenOnLoopback } from '../../../server/areas/payouts/fake-provider/http-server';
 import { payoutsDepsFrom } from '../../../server/areas/payouts/runtime';
 import { recordPublicationFees } from '../../../server/areas/payouts/ledger';
 import type { PayoutsDeps } from '../../../server/areas/payouts/payouts';
@@ -18,6 +18,8 @@ export type MoneyTestApp = TestApp & {
   fake: PaymentsFake;
   baseUrl: string;
   payoutsDeps(extra?: Partial<PayoutsDeps>): PayoutsDeps;
+  /** A setter signed in (created on first use; email `${first name}@test.squarewright.test` unless given). */
+  newSetter(name: string, email?: string): Promise<{ agent: TestAgent; id: string; email: string }>;
   /** Writes fee entries as the publish step would (its own transaction here). */
   seedFees(setterId: string, amounts: number[], options?: { editionId?: string; currency?: string; date?: string }): void;
   /** Gives a setter finished payout details at the fake; returns the provider account id. */
@@ -37,8 +39,7 @@ export async function createMoneyTestApp(options: { demo?: CreateTestAppOptions[
     ...(options.demo !== undefined ? { demo: options.demo } : {}),
   });
   const server = http.createServer(t.app);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
-  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const { url: baseUrl } = await listenOnLoopback(server);
   fake.setWebhookUrl(`${baseUrl}/api/payments/webhook`);
   const provider = t.deps.payments;
   if (!provider) throw new Error('the test app has no payments provider');
@@ -47,6 +48,11 @@ export async function createMoneyTestApp(options: { demo?: CreateTestAppOptions[
     fake,
     baseUrl,
     payoutsDeps: (extra = {}) => ({ ...payoutsDepsFrom(t.deps, provider), ...extra }),
+    async newSetter(name, email = `${name.toLowerCase()}@test.squarewright.test`) {
+      const agent = await t.signInAs('setter', { email, name });
+      const id = await t.createUser('setter', { email });
+      return { agent, id, email };
+    },
     seedFees(setterId, amounts, options = {}) {
       const editionId = options.editionId ?? `edition-${++editionCounter}`;
       t.db.transaction((tx) =>
@@ -69,10 +75,7 @@ export async function createMoneyTestApp(options: { demo?: CreateTestAppOptions[
     },
     async closeAll() {
       await fake.stop();
-      await new Promise<void>((resolve) => {
-        server.close(() => resolve());
-        server.closeAllConnections();
-      });
+      await closeServer(server);
       await t.close();
     },
   };

@@ -13,7 +13,6 @@ import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 // print area's own tests); the tilings are the print area's published fixtures.
 
 let t: MoneyTestApp;
-let setterId: string;
 const puzzles = new Map<string, PuzzleForPrint>();
 
 beforeAll(async () => {
@@ -26,9 +25,7 @@ afterAll(async () => {
 
 describe('publish, then pay', () => {
   it('publishing an edition accrues one fee per puzzle, and the editor pays exactly that', async () => {
-    const email = 'printed@test.squarewright.test';
-    const setter = await t.signInAs('setter', { email, name: 'Printed Setter' });
-    setterId = await t.createUser('setter', { email });
+    const { agent: setter, id: setterId } = await t.newSetter('Printed Setter', 'printed@test.squarewright.test');
     puzzles.set('pz-a', stubPuzzleForPrint('pz-a', TILING_69x61, 'assembly', setterId));
     puzzles.set('pz-d', stubPuzzleForPrint('pz-d', TILING_33x32, 'deduction', setterId));
     const admin = await t.signInAs('admin');
