@@ -1,7 +1,6 @@
 import { and, asc, count, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import {
-  puzzleCertificateSchema,
   type PuzzleCreate,
   type PuzzleDetail,
   type PuzzleJob,
@@ -11,18 +10,17 @@ import {
   type PuzzlePatch,
   type PuzzleStarted,
   type PuzzleStatus,
-  type PuzzleStep,
   type PuzzleSummary,
   type SquareRef,
 } from '../../../shared/contracts/puzzles';
 import { inputHash, isCertificateCurrent, notToScaleLayout, PUZZLE_ENGINE_VERSION } from '../../../shared/puzzle/index';
-import type { Certificate } from '../../../shared/puzzle/index';
 import type { Tiling } from '../../../shared/tiling/index';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { puzzle } from './schema';
 import { stock } from '../stock/index';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
-import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
+import { certificateInputOf, DEFAULT_LEVEL, issuesText, nodeSha256, PUZZLE_JOB_KIND, puzzleJobSummarySchema, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
+import { certificateOf, givensOf, lastRecheckOf, levelOf, notesOf, secondOf, startersOf, stepsOf } from './stored';
 import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
 import type { PuzzleForPrint, PuzzleSource } from '../editions/ports';
 import type { StockPort, StockUsage } from '../stock/ports';
@@ -41,19 +39,6 @@ type PuzzleRow = typeof puzzle.$inferSelect;
 
 /** The puzzles' store: its own table, the stock and the editions through their ports. */
 export type PuzzlesStore = { db: Db; stock: StockPort; editionUsage: EditionUsage };
-
-function parseJson<T>(s: string | null, fallback: T): T {
-  if (s === null) return fallback;
-  try {
-    return JSON.parse(s) as T;
-  } catch {
-    return fallback;
-  }
-}
-
-function levelOf(r: Pick<PuzzleRow, 'level'>): PuzzleLevel | null {
-  return parseJson<PuzzleLevel | null>(r.level, null);
-}
 
 /** The printed title: an Assembly names its frame (the solver gets it); a Deduction must not give its sizes away. */
 export function puzzleTitle(kind: 'assembly' | 'deduction', t: Tiling): string {
@@ -83,17 +68,31 @@ function currentInputHash(kind: 'assembly' | 'deduction', tiling: Tiling, level:
 
 // ---- the job and its result ------------------------------------------------------------
 
-/** The job's sink: stores its result; a cancelled job marks only its own revision cancelled (a PATCH cancels the previous proof). */
-function sinkFor(puzzleId: number, revision: number) {
-  return {
-    onFinish(summary: unknown, tx: Db, state: 'done' | 'cancelled') {
-      if (state === 'cancelled' || summary === null) {
-        tx.update(puzzle).set({ status: 'cancelled', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'))).run();
-        return;
-      }
-      storeResult(tx, puzzleId, summary as PuzzleJobSummary);
-    },
-  };
+/** A proof of this revision that ends without a result (only while it is still the one running: a PATCH cancels the previous proof). */
+function endProof(db: DbOrTx, puzzleId: number, revision: number, status: 'cancelled' | 'failed', why?: string): void {
+  db.update(puzzle)
+    .set({ status, updatedAt: new Date(), ...(why === undefined ? {} : { notesJson: JSON.stringify([why]) }) })
+    .where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving')))
+    .run();
+}
+
+/**
+ * The job's sink (in the job's final transaction): its summary is parsed before anything is
+ * stored. A summary that does not parse fails the proof, stores none of it and says why in
+ * the puzzle's notes; a cancelled job marks only its own revision cancelled.
+ */
+export function finishProof(tx: DbOrTx, puzzleId: number, revision: number, summary: unknown, state: 'done' | 'cancelled'): void {
+  if (state === 'cancelled' || summary === null) {
+    endProof(tx, puzzleId, revision, 'cancelled');
+    return;
+  }
+  const parsed = puzzleJobSummarySchema.safeParse(summary);
+  if (parsed.success) {
+    storeResult(tx, puzzleId, parsed.data);
+    return;
+  }
+  const issues = issuesText(parsed.error);
+  endProof(tx, puzzleId, revision, 'failed', `the proof's result was refused and nothing of it was stored (${issues})`);
 }
 
 /** Store a finished proof (in the job's final transaction); ignored when the puzzle changed since. */
@@ -101,8 +100,7 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
   const row = tx.select({ revision: puzzle.revision, kind: puzzle.kind }).from(puzzle).where(eq(puzzle.id, puzzleId)).get();
   if (!row || row.revision !== s.revision) return;
   const cert = s.certificate;
-  const status: PuzzleStatus = cert.verdict as PuzzleStatus;
-  const set: Partial<typeof puzzle.$inferInsert> = { status, updatedAt: at };
+  const set: Partial<typeof puzzle.$inferInsert> = { status: cert.verdict, updatedAt: at };
   if (s.task === 'recheck' && s.recheck) {
     set.recheckJson = JSON.stringify({ ...s.recheck, at: at.toISOString() });
     // it holds: the stored certificate stays; the status goes back to its verdict
@@ -127,29 +125,19 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
 
 function submitJob(db: Db, runner: JobRunner, puzzleId: number, revision: number, task: PuzzleJobParams['task'], input: PuzzleJobInput, userId: string | null): string {
   const params: PuzzleJobParams = { puzzleId, revision, task };
-  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink: sinkFor(puzzleId, revision) });
+  const sink = { onFinish: (summary: unknown, tx: Db, state: 'done' | 'cancelled') => finishProof(tx, puzzleId, revision, summary, state) };
+  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink });
   db.update(puzzle).set({ jobId }).where(eq(puzzle.id, puzzleId)).run();
   // a failed or interrupted job leaves no result: say so on the puzzle
   void runner.wait(jobId).then((r) => {
-    if ((r.state === 'failed' || r.state === 'interrupted') && db.$client.open) {
-      db.update(puzzle).set({ status: 'failed', updatedAt: new Date() }).where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'))).run();
-    }
+    if ((r.state === 'failed' || r.state === 'interrupted') && db.$client.open) endProof(db, puzzleId, revision, 'failed');
   }, () => undefined);
   return jobId;
 }
 
+/** The job's input for a stored puzzle (overrides: what a PATCH changes). */
 function jobInputOf(r: PuzzleRow, tiling: Tiling, overrides: Partial<PuzzleJobInput> = {}): PuzzleJobInput {
-  return {
-    kind: r.kind,
-    tiling,
-    level: levelOf(r),
-    showFrame: r.showFrame,
-    starters: parseJson<Placed[]>(r.startersJson, []),
-    givens: parseJson<Placed[]>(r.givensJson, []),
-    grade: null,
-    seed: 1,
-    ...overrides,
-  };
+  return { kind: r.kind, tiling, level: levelOf(r), showFrame: r.showFrame, starters: startersOf(r), givens: givensOf(r), grade: null, seed: 1, ...overrides };
 }
 
 // ---- commands ---------------------------------------------------------------------------
@@ -205,8 +193,8 @@ export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionU
   }
   if (r.kind === 'deduction' && body.starters !== undefined) throw new Unprocessable('A Deduction puzzle has givens, not starter pieces.', [{ path: 'body.starters', message: 'not for a Deduction puzzle' }]);
   const { tiling } = deps.stock.tiling(db, r.stockId);
-  const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : parseJson<Placed[]>(r.startersJson, []);
-  const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : parseJson<Placed[]>(r.givensJson, []);
+  const starters = body.starters ? resolveRefs(tiling, body.starters, 'starters') : startersOf(r);
+  const givens = body.givens ? resolveRefs(tiling, body.givens, 'givens') : givensOf(r);
   const level = r.kind === 'deduction' ? (body.level ?? levelOf(r) ?? DEFAULT_LEVEL) : null;
   const showFrame = body.showFrame ?? r.showFrame;
   const revision = r.revision + 1;
@@ -221,7 +209,7 @@ export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionU
     })
     .where(eq(puzzle.id, id))
     .run();
-  const input = jobInputOf({ ...r, level: level === null ? null : JSON.stringify(level), showFrame }, tiling, propose ? { starters: null, givens: null } : { starters, givens });
+  const input = jobInputOf(r, tiling, { level, showFrame, ...(propose ? { starters: null, givens: null } : { starters, givens }) });
   return { id, jobId: submitJob(db, runner, id, revision, propose ? 'make' : 'prove', input, who.id) };
 }
 
@@ -233,7 +221,7 @@ export function recheckPuzzle(deps: PuzzlesStore, runner: JobRunner, who: Sessio
   if (!cert) throw new Conflict(`Puzzle ${id} has no certificate to re-check.`);
   const { tiling } = deps.stock.tiling(db, r.stockId);
   db.update(puzzle).set({ status: 'proving', updatedAt: new Date() }).where(eq(puzzle.id, id)).run();
-  return { id, jobId: submitJob(db, runner, id, r.revision, 'recheck', jobInputOf(r, tiling, { certificate: cert as Certificate }), who.id) };
+  return { id, jobId: submitJob(db, runner, id, r.revision, 'recheck', jobInputOf(r, tiling, { certificate: cert }), who.id) };
 }
 
 export function cancelPuzzleJob(db: Db, runner: JobRunner, id: number): void {
@@ -244,11 +232,6 @@ export function cancelPuzzleJob(db: Db, runner: JobRunner, id: number): void {
 
 // ---- reading ------------------------------------------------------------------------------
 
-function certificateOf(r: Pick<PuzzleRow, 'certificateJson'>) {
-  const p = puzzleCertificateSchema.safeParse(parseJson<unknown>(r.certificateJson, null));
-  return p.success ? p.data : null;
-}
-
 const verdictWords: Record<string, string> = {
   multiple: 'the pieces fit together in more than one way: not unique',
   none: 'the pieces cannot fill the frame',
@@ -258,7 +241,7 @@ const verdictWords: Record<string, string> = {
 };
 
 /** Why the puzzle's certificate does not make it printable (empty: it does). */
-export function staleReasons(r: Pick<PuzzleRow, 'certificateJson' | 'inputHash' | 'status'>): string[] {
+export function staleReasons(r: Pick<PuzzleRow, 'id' | 'certificateJson' | 'inputHash' | 'status'>): string[] {
   const cert = certificateOf(r);
   if (!cert) return [r.status === 'proving' ? 'the first proof is still running' : 'there is no certificate'];
   const out: string[] = [];
@@ -309,24 +292,35 @@ const summaryColumns = {
   tilingKey: stock.canonicalKey, order: stock.order, width: stock.width, height: stock.height,
 };
 
+/** A puzzle's row with the facts of its stock tiling (undefined: there is no such puzzle). */
+function rowWithStock(db: DbOrTx, id: number) {
+  return db
+    .select({ row: puzzle, tilingKey: stock.canonicalKey, order: stock.order, width: stock.width, height: stock.height, setterId: stock.setterId })
+    .from(puzzle)
+    .innerJoin(stock, eq(stock.id, puzzle.stockId))
+    .where(eq(puzzle.id, id))
+    .get();
+}
+
 export function getPuzzle(deps: PuzzlesStore, runner: JobRunner, id: number): PuzzleDetail {
   const { db } = deps;
-  const r = getRow(db, id);
-  const s = db.select(summaryColumns).from(puzzle).innerJoin(stock, eq(stock.id, puzzle.stockId)).where(eq(puzzle.id, id)).get()!;
+  const found = rowWithStock(db, id);
+  if (!found) throw new NotFound(`No puzzle ${id}.`);
+  const { row: r, ...facts } = found;
   const { tiling } = deps.stock.tiling(db, r.stockId);
   const job = r.jobId ? runner.get(r.jobId) : null;
   return {
-    ...toSummary(s, usesOf(deps, [id]).get(id) ?? [], job),
+    ...toSummary({ ...r, ...facts }, usesOf(deps, [id]).get(id) ?? [], job),
     showFrame: r.showFrame,
     tiling,
-    starters: parseJson<Placed[]>(r.startersJson, []),
-    givens: parseJson<Placed[]>(r.givensJson, []),
-    steps: parseJson<PuzzleStep[]>(r.stepsJson, []),
+    starters: startersOf(r),
+    givens: givensOf(r),
+    steps: stepsOf(r),
     certificate: certificateOf(r),
     staleReasons: staleReasons(r),
-    second: parseJson<PuzzleDetail['second']>(r.secondJson, null),
-    notes: parseJson<string[]>(r.notesJson, []),
-    lastRecheck: parseJson<PuzzleDetail['lastRecheck']>(r.recheckJson, null),
+    second: secondOf(r),
+    notes: notesOf(r),
+    lastRecheck: lastRecheckOf(r),
     job: jobOf(job),
   };
 }
@@ -364,12 +358,7 @@ export function listPuzzles(deps: PuzzlesStore, runner: JobRunner, q: PuzzleList
 
 export function getPuzzleForPrint(stockPort: StockPort, db: DbOrTx, puzzleId: string): PuzzleForPrint | null {
   if (!/^\d{1,15}$/.test(puzzleId)) return null;
-  const r = db
-    .select({ row: puzzle, tilingKey: stock.canonicalKey, setterId: stock.setterId })
-    .from(puzzle)
-    .innerJoin(stock, eq(stock.id, puzzle.stockId))
-    .where(eq(puzzle.id, Number(puzzleId)))
-    .get();
+  const r = rowWithStock(db, Number(puzzleId));
   if (!r) return null;
   const p = r.row;
   const { tiling } = stockPort.tiling(db, p.stockId);
@@ -379,15 +368,15 @@ export function getPuzzleForPrint(stockPort: StockPort, db: DbOrTx, puzzleId: st
   const base = { id: String(p.id), kind: p.kind, title: p.title, grade: p.grade ?? 3, tilingKey: r.tilingKey, setterId: r.setterId, certificate };
   const solution = { tiling: { W: tiling.W, H: tiling.H, squares: tiling.squares.map((q) => ({ x: q.x, y: q.y, s: q.s })) } };
   if (p.kind === 'assembly') {
-    return { ...base, assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s).sort((a, b) => b - a), starters: parseJson<Placed[]>(p.startersJson, []) }, solution };
+    return { ...base, assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s).sort((a, b) => b - a), starters: startersOf(p) }, solution };
   }
   const layout = notToScaleLayout(tiling);
   const index = new Map(tiling.squares.map((q, i) => [`${q.x},${q.y}`, i]));
-  const givens = parseJson<Placed[]>(p.givensJson, []).flatMap((g) => {
+  const givens = givensOf(p).flatMap((g) => {
     const i = index.get(`${g.x},${g.y}`);
     return i === undefined ? [] : [{ rect: i, size: g.size }];
   });
-  const steps = parseJson<PuzzleStep[]>(p.stepsJson, []).map((s) => s.text);
+  const steps = stepsOf(p).map((s) => s.text);
   return { ...base, deduction: { layout: { W: layout.width, H: layout.height, rects: layout.rects }, givens }, solution: { ...solution, steps } };
 }
 

@@ -4,7 +4,7 @@ import { seedDemoStock } from '../../../server/areas/intake/demo-seed';
 import { seedDemoPuzzles } from '../../../server/areas/puzzles/demo-seed';
 import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
 import { listEditions } from '../../../server/areas/editions/editions';
-import { seedDemoEditions } from '../../../server/areas/editions/proofs';
+import { seedDemoEditions } from '../../../server/areas/editions/demo-seed';
 import { seedDemoPublications } from '../../../server/areas/editions/publications';
 import { getPuzzle, listPrintablePuzzleIds, listPuzzles } from '../../../server/areas/puzzles/puzzles';
 import { getStockDetail } from '../../../server/areas/stock/stock';

@@ -1,0 +1,58 @@
+import { getTableName } from 'drizzle-orm';
+import { z } from 'zod';
+import { puzzleLevelSchema } from '../../../shared/contracts/puzzles';
+import { certificateSchema, issuesText, noteListSchema, placedListSchema, recheckOutcomeSchema, secondSolutionSchema, stepListSchema } from './rules';
+import { puzzle } from './schema';
+
+// The puzzle table's JSON columns, each with its schema, read here and nowhere else. They are
+// written from a job summary that was parsed with the same schemas (./rules.ts), so a row that
+// does not parse is corrupt: reading it is an error that names the table, the column and the
+// row, never a silent fallback.
+
+type PuzzleRow = typeof puzzle.$inferSelect;
+type Row<K extends keyof PuzzleRow> = Pick<PuzzleRow, 'id' | K>;
+
+/** A stored value that does not have its column's shape. */
+export class StoredPuzzleError extends Error {
+  constructor(
+    readonly table: string,
+    readonly column: string,
+    readonly rowId: number,
+    problem: string,
+  ) {
+    super(`${table} ${rowId}: column ${column} ${problem}`);
+    this.name = 'StoredPuzzleError';
+  }
+}
+
+/** One column's text through its schema; a column left empty (SQL null) reads as null. */
+function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string): T;
+function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string | null): T | null;
+function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string | null): T | null {
+  if (text === null) return null;
+  const fail = (problem: string) => new StoredPuzzleError(getTableName(puzzle), column.name, rowId, problem);
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    throw fail(`is not JSON (${(e as Error).message})`);
+  }
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) throw fail(`does not have its stored shape: ${issuesText(parsed.error)}`);
+  return parsed.data;
+}
+
+/** A re-check as stored: its outcome and when it ran. */
+const storedRecheckSchema = recheckOutcomeSchema.extend({ at: z.string() });
+
+/** Deduction: its locality level; null for Assembly. */
+export const levelOf = (r: Row<'level'>) => parseColumn(puzzle.level, puzzleLevelSchema, r.id, r.level);
+export const startersOf = (r: Row<'startersJson'>) => parseColumn(puzzle.startersJson, placedListSchema, r.id, r.startersJson);
+export const givensOf = (r: Row<'givensJson'>) => parseColumn(puzzle.givensJson, placedListSchema, r.id, r.givensJson);
+export const stepsOf = (r: Row<'stepsJson'>) => parseColumn(puzzle.stepsJson, stepListSchema, r.id, r.stepsJson);
+/** The certificate of the latest finished proof (null before the first). */
+export const certificateOf = (r: Row<'certificateJson'>) => parseColumn(puzzle.certificateJson, certificateSchema, r.id, r.certificateJson);
+export const secondOf = (r: Row<'secondJson'>) => parseColumn(puzzle.secondJson, secondSolutionSchema, r.id, r.secondJson);
+export const notesOf = (r: Row<'notesJson'>) => parseColumn(puzzle.notesJson, noteListSchema, r.id, r.notesJson);
+/** The latest re-check and when it ran (null when none since the last change). */
+export const lastRecheckOf = (r: Row<'recheckJson'>) => parseColumn(puzzle.recheckJson, storedRecheckSchema, r.id, r.recheckJson);
