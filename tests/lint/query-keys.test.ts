@@ -116,7 +116,7 @@ describe('query keys come only from factories', () => {
         if (!r) noRoot.push(`${rel(f)}: ${name}`);
         else owners.set(r, [...(owners.get(r) ?? []), `${rel(f)}: ${name}`]);
       }
-      const declared = [...code(text).matchAll(/\bconst\s+(\w+Keys)\s*=\s*\{/g)].map((m) => m[1]);
+      const declared = [...code(text).matchAll(/\bconst\s+(\w+Keys)\s*=\s*\{/g)].map((m) => m[1]!);
       const withAll = new Set(keyRoots(text).map((k) => k.name));
       for (const name of declared) if (!withAll.has(name)) noRoot.push(`${rel(f)}: ${name} has no all: ['root']`);
     }
