@@ -14,7 +14,9 @@ import {
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderEditionPdf } from '../print/index';
 import type { EditionsDeps } from './ports';
-import { buildEditionDocument, createEdition, getEditionFor, getEditionRow, listEditions, runEditionChecks, updateEdition } from './editions';
+import { runEditionChecks } from './edition-checks';
+import { loadEditionDocument } from './edition-document';
+import { createEdition, getEditionFor, getEditionRow, listEditions, updateEdition } from './editions';
 import { approveProof, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
 
 function sendPdf(res: import('express').Response, file: { pdf: Buffer; sha256: string; name: string }, disposition: 'inline' | 'attachment') {
@@ -65,7 +67,7 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
     { method: 'GET', path: '/api/editions/:id/preview.pdf', summary: 'A preview of the edition as it stands (stamped PROOF, not stored)', tags, params: editionIdParamsSchema, produces: 'application/pdf' },
     async ({ params, res }) => {
       getEditionRow(deps.db, params.id);
-      const r = await renderEditionPdf(buildEditionDocument(deps, params.id).doc, { stamp: 'PROOF' });
+      const r = await renderEditionPdf(loadEditionDocument(deps, params.id).doc, { stamp: 'PROOF' });
       res.status(200).type('application/pdf').setHeader('Cache-Control', 'no-store');
       res.send(r.pdf);
     },

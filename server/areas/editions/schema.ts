@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { user } from '../../platform/auth/schema';
+import { puzzle } from '../puzzles/schema';
 import { publication } from './publication-schema';
 
 // Editions (dated issues of a publication), their slots, proofs and press files.
@@ -47,8 +48,10 @@ export const editionSlot = sqliteTable(
       .references(() => edition.id, { onDelete: 'cascade' }),
     /** 1-based place in the edition */
     position: integer('position').notNull(),
-    /** the puzzle area's id (no foreign key: the puzzle store belongs to another area) */
-    puzzleId: text('puzzle_id').notNull(),
+    /** the puzzle printed here; a puzzle in an edition cannot be deleted (the API spells the id as its digits) */
+    puzzleId: integer('puzzle_id')
+      .notNull()
+      .references(() => puzzle.id, { onDelete: 'restrict' }),
     instructionsJson: text('instructions_json').notNull(),
   },
   (t) => [uniqueIndex('edition_slot_position_idx').on(t.editionId, t.position), uniqueIndex('edition_slot_puzzle_idx').on(t.editionId, t.puzzleId), index('edition_slot_puzzle_lookup_idx').on(t.puzzleId)],

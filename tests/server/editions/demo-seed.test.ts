@@ -1,12 +1,12 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { user } from '../../../server/platform/auth/schema';
-import type { PuzzleForPrint } from '../../../server/areas/editions/ports';
+import { saturdayOnOrAfter, seedDemoEditions } from '../../../server/areas/editions/demo-seed';
 import { listEditions } from '../../../server/areas/editions/editions';
-import { saturdayOnOrAfter, seedDemoEditions } from '../../../server/areas/editions/proofs';
 import { listPublications, seedDemoPublications } from '../../../server/areas/editions/publications';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { stubPuzzles } from '../print/fixtures/stub-puzzles';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -28,21 +28,13 @@ describe('print demo data', () => {
 
   it('drives a published edition and one in proof when puzzles are printable', async () => {
     const setter = t.db.select({ id: user.id }).from(user).where(eq(user.email, 'setter@demo.squarewright.test')).get()!;
-    const tilings = [TILING_33x32, TILING_69x61, TILING_33x32, TILING_69x61];
-    const puzzles = tilings.map(
-      (tiling, i): PuzzleForPrint => ({
-        id: `demo-${i}`,
-        kind: 'assembly',
-        title: `Demo ${i}`,
-        grade: 1,
-        tilingKey: `k${i}`,
-        setterId: setter.id,
-        certificate: { current: true, summary: 'stub' },
-        assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [] },
-        solution: { tiling },
-      }),
-    );
-    t.deps.puzzles = { getPuzzleForPrint: (_db, id) => puzzles.find((p) => p.id === id) ?? null, listPrintablePuzzleIds: () => puzzles.map((p) => p.id) };
+    const puzzles = stubPuzzles(t.deps);
+    for (const [i, tiling] of [TILING_33x32, TILING_69x61, TILING_33x32, TILING_69x61].entries()) {
+      // each its own tiling key, so No. 40 and No. 41 pass the reuse guard
+      const p = puzzles.add({ tiling, kind: 'assembly', setterId: setter.id });
+      puzzles.replace({ ...p, title: `Demo ${i}`, grade: 1, tilingKey: `k${i}`, assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s), starters: [] } });
+    }
+    t.deps.puzzles = puzzles;
     await seedDemoEditions(t.deps);
     const list = listEditions(t.deps, admin, {});
     expect(list.map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort()).toEqual([

@@ -5,9 +5,9 @@ import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
-import type { PuzzleForPrint, PuzzleSource } from '../../../server/areas/editions/ports';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 import { hasPoppler, pdftotext, writeTemp } from '../print/poppler';
 
 // The print API end to end on a fresh database: publications, editions, the state
@@ -19,7 +19,12 @@ let editor: TestAgent;
 let printer: TestAgent;
 let setter: TestAgent;
 let setterId: string;
-const puzzles = new Map<string, PuzzleForPrint>();
+let puzzles: StubPuzzles;
+// the stub puzzles' ids (puzzle row ids, as the API spells them)
+let pzA: string;
+let pzD: string;
+let pzSameTiling: string;
+let pzStale: string;
 
 function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
   const chunks: Buffer[] = [];
@@ -27,20 +32,19 @@ function binary(res: request.Response, cb: (err: Error | null, body: Buffer) => 
   res.on('end', () => cb(null, Buffer.concat(chunks)));
 }
 
-const source: PuzzleSource = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null, listPrintablePuzzleIds: () => [...puzzles.keys()] };
-
 beforeAll(async () => {
   t = await createTestApp();
-  t.deps.puzzles = source;
+  puzzles = stubPuzzles(t.deps);
+  t.deps.puzzles = puzzles;
   admin = await t.signInAs('admin');
   editor = await t.signInAs('editor');
   printer = await t.signInAs('printer');
   setter = await t.signInAs('setter');
   setterId = await t.createUser('setter');
-  puzzles.set('pz-a', stubPuzzleForPrint('pz-a', TILING_69x61, 'assembly', setterId));
-  puzzles.set('pz-d', stubPuzzleForPrint('pz-d', TILING_33x32, 'deduction', setterId));
-  puzzles.set('pz-same-tiling', stubPuzzleForPrint('pz-same-tiling', TILING_33x32, 'assembly', setterId));
-  puzzles.set('pz-stale', stubPuzzleForPrint('pz-stale', TILING_69x61, 'deduction', setterId, false));
+  pzA = puzzles.add({ tiling: TILING_69x61, kind: 'assembly', setterId }).id;
+  pzD = puzzles.add({ tiling: TILING_33x32, kind: 'deduction', setterId }).id;
+  pzSameTiling = puzzles.add({ tiling: TILING_33x32, kind: 'assembly', setterId }).id;
+  pzStale = puzzles.add({ tiling: TILING_69x61, kind: 'deduction', setterId, current: false }).id;
 });
 afterAll(() => t.close());
 
@@ -99,12 +103,12 @@ describe('the edition round', () => {
     expect(res.body.checks).toContainEqual({ code: 'has-slots', ok: true, message: expect.stringMatching(/^No puzzles yet/) });
     const bad = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'nope' }] }).expect(422);
     expect(bad.body.error.details).toEqual([{ path: 'body.slots.0.puzzleId', message: 'no puzzle nope' }]);
-    const dup = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-a' }] }).expect(400);
+    const dup = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: pzA }, { puzzleId: pzA }] }).expect(400);
     expect(JSON.stringify(dup.body.error.details)).toMatch(/body\.slots\.1\.puzzleId/);
   });
 
   it('runs the checks: a stale certificate and a repeated tiling fail', async () => {
-    await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-d' }, { puzzleId: 'pz-same-tiling' }, { puzzleId: 'pz-stale' }] }).expect(200);
+    await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: pzD }, { puzzleId: pzSameTiling }, { puzzleId: pzStale }] }).expect(200);
     const checks = (await editor.get(`/api/editions/${edId}/checks`).expect(200)).body;
     expect(checks.ok).toBe(false);
     const failed = checks.checks.filter((c: { ok: boolean }) => !c.ok).map((c: { code: string; slot?: number }) => `${c.code}:${c.slot ?? ''}`);
@@ -116,11 +120,11 @@ describe('the edition round', () => {
   it('reorders slots, then sends proof 1: stored, hashed, printers mailed', async () => {
     const res = await editor
       .patch(`/api/editions/${edId}`)
-      .send({ slots: [{ puzzleId: 'pz-d', instructions: plainRichText('Find every size.') }, { puzzleId: 'pz-a' }] })
+      .send({ slots: [{ puzzleId: pzD, instructions: plainRichText('Find every size.') }, { puzzleId: pzA }] })
       .expect(200);
-    expect(res.body.slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual(['pz-d', 'pz-a']);
-    const reordered = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-d', instructions: plainRichText('Find every size.') }] }).expect(200);
-    expect(reordered.body.slots.map((s: { position: number; puzzleId: string }) => `${s.position}:${s.puzzleId}`)).toEqual(['1:pz-a', '2:pz-d']);
+    expect(res.body.slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual([pzD, pzA]);
+    const reordered = await editor.patch(`/api/editions/${edId}`).send({ slots: [{ puzzleId: pzA }, { puzzleId: pzD, instructions: plainRichText('Find every size.') }] }).expect(200);
+    expect(reordered.body.slots.map((s: { position: number; puzzleId: string }) => `${s.position}:${s.puzzleId}`)).toEqual([`1:${pzA}`, `2:${pzD}`]);
     const checks = (await editor.get(`/api/editions/${edId}/checks`).expect(200)).body;
     expect(checks.ok, JSON.stringify(checks.checks)).toBe(true);
 
@@ -170,10 +174,10 @@ describe('the edition round', () => {
     const sent = await editor.post(`/api/editions/${edId}/proofs`).expect(201);
     expect(sent.body.proofs.map((p: { version: number; status: string }) => `${p.version}:${p.status}`)).toEqual(['1:returned', '2:pending']);
     // a change to a puzzle after the proof went out must not reach the press file
-    const original = puzzles.get('pz-a')!;
-    puzzles.set('pz-a', { ...original, title: 'Changed after the proof' });
+    const original = puzzles.get(pzA);
+    puzzles.replace({ ...original, title: 'Changed after the proof' });
     const ok = await printer.post(`/api/editions/${edId}/proofs/2/approve`).expect(200);
-    puzzles.set('pz-a', original);
+    puzzles.replace(original);
     expect(ok.body.state).toBe('approved');
     expect(ok.body.pressFile).toMatchObject({ version: 2 });
     const press = await printer.get(`/api/editions/${edId}/press.pdf`).buffer(true).parse(binary).expect(200);
@@ -182,7 +186,7 @@ describe('the edition round', () => {
       const text = pdftotext(writeTemp(press.body as Buffer));
       expect(text).not.toMatch(/PROOF/);
       expect(text).toContain('Welcome back.');
-      expect(text).toContain('assembly pz-a');
+      expect(text).toContain(`assembly ${pzA}`);
       expect(text).not.toContain('Changed after the proof');
     }
     await t.mailbox.waitFor({ to: 'editor@test.squarewright.test', subject: 'Proof 2 approved' });
@@ -195,18 +199,18 @@ describe('the edition round', () => {
     const { ledgerEntry } = await import('../../../server/areas/payouts/schema');
     const rows = t.db.select({ puzzleId: ledgerEntry.puzzleId, amount: ledgerEntry.amountMinor, currency: ledgerEntry.currency, setterId: ledgerEntry.setterId }).from(ledgerEntry).all();
     expect(rows.sort((a, b) => String(a.puzzleId).localeCompare(String(b.puzzleId)))).toEqual([
-      { puzzleId: 'pz-a', amount: 4500, currency: 'GBP', setterId },
-      { puzzleId: 'pz-d', amount: 6000, currency: 'GBP', setterId },
-    ]);
+      { puzzleId: pzA, amount: 4500, currency: 'GBP', setterId },
+      { puzzleId: pzD, amount: 6000, currency: 'GBP', setterId },
+    ].sort((a, b) => a.puzzleId.localeCompare(b.puzzleId)));
     await editor.post(`/api/editions/${edId}/publish`).expect(409);
   });
 
   it('guards the solution-once rule and the reuse window across editions', async () => {
     const next = await editor.post('/api/editions').send({ publicationId: pubId, number: 42, date: '2026-12-12' }).expect(201);
-    await editor.patch(`/api/editions/${next.body.id}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-same-tiling' }] }).expect(200);
+    await editor.patch(`/api/editions/${next.body.id}`).send({ slots: [{ puzzleId: pzA }, { puzzleId: pzSameTiling }] }).expect(200);
     const checks = (await editor.get(`/api/editions/${next.body.id}/checks`).expect(200)).body;
     const failed = checks.checks.filter((c: { ok: boolean }) => !c.ok).map((c: { code: string }) => c.code);
-    expect(failed).toContain('solution-once'); // pz-a is in No. 41
+    expect(failed).toContain('solution-once'); // puzzle pzA is in No. 41
     expect(failed).toContain('reuse'); // the 33 x 32 tiling was in No. 41, 7 days before
   });
 });
@@ -236,7 +240,10 @@ describe('roles, route by route', () => {
     const id = list.find((e: { number: number }) => e.number === 41).id;
     const body = JSON.stringify((await printer.get(`/api/editions/${id}`).expect(200)).body);
     expect(body).not.toContain(setterId);
-    expect(body).not.toContain('pz-a');
+    // no puzzle: neither an id (as the API spells it, a quoted string of digits) nor a title, nor a field naming one
+    for (const id of [pzA, pzD]) expect(body).not.toContain(`"${id}"`);
+    expect(body).not.toContain(`assembly ${pzA}`);
+    expect(body).not.toMatch(/"(puzzle[a-z]*|slots)"\s*:/i);
     // no field about fees or money (checked on keys: a hex hash may contain "fee")
     expect(body).not.toMatch(/"[a-z]*(fee|amount|currency)[a-z]*"\s*:/i);
     expect(body).not.toMatch(/"setter[a-z]*"\s*:/i);
@@ -245,16 +252,16 @@ describe('roles, route by route', () => {
 
 describe('the solution rule', () => {
   it('prints the previous edition’s solutions under "next edition", with where the puzzle ran', async () => {
-    const { buildEditionDocument } = await import('../../../server/areas/editions/editions');
+    const { loadEditionDocument } = await import('../../../server/areas/editions/edition-document');
     const pub = await admin
       .post('/api/publications')
       .send({ ...pubBody, title: 'Squared Away Monthly', templateId: 'a4', cadence: 'monthly', solutionRule: 'next_edition' })
       .expect(201);
     const first = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 1, date: '2027-01-01' }).expect(201);
-    await editor.patch(`/api/editions/${first.body.id}`).send({ slots: [{ puzzleId: 'pz-stale' }] }).expect(200);
+    await editor.patch(`/api/editions/${first.body.id}`).send({ slots: [{ puzzleId: pzStale }] }).expect(200);
     const second = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 2, date: '2027-02-01' }).expect(201);
-    const doc1 = buildEditionDocument(t.deps, first.body.id).doc;
-    const doc2 = buildEditionDocument(t.deps, second.body.id).doc;
+    const doc1 = loadEditionDocument(t.deps, first.body.id).doc;
+    const doc2 = loadEditionDocument(t.deps, second.body.id).doc;
     expect(doc1.puzzles).toHaveLength(1);
     expect(doc1.solutions).toEqual([]);
     expect(doc2.puzzles).toEqual([]);

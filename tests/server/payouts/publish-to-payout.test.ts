@@ -2,8 +2,8 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { earningsSchema, payoutsOverviewSchema } from '../../../shared/contracts/payouts';
-import type { PuzzleForPrint } from '../../../server/areas/editions/ports';
-import { stubPuzzleForPrint, TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
+import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 
 // From print to payment through the real publish step: an edition of the Saturday
@@ -13,11 +13,12 @@ import { createMoneyTestApp, type MoneyTestApp } from './money-test-app';
 // print area's own tests); the tilings are the print area's published fixtures.
 
 let t: MoneyTestApp;
-const puzzles = new Map<string, PuzzleForPrint>();
+let puzzles: StubPuzzles;
 
 beforeAll(async () => {
   t = await createMoneyTestApp();
-  t.deps.puzzles = { getPuzzleForPrint: (_db, id) => puzzles.get(id) ?? null, listPrintablePuzzleIds: () => [...puzzles.keys()] };
+  puzzles = stubPuzzles(t.deps);
+  t.deps.puzzles = puzzles;
 });
 afterAll(async () => {
   await t.closeAll();
@@ -26,8 +27,8 @@ afterAll(async () => {
 describe('publish, then pay', () => {
   it('publishing an edition accrues one fee per puzzle, and the editor pays exactly that', async () => {
     const { agent: setter, id: setterId } = await t.newSetter('Printed Setter', 'printed@test.squarewright.test');
-    puzzles.set('pz-a', stubPuzzleForPrint('pz-a', TILING_69x61, 'assembly', setterId));
-    puzzles.set('pz-d', stubPuzzleForPrint('pz-d', TILING_33x32, 'deduction', setterId));
+    const pzA = puzzles.add({ tiling: TILING_69x61, kind: 'assembly', setterId }).id;
+    const pzD = puzzles.add({ tiling: TILING_33x32, kind: 'deduction', setterId }).id;
     const admin = await t.signInAs('admin');
     const editor = await t.signInAs('editor');
     const printer = await t.signInAs('printer');
@@ -37,16 +38,16 @@ describe('publish, then pay', () => {
       .send({ title: 'The Saturday Quadrant', publisher: 'Larkspur & Quill Press', templateId: 'newspaper-column', cadence: 'weekly', solutionRule: 'same_edition', reuseWindowDays: 90, currency: 'GBP', feeAssemblyMinor: 4500, feeDeductionMinor: 6000 })
       .expect(201);
     const ed = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 7, date: '2026-11-28', introduction: plainRichText('Two for the weekend.') }).expect(201);
-    await editor.patch(`/api/editions/${ed.body.id}`).send({ slots: [{ puzzleId: 'pz-a' }, { puzzleId: 'pz-d' }] }).expect(200);
+    await editor.patch(`/api/editions/${ed.body.id}`).send({ slots: [{ puzzleId: pzA }, { puzzleId: pzD }] }).expect(200);
     await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(201);
     await printer.post(`/api/editions/${ed.body.id}/proofs/1/approve`).expect(200);
     await editor.post(`/api/editions/${ed.body.id}/publish`).expect(200);
 
     const earned = earningsSchema.parse((await setter.get('/api/earnings').expect(200)).body);
     expect(earned.entries.map((e) => [e.puzzleId, e.amountMinor, e.date, e.editionId]).sort()).toEqual([
-      ['pz-a', 4500, '2026-11-28', ed.body.id],
-      ['pz-d', 6000, '2026-11-28', ed.body.id],
-    ]);
+      [pzA, 4500, '2026-11-28', ed.body.id],
+      [pzD, 6000, '2026-11-28', ed.body.id],
+    ].sort());
     expect(earned.owed).toEqual([{ currency: 'GBP', amountMinor: 10_500 }]);
 
     const accountId = await t.onboard(setter, setterId);
