@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { user } from '../../platform/auth/schema';
 import { ledgerEntry, payoutAccount } from './schema';
-import { demoPassword } from '../accounts/index';
+import { demoAccounts, demoPassword } from '../accounts/index';
 import type { MoneyDeps } from './ports';
 import { recordPublicationFees } from './ledger';
 import { createPayoutRun, resumePendingPayouts } from './payouts';
@@ -15,25 +15,33 @@ import { payoutsDepsFrom } from './runtime';
 // are written here, their edition ids prefixed "demo-ledger-" to say so.
 
 export const secondDemoSetter = { email: 'setter2@demo.squarewright.test', name: 'Tobias Wren' };
-const demoSetterEmail = 'setter@demo.squarewright.test';
-const demoEditorEmail = 'editor@demo.squarewright.test';
 
 function isoDay(year: number, month: number, day: number): string {
   return new Date(Date.UTC(year, month, day)).toISOString().slice(0, 10);
 }
 
-async function ensureUser(deps: MoneyDeps, email: string, name: string): Promise<string> {
-  const existing = deps.db.select({ id: user.id }).from(user).where(eq(user.email, email)).get();
-  if (existing) return existing.id;
+function userIdByEmail(deps: MoneyDeps, email: string | undefined): string | undefined {
+  return email === undefined ? undefined : deps.db.select({ id: user.id }).from(user).where(eq(user.email, email)).get()?.id;
+}
+
+/** The demo account of a role (accounts area), which must exist already. */
+function demoUserId(deps: MoneyDeps, role: 'setter' | 'editor'): string {
+  const id = userIdByEmail(deps, demoAccounts.find((a) => a.role === role)?.email);
+  if (!id) throw new Error(`the demo ${role} account must exist first`);
+  return id;
+}
+
+async function ensureSetter(deps: MoneyDeps, email: string, name: string): Promise<string> {
+  const existing = userIdByEmail(deps, email);
+  if (existing) return existing;
   const created = await deps.auth.api.createUser({ body: { email, password: demoPassword, name, role: 'setter', data: { emailVerified: true } } });
   return created.user.id;
 }
 
 export async function seedDemoPayouts(deps: MoneyDeps): Promise<void> {
-  const selma = deps.db.select({ id: user.id }).from(user).where(eq(user.email, demoSetterEmail)).get();
-  const editor = deps.db.select({ id: user.id }).from(user).where(eq(user.email, demoEditorEmail)).get();
-  if (!selma || !editor) throw new Error('the demo setter and editor accounts must exist first');
-  const tobias = await ensureUser(deps, secondDemoSetter.email, secondDemoSetter.name);
+  const selma = demoUserId(deps, 'setter');
+  const editor = demoUserId(deps, 'editor');
+  const tobias = await ensureSetter(deps, secondDemoSetter.email, secondDemoSetter.name);
 
   const now = deps.clock.now();
   const y = now.getUTCFullYear();
@@ -52,13 +60,13 @@ export async function seedDemoPayouts(deps: MoneyDeps): Promise<void> {
   // Tobias: three Saturday Quadrant columns last month, all paid out.
   lastMonth.forEach((date, i) => fee(`demo-ledger-sq-${date}`, date, tobias, [{ kind: i % 2 ? 'deduction' : 'assembly', amountMinor: i % 2 ? 4500 : 3500 }]));
   // Selma: fees still owed (unless the print demo already published editions with her puzzles).
-  const selmaHasFees = deps.db.select({ id: ledgerEntry.id }).from(ledgerEntry).where(eq(ledgerEntry.setterId, selma.id)).limit(1).get();
+  const selmaHasFees = deps.db.select({ id: ledgerEntry.id }).from(ledgerEntry).where(eq(ledgerEntry.setterId, selma)).limit(1).get();
   if (!selmaHasFees) {
-    fee(`demo-ledger-sam-${isoDay(y, m - 1, 1)}`, isoDay(y, m - 1, 1), selma.id, [
+    fee(`demo-ledger-sam-${isoDay(y, m - 1, 1)}`, isoDay(y, m - 1, 1), selma, [
       { kind: 'deduction', amountMinor: 6000 },
       { kind: 'assembly', amountMinor: 5000 },
     ], 'demo-ledger-squared-away-monthly');
-    fee(`demo-ledger-sq-${isoDay(y, m, 1)}`, isoDay(y, m, 1), selma.id, [{ kind: 'assembly', amountMinor: 3500 }]);
+    fee(`demo-ledger-sq-${isoDay(y, m, 1)}`, isoDay(y, m, 1), selma, [{ kind: 'assembly', amountMinor: 3500 }]);
   }
 
   const provider = deps.payments;
@@ -78,7 +86,7 @@ export async function seedDemoPayouts(deps: MoneyDeps): Promise<void> {
     .onConflictDoNothing()
     .run();
   const payouts = payoutsDepsFrom(deps, provider);
-  await createPayoutRun(payouts, editor.id, { requestKey: '00000000-0000-4000-8000-00000000d3a0', setterIds: [tobias] });
+  await createPayoutRun(payouts, editor, { requestKey: '00000000-0000-4000-8000-00000000d3a0', setterIds: [tobias] });
   // The fake settles in a moment; read the result back so the demo starts with it paid.
   await new Promise((r) => setTimeout(r, 1_700));
   await resumePendingPayouts(payouts);

@@ -6,6 +6,7 @@ import { route, type ApiRouter } from '../../platform/http/route';
 import { buildStatement, statementCsv } from './ledger';
 import { earningsOf, refreshPayoutDetails, sendStatement, startPayoutDetails } from './payouts';
 import { moneyErrors, payoutsDepsOrFail } from './payments-common';
+import { statementDepsFrom } from './runtime';
 
 // Setters: their own entries, monthly statements (screen, CSV, mail), payouts and payout
 // details. A setter only ever sees their own (the id comes from the session).
@@ -40,9 +41,7 @@ export function registerEarningsRoutes(router: ApiRouter, deps: MoneyDeps) {
     router,
     { method: 'POST', path: '/api/earnings/statements/:month/send', summary: 'Mail me my statement for one month', tags: ['earnings'], params: monthParams, response: statementSendResponseSchema },
     ({ params, user }) => {
-      const { to } = moneyErrors(() =>
-        sendStatement({ db: deps.db, clock: deps.clock, publicUrl: deps.env.PUBLIC_URL, kickMail: () => deps.mail.kick() }, user.id, params.month),
-      );
+      const { to } = moneyErrors(() => sendStatement(statementDepsFrom(deps), user.id, params.month));
       return { month: params.month, to, queued: true };
     },
   );

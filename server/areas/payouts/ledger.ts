@@ -245,24 +245,24 @@ export function statementCsv(statement: Statement): string {
   return `${lines.join('\r\n')}\r\n`;
 }
 
+/** Sum of amountMinor per setter and currency in the ledger or the payouts (one setter's, or everyone's). */
+function sumsPerSetterAndCurrency(db: DbOrTx, table: typeof ledgerEntry | typeof payout, setterId: string | undefined) {
+  return db
+    .select({ setterId: table.setterId, currency: table.currency, total: sql<number>`sum(${table.amountMinor})` })
+    .from(table)
+    .where(setterId ? eq(table.setterId, setterId) : undefined)
+    .groupBy(table.setterId, table.currency)
+    .all();
+}
+
 /**
  * What each setter is owed per currency: all ledger entries minus every payout made
  * (pending, paid or failed: a failed payout keeps its money until it is retried, so a
  * new run can never pay the same fees again). Rows with nothing owed are left out.
  */
 export function owedBalances(db: DbOrTx, setterId?: string): { setterId: string; currency: string; owedMinor: number }[] {
-  const earned = db
-    .select({ setterId: ledgerEntry.setterId, currency: ledgerEntry.currency, total: sql<number>`sum(${ledgerEntry.amountMinor})` })
-    .from(ledgerEntry)
-    .where(setterId ? eq(ledgerEntry.setterId, setterId) : undefined)
-    .groupBy(ledgerEntry.setterId, ledgerEntry.currency)
-    .all();
-  const paidOut = db
-    .select({ setterId: payout.setterId, currency: payout.currency, total: sql<number>`sum(${payout.amountMinor})` })
-    .from(payout)
-    .where(setterId ? eq(payout.setterId, setterId) : undefined)
-    .groupBy(payout.setterId, payout.currency)
-    .all();
+  const earned = sumsPerSetterAndCurrency(db, ledgerEntry, setterId);
+  const paidOut = sumsPerSetterAndCurrency(db, payout, setterId);
   const key = (s: string, c: string) => `${s}\u0000${c}`;
   const out = new Map<string, number>();
   for (const row of paidOut) out.set(key(row.setterId, row.currency), Number(row.total));

@@ -123,19 +123,24 @@ function loadRun(db: DbOrTx, runId: string): PayoutRun {
   return { id: run.id, createdAt: run.createdAt.toISOString(), createdByName: run.createdByName ?? '(removed user)', payouts: listPayouts(db, eq(payout.runId, runId)) };
 }
 
+/** These users with their payout details at the provider (null columns when they have none), by id. */
+function settersWithDetails(db: DbOrTx, setterIds: readonly string[]) {
+  const ids = [...new Set(setterIds)];
+  const rows = ids.length
+    ? db
+        .select({ id: user.id, name: user.name, email: user.email, accountId: payoutAccount.providerAccountId, status: payoutAccount.status, hint: payoutAccount.displayHint })
+        .from(user)
+        .leftJoin(payoutAccount, eq(payoutAccount.setterId, user.id))
+        .where(inArray(user.id, ids))
+        .all()
+    : [];
+  return new Map(rows.map((s) => [s.id, s]));
+}
+
 /** GET /api/payouts: what is owed per setter and currency, and every run with its payouts. */
 export function payoutsOverview(db: DbOrTx, limitRuns = 50): PayoutsOverview {
   const balances = owedBalances(db);
-  const setterIds = [...new Set(balances.map((b) => b.setterId))];
-  const setters = setterIds.length
-    ? db
-        .select({ id: user.id, name: user.name, email: user.email, status: payoutAccount.status, hint: payoutAccount.displayHint })
-        .from(user)
-        .leftJoin(payoutAccount, eq(payoutAccount.setterId, user.id))
-        .where(inArray(user.id, setterIds))
-        .all()
-    : [];
-  const byId = new Map(setters.map((s) => [s.id, s]));
+  const byId = settersWithDetails(db, balances.map((b) => b.setterId));
   const owed = balances
     .map((b) => {
       const s = byId.get(b.setterId);
@@ -166,20 +171,9 @@ export async function createPayoutRun(deps: PayoutsDeps, createdBy: string, inpu
     if (existing) return { runId: existing.id, replayed: true, skipped: [] as CreatePayoutRunResponse['skipped'], payoutIds: [] as string[] };
     const balances = owedBalances(tx).filter((b) => !input.setterIds || input.setterIds.includes(b.setterId));
     const skipped: CreatePayoutRunResponse['skipped'] = [];
-    const setterRows = balances.length
-      ? tx
-          .select({ id: user.id, name: user.name, role: user.role, accountId: payoutAccount.providerAccountId, status: payoutAccount.status })
-          .from(user)
-          .leftJoin(payoutAccount, eq(payoutAccount.setterId, user.id))
-          .where(inArray(user.id, [...new Set(balances.map((b) => b.setterId))]))
-          .all()
-      : [];
-    const setters = new Map(setterRows.map((s) => [s.id, s]));
+    const setters = settersWithDetails(tx, [...balances.map((b) => b.setterId), ...(input.setterIds ?? [])]);
     for (const id of input.setterIds ?? []) {
-      if (!balances.some((b) => b.setterId === id)) {
-        const name = tx.select({ name: user.name }).from(user).where(eq(user.id, id)).get()?.name ?? id;
-        skipped.push({ setterId: id, setterName: name, reason: 'nothing is owed' });
-      }
+      if (!balances.some((b) => b.setterId === id)) skipped.push({ setterId: id, setterName: setters.get(id)?.name ?? id, reason: 'nothing is owed' });
     }
     const toPay: { setterId: string; accountId: string; currency: string; amountMinor: number }[] = [];
     for (const b of balances) {
@@ -214,27 +208,30 @@ export async function createPayoutRun(deps: PayoutsDeps, createdBy: string, inpu
   return { run: loadRun(db, created.runId), replayed: created.replayed, skipped: created.skipped };
 }
 
+/** Messages kept with a payout are cut to this length. */
+const maxMessage = 500;
+
+/** Ends a pending payout, paid or failed; one that is no longer pending is left as it is. */
+function endPending(tx: DbOrTx, payoutId: string, now: Date, outcome: { state: 'paid' } | { state: 'failed'; message: string }): void {
+  const change = outcome.state === 'paid' ? { state: 'paid' as const, paidAt: now } : { state: 'failed' as const, failureMessage: outcome.message.slice(0, maxMessage) };
+  tx.update(payout).set({ ...change, lastError: null, updatedAt: now }).where(and(eq(payout.id, payoutId), eq(payout.state, 'pending'))).run();
+}
+
 function markFailed(deps: PayoutsDeps, payoutId: string, message: string): void {
-  const now = deps.clock.now();
-  deps.db.update(payout).set({ state: 'failed', failureMessage: message.slice(0, 500), lastError: null, updatedAt: now }).where(and(eq(payout.id, payoutId), eq(payout.state, 'pending'))).run();
+  endPending(deps.db, payoutId, deps.clock.now(), { state: 'failed', message });
   deps.log.warn(`payout ${payoutId} failed: ${message}`);
 }
 
 function noteTransient(deps: PayoutsDeps, payoutId: string, message: string): void {
-  deps.db.update(payout).set({ lastError: message.slice(0, 500), updatedAt: deps.clock.now() }).where(eq(payout.id, payoutId)).run();
+  deps.db.update(payout).set({ lastError: message.slice(0, maxMessage), updatedAt: deps.clock.now() }).where(eq(payout.id, payoutId)).run();
   deps.log.warn(`payout ${payoutId} stays pending (provider unavailable): ${message}`);
 }
 
 /** Applies the provider's view of a payout (from an answer or a webhook) to ours. */
 function applyProviderPayout(deps: PayoutsDeps, tx: DbOrTx, payoutId: string, remote: ProviderPayout): void {
-  const now = deps.clock.now();
-  if (remote.status === 'paid') {
-    tx.update(payout).set({ state: 'paid', paidAt: now, updatedAt: now, lastError: null }).where(and(eq(payout.id, payoutId), eq(payout.state, 'pending'))).run();
-  } else if (remote.status === 'failed' || remote.status === 'canceled') {
-    tx.update(payout)
-      .set({ state: 'failed', failureMessage: (remote.failure_message ?? `the provider reports the payout ${remote.status}`).slice(0, 500), updatedAt: now, lastError: null })
-      .where(and(eq(payout.id, payoutId), eq(payout.state, 'pending')))
-      .run();
+  if (remote.status === 'paid') endPending(tx, payoutId, deps.clock.now(), { state: 'paid' });
+  else if (remote.status === 'failed' || remote.status === 'canceled') {
+    endPending(tx, payoutId, deps.clock.now(), { state: 'failed', message: remote.failure_message ?? `the provider reports the payout ${remote.status}` });
   }
 }
 
@@ -280,11 +277,11 @@ export async function submitPayout(deps: PayoutsDeps, payoutId: string): Promise
 export async function retryPayout(deps: PayoutsDeps, payoutId: string): Promise<Payout> {
   const current = getPayout(deps.db, payoutId);
   if (current.state !== 'failed') throw new PayoutError('conflict', `payout ${payoutId} is ${current.state}; only a failed payout can be retried`);
-  const account = deps.db.select({ id: payoutAccount.providerAccountId, status: payoutAccount.status }).from(payoutAccount).where(eq(payoutAccount.setterId, current.setterId)).get();
+  const account = payoutAccountOf(deps.db, current.setterId);
   if (!account || account.status !== 'ready') throw new PayoutError('conflict', `${current.setterName} has no finished payout details; the payout cannot be retried yet`);
   const changed = deps.db
     .update(payout)
-    .set({ state: 'pending', attempt: current.attempt + 1, providerPayoutId: null, providerAccountId: account.id, failureMessage: null, lastError: null, updatedAt: deps.clock.now() })
+    .set({ state: 'pending', attempt: current.attempt + 1, providerPayoutId: null, providerAccountId: account.accountId, failureMessage: null, lastError: null, updatedAt: deps.clock.now() })
     .where(and(eq(payout.id, payoutId), eq(payout.state, 'failed')))
     .run();
   if (changed.changes === 1) await submitPayout(deps, payoutId);
@@ -338,8 +335,17 @@ export function applyProviderEvent(deps: PayoutsDeps, event: ProviderEvent): 'ap
   });
 }
 
+/** A setter's account at the provider as we keep it, or undefined. */
+function payoutAccountOf(db: DbOrTx, setterId: string) {
+  return db
+    .select({ accountId: payoutAccount.providerAccountId, status: payoutAccount.status, hint: payoutAccount.displayHint, updatedAt: payoutAccount.updatedAt })
+    .from(payoutAccount)
+    .where(eq(payoutAccount.setterId, setterId))
+    .get();
+}
+
 function detailsOf(db: DbOrTx, setterId: string): PayoutDetails | null {
-  const row = db.select({ status: payoutAccount.status, hint: payoutAccount.displayHint, updatedAt: payoutAccount.updatedAt }).from(payoutAccount).where(eq(payoutAccount.setterId, setterId)).get();
+  const row = payoutAccountOf(db, setterId);
   return row ? { status: row.status, hint: row.hint, updatedAt: row.updatedAt.toISOString() } : null;
 }
 
@@ -350,13 +356,13 @@ function detailsOf(db: DbOrTx, setterId: string): PayoutDetails | null {
  */
 export async function startPayoutDetails(deps: PayoutsDeps, setter: { id: string; email: string }, input: PayoutDetailsInput): Promise<{ details: PayoutDetails; onboardingUrl: string | null }> {
   const { db, provider } = deps;
-  let row = db.select({ accountId: payoutAccount.providerAccountId }).from(payoutAccount).where(eq(payoutAccount.setterId, setter.id)).get();
+  let row = payoutAccountOf(db, setter.id);
   try {
     if (!row) {
       const account = await provider.createAccount({ email: setter.email, country: input.country, setterId: setter.id });
       const now = deps.clock.now();
       db.insert(payoutAccount).values({ setterId: setter.id, providerAccountId: account.id, status: 'onboarding', displayHint: 'Details not finished', createdAt: now, updatedAt: now }).onConflictDoNothing().run();
-      row = db.select({ accountId: payoutAccount.providerAccountId }).from(payoutAccount).where(eq(payoutAccount.setterId, setter.id)).get();
+      row = payoutAccountOf(db, setter.id);
     }
     if (!row) throw new PayoutError('unavailable', 'the payout account could not be stored');
     const back = `${deps.publicUrl}/earnings`;
@@ -372,7 +378,7 @@ export async function startPayoutDetails(deps: PayoutsDeps, setter: { id: string
 
 /** Reads an unfinished account back from the provider (after the setter returns from its page). */
 export async function refreshPayoutDetails(deps: PayoutsDeps, setterId: string): Promise<PayoutDetails | null> {
-  const row = deps.db.select({ accountId: payoutAccount.providerAccountId, status: payoutAccount.status }).from(payoutAccount).where(eq(payoutAccount.setterId, setterId)).get();
+  const row = payoutAccountOf(deps.db, setterId);
   if (!row) return null;
   if (row.status === 'onboarding') {
     try {
@@ -410,8 +416,11 @@ function statementMailData(db: DbOrTx, setterId: string, month: string, publicUr
   return { statement, data: { name: statement.setterName, month, lines, totals, paid, link: `${publicUrl}/earnings` } };
 }
 
+/** What statements need: no provider. */
+export type StatementDeps = Pick<PayoutsDeps, 'db' | 'clock' | 'publicUrl' | 'kickMail'>;
+
 /** Queues a setter's monthly statement mail (POST /api/earnings/statements/:month/send). */
-export function sendStatement(deps: Pick<PayoutsDeps, 'db' | 'clock' | 'publicUrl' | 'kickMail'>, setterId: string, month: string): { to: string } {
+export function sendStatement(deps: StatementDeps, setterId: string, month: string): { to: string } {
   const to = deps.db.transaction((tx) => {
     const who = tx.select({ email: user.email }).from(user).where(eq(user.id, setterId)).get();
     if (!who) throw new PayoutError('not_found', `setter ${setterId} does not exist`);
@@ -425,7 +434,7 @@ export function sendStatement(deps: Pick<PayoutsDeps, 'db' | 'clock' | 'publicUr
 }
 
 /** Month close: mails the statement of `month` to every setter with entries in it who has not had it yet. */
-export function closeMonth(deps: Pick<PayoutsDeps, 'db' | 'clock' | 'publicUrl' | 'kickMail'>, month: string): { mailed: number } {
+export function closeMonth(deps: StatementDeps, month: string): { mailed: number } {
   const setters = deps.db.select({ id: user.id }).from(user).where(eq(user.role, 'setter')).all();
   let mailed = 0;
   for (const s of setters) {

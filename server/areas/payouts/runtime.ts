@@ -4,7 +4,7 @@ import { appRoot } from '../../platform/app-root';
 import type { MoneyDeps } from './ports';
 import type { Env } from '../../platform/env';
 import { FAKE_SECRET_KEY, startPaymentsFake } from './fake-provider/index';
-import type { PayoutsDeps } from './payouts';
+import type { PayoutsDeps, StatementDeps } from './payouts';
 import type { LocalFake } from '../../platform/local-fake';
 import { createPaymentsProvider, type PaymentsProvider } from './provider';
 
@@ -54,21 +54,12 @@ export const localPaymentsFake: LocalFake = {
   },
 };
 
-export class PaymentsNotConfigured extends Error {
-  constructor() {
-    super('Payments are not configured: set PAYMENTS_SECRET_KEY and PAYMENTS_WEBHOOK_SECRET, or leave both unset to use the local fake provider.');
-    this.name = 'PaymentsNotConfigured';
-  }
+/** What the statements need from the app's dependencies. */
+export function statementDepsFrom(deps: MoneyDeps): StatementDeps {
+  return { db: deps.db, clock: deps.clock, publicUrl: deps.env.PUBLIC_URL, kickMail: () => deps.mail.kick() };
 }
 
 /** The payout service's dependencies from the app's. */
 export function payoutsDepsFrom(deps: MoneyDeps, provider: PaymentsProvider): PayoutsDeps {
-  return {
-    db: deps.db,
-    provider,
-    clock: deps.clock,
-    log: deps.log,
-    publicUrl: deps.env.PUBLIC_URL,
-    kickMail: () => deps.mail.kick(),
-  };
+  return { ...statementDepsFrom(deps), provider, log: deps.log };
 }
