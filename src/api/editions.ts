@@ -1,4 +1,4 @@
-import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import { editionListSchema, editionSchema, printerEditionSchema, type EditionListQuery } from '../../shared/contracts/editions';
 import { apiRequest } from '../lib/api-client';
 import { puzzleKeys } from './puzzles';
@@ -20,12 +20,10 @@ export const editionKeys = {
 };
 
 /**
- * After an editor changes an edition: every edition query, and the puzzle lists, whose
- * "used in" (shown by the slot picker) follows the slots.
+ * What an editor's change to an edition makes stale: every edition query, and the puzzle
+ * lists, whose "used in" (shown by the slot picker) follows the slots.
  */
-export function invalidateEditionQueries(queryClient: QueryClient) {
-  return Promise.all([queryClient.invalidateQueries({ queryKey: editionKeys.all }), queryClient.invalidateQueries({ queryKey: puzzleKeys.lists() })]);
-}
+export const editionChangeKeys = () => [editionKeys.all, puzzleKeys.lists()];
 
 /** GET /api/editions: editions with their state and latest proof (a printer sees only those sent to proof). */
 export async function listEditions(filters: EditionListQuery, signal?: AbortSignal) {

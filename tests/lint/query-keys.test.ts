@@ -65,6 +65,25 @@ function unfactoredCacheCalls(text: string): number[] {
   return bad.sort((a, b) => a - b);
 }
 
+/** The one module that passes keys on as values: useInvalidatingMutation(fn, [fooKeys.all]) invalidates what its callers name. */
+const keyCarrier = 'src/lib/use-invalidating-mutation.ts';
+
+/** useInvalidatingMutation calls whose arguments hold a hand-typed key (an array starting with a literal). */
+function handTypedInvalidations(text: string): number[] {
+  const src = code(text);
+  const bad: number[] = [];
+  for (const m of src.matchAll(/\buseInvalidatingMutation(?:<[^>]*>)?\(/g)) {
+    let depth = 1;
+    let i = m.index + m[0].length;
+    for (; i < src.length && depth > 0; i++) {
+      if (src[i] === '(') depth++;
+      else if (src[i] === ')') depth--;
+    }
+    if (/\[\s*['"`]/.test(src.slice(m.index, i))) bad.push(lineOf(src, m.index));
+  }
+  return bad;
+}
+
 /** Roots of the key hierarchies a file defines: `export const fooKeys = { all: ['foo'] as const, ... }`. */
 function keyRoots(text: string): { name: string; root: string | null }[] {
   const src = code(text);
@@ -98,8 +117,14 @@ const rel = (f: string) => relative(root, f).split(sep).join('/');
 
 describe('query keys come only from factories', () => {
   it('every queryKey in src/ is taken from a <name>Keys hierarchy (or a factory’s .queryKey)', () => {
-    const bad = srcFiles.flatMap((f) => literalQueryKeys(readFileSync(f, 'utf8')).map((line) => `${rel(f)}:${line}`));
+    const bad = srcFiles.filter((f) => rel(f) !== keyCarrier).flatMap((f) => literalQueryKeys(readFileSync(f, 'utf8')).map((line) => `${rel(f)}:${line}`));
     expect(bad).toEqual([]);
+  });
+
+  it('mutations invalidate keys from the factories (useInvalidatingMutation gets no hand-typed key)', () => {
+    const bad = srcFiles.flatMap((f) => handTypedInvalidations(readFileSync(f, 'utf8')).map((line) => `${rel(f)}:${line}`));
+    expect(bad).toEqual([]);
+    expect(srcFiles.filter((f) => /\buseInvalidatingMutation\(/.test(readFileSync(f, 'utf8'))).length).toBeGreaterThan(10);
   });
 
   it('cache reads and writes go through the factories (no hand-written key or inline query options)', () => {
@@ -160,6 +185,15 @@ describe('the query-key checks see what they look for', () => {
     ].join('\n');
     expect(literalQueryKeys(text)).toEqual([1, 2, 3]);
     expect(unfactoredCacheCalls(text)).toEqual([1, 6]);
+  });
+
+  it('a hand-typed key given to useInvalidatingMutation is found, a factory key is not', () => {
+    const text = [
+      "useInvalidatingMutation(createSubmission, [['submissions']], { after: 'success' });",
+      "useInvalidatingMutation((v: Input) => save(v, 'draft'), [publicationKeys.all]);",
+      "useInvalidatingMutation(review, [submissionKeys.all, [\"stock\"]]);",
+    ].join('\n');
+    expect(handTypedInvalidations(text)).toEqual([1, 3]);
   });
 
   it('a hierarchy without a root, and the roots of two hierarchies, are read', () => {

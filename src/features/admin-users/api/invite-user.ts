@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { createInvitationResponseSchema, type CreateInvitationBody } from '../../../../shared/contracts/auth';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { usersKeys } from './list-users';
 
 /** POST /api/invitations (admin): mails a one-time sign-up link for the given role. */
@@ -10,9 +10,5 @@ export async function inviteUser(body: CreateInvitationBody) {
 }
 
 export function useInviteUser() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: inviteUser,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: usersKeys.all }),
-  });
+  return useInvalidatingMutation(inviteUser, [usersKeys.all], { after: 'success' });
 }

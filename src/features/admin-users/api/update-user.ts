@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { updateUserResponseSchema, type AdminUser, type UpdateUserBody } from '../../../../shared/contracts/users';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { usersKeys } from './list-users';
 
 /** PATCH /api/admin/users/:id (admin): change role and/or deactivate or reactivate. */
@@ -10,9 +10,5 @@ export async function updateUser(id: string, body: UpdateUserBody): Promise<Admi
 }
 
 export function useUpdateUser() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: ({ id, ...body }: UpdateUserBody & { id: string }) => updateUser(id, body),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: usersKeys.all }),
-  });
+  return useInvalidatingMutation(({ id, ...body }: UpdateUserBody & { id: string }) => updateUser(id, body), [usersKeys.all]);
 }

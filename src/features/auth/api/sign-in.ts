@@ -1,8 +1,8 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SignInBody } from '../../../../shared/contracts/auth';
-import { meQueryOptions } from '../../../api/session';
+import { sessionKeys } from '../../../api/session';
 import { ApiError } from '../../../lib/api-client';
 import { authClient } from '../../../lib/auth-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/auth/sign-in/email through better-auth; throws ApiError with the server's message. */
 export async function signIn(body: SignInBody): Promise<void> {
@@ -14,9 +14,5 @@ export async function signIn(body: SignInBody): Promise<void> {
 
 /** Signs in, then reloads the session user. */
 export function useSignIn() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: signIn,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: meQueryOptions().queryKey }),
-  });
+  return useInvalidatingMutation(signIn, [sessionKeys.me()], { after: 'success' });
 }

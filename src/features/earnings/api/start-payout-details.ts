@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { payoutDetailsResponseSchema, type PayoutDetailsInput } from '../../../../shared/contracts/payouts';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { earningsKeys } from './get-earnings';
 
 export type PayoutDetailsStarted = z.infer<typeof payoutDetailsResponseSchema>;
@@ -12,9 +12,5 @@ export function startPayoutDetails(input: PayoutDetailsInput): Promise<PayoutDet
 }
 
 export function useStartPayoutDetails() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: startPayoutDetails,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: earningsKeys.all }),
-  });
+  return useInvalidatingMutation(startPayoutDetails, [earningsKeys.all]);
 }

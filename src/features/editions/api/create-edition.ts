@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema, type EditionCreate } from '../../../../shared/contracts/editions';
-import { invalidateEditionQueries } from '../../../api/editions';
+import { editionChangeKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/editions (editor): a new draft. */
 export function createEdition(input: EditionCreate) {
@@ -9,6 +9,5 @@ export function createEdition(input: EditionCreate) {
 }
 
 export function useCreateEdition() {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: createEdition, onSettled: () => invalidateEditionQueries(qc) });
+  return useInvalidatingMutation(createEdition, editionChangeKeys());
 }

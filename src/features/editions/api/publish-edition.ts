@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema } from '../../../../shared/contracts/editions';
-import { invalidateEditionQueries } from '../../../api/editions';
+import { editionChangeKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/editions/:id/publish (editor): approved -> published; fees go into the ledger. */
 export function publishEdition(id: string) {
@@ -9,6 +9,5 @@ export function publishEdition(id: string) {
 }
 
 export function usePublishEdition(id: string) {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: () => publishEdition(id), onSettled: () => invalidateEditionQueries(qc) });
+  return useInvalidatingMutation(() => publishEdition(id), editionChangeKeys());
 }

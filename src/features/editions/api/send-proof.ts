@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { editionSchema } from '../../../../shared/contracts/editions';
-import { invalidateEditionQueries } from '../../../api/editions';
+import { editionChangeKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/editions/:id/proofs (editor): render and store the next proof, mail the printers. */
 export function sendProof(id: string) {
@@ -9,6 +9,5 @@ export function sendProof(id: string) {
 }
 
 export function useSendProof(id: string) {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: () => sendProof(id), onSettled: () => invalidateEditionQueries(qc) });
+  return useInvalidatingMutation(() => sendProof(id), editionChangeKeys());
 }

@@ -1,7 +1,8 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useQueryClient } from '@tanstack/react-query';
 import { editionSchema, type EditionPatch } from '../../../../shared/contracts/editions';
-import { editionKeys, invalidateEditionQueries } from '../../../api/editions';
+import { editionChangeKeys, editionKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** PATCH /api/editions/:id (editor): number, date, introduction, slots of a draft. */
 export function updateEdition(id: string, patch: EditionPatch) {
@@ -10,9 +11,7 @@ export function updateEdition(id: string, patch: EditionPatch) {
 
 export function useUpdateEdition(id: string) {
   const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (patch: EditionPatch) => updateEdition(id, patch),
+  return useInvalidatingMutation((patch: EditionPatch) => updateEdition(id, patch), editionChangeKeys(), {
     onSuccess: (ed) => qc.setQueryData(editionKeys.detail(id), ed),
-    onSettled: () => invalidateEditionQueries(qc),
   });
 }

@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { runSchema } from '../../../../shared/contracts/foundry';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { foundryKeys } from './list-runs';
 
 /** POST /api/foundry/runs/:id/cancel (editor). */
@@ -9,9 +9,5 @@ export async function cancelRun(id: string) {
 }
 
 export function useCancelRun() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: cancelRun,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: foundryKeys.all }),
-  });
+  return useInvalidatingMutation(cancelRun, [foundryKeys.all]);
 }

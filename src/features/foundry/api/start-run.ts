@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { runSchema, type RunRequest } from '../../../../shared/contracts/foundry';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { foundryKeys } from './list-runs';
 
 /** POST /api/foundry/runs (editor): start a run in the worker pool. */
@@ -9,9 +9,5 @@ export async function startRun(body: RunRequest) {
 }
 
 export function useStartRun() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: startRun,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: foundryKeys.all }),
-  });
+  return useInvalidatingMutation(startRun, [foundryKeys.all], { after: 'success' });
 }

@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ledgerCorrectionResponseSchema, type LedgerCorrectionInput, type LedgerEntry } from '../../../../shared/contracts/ledger';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { payoutsKeys } from './get-payouts';
 
 /** POST /api/ledger/corrections (editor): a new entry with a reason; entries are never edited. */
@@ -10,9 +10,5 @@ export async function addCorrection(input: LedgerCorrectionInput): Promise<Ledge
 }
 
 export function useAddCorrection() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: addCorrection,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
-  });
+  return useInvalidatingMutation(addCorrection, [payoutsKeys.all]);
 }

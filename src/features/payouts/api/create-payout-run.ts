@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { createPayoutRunResponseSchema, type CreatePayoutRunInput, type CreatePayoutRunResponse } from '../../../../shared/contracts/payouts';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { payoutsKeys } from './get-payouts';
 
 /** POST /api/payouts/runs (editor). The same requestKey never pays twice. */
@@ -9,9 +9,5 @@ export function createPayoutRun(input: CreatePayoutRunInput): Promise<CreatePayo
 }
 
 export function useCreatePayoutRun() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: createPayoutRun,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
-  });
+  return useInvalidatingMutation(createPayoutRun, [payoutsKeys.all]);
 }

@@ -1,6 +1,6 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { payoutResponseSchema, type Payout } from '../../../../shared/contracts/payouts';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 import { payoutsKeys } from './get-payouts';
 
 /** POST /api/payouts/:id/retry (editor): a failed payout, as a new attempt. */
@@ -10,9 +10,5 @@ export async function retryPayout(id: string): Promise<Payout> {
 }
 
 export function useRetryPayout() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: retryPayout,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: payoutsKeys.all }),
-  });
+  return useInvalidatingMutation(retryPayout, [payoutsKeys.all]);
 }

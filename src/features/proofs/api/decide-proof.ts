@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { printerEditionSchema } from '../../../../shared/contracts/editions';
 import { editionKeys } from '../../../api/editions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/editions/:id/proofs/:version/approve (printer). */
 export function approveProof(id: string, version: number) {
@@ -14,11 +14,9 @@ export function returnProof(id: string, version: number, notes: string) {
 }
 
 export function useApproveProof(id: string) {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: (version: number) => approveProof(id, version), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+  return useInvalidatingMutation((version: number) => approveProof(id, version), [editionKeys.all]);
 }
 
 export function useReturnProof(id: string) {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: (v: { version: number; notes: string }) => returnProof(id, v.version, v.notes), onSettled: () => qc.invalidateQueries({ queryKey: editionKeys.all }) });
+  return useInvalidatingMutation((v: { version: number; notes: string }) => returnProof(id, v.version, v.notes), [editionKeys.all]);
 }

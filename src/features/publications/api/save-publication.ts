@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { publicationSchema, type PublicationInput } from '../../../../shared/contracts/publications';
 import { publicationKeys } from '../../../api/publications';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/publications (admin) or PATCH /api/publications/:id (admin). */
 export function savePublication(input: PublicationInput, id?: string) {
@@ -11,6 +11,5 @@ export function savePublication(input: PublicationInput, id?: string) {
 }
 
 export function useSavePublication() {
-  const qc = useQueryClient();
-  return useMutation({ mutationFn: (v: { input: PublicationInput; id?: string }) => savePublication(v.input, v.id), onSettled: () => qc.invalidateQueries({ queryKey: publicationKeys.all }) });
+  return useInvalidatingMutation((v: { input: PublicationInput; id?: string }) => savePublication(v.input, v.id), [publicationKeys.all]);
 }

@@ -1,9 +1,9 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { okSchema } from '../../../../shared/contracts/common';
 import { puzzleStartedSchema, type PuzzleCreate, type PuzzlePatch } from '../../../../shared/contracts/puzzles';
 import { puzzleKeys } from '../../../api/puzzles';
 import { stockKeys } from '../../../api/stock';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/puzzles (editor): make a puzzle; the proof starts in the worker pool (202). */
 export async function createPuzzle(body: PuzzleCreate) {
@@ -26,13 +26,8 @@ export async function cancelPuzzle(id: number) {
 }
 
 /** A puzzle change refreshes the puzzles and the stock (a tiling's use count follows its puzzles). */
-function useInvalidating<A, R>(fn: (a: A) => Promise<R>) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: fn,
-    onSettled: () => Promise.all([queryClient.invalidateQueries({ queryKey: puzzleKeys.all }), queryClient.invalidateQueries({ queryKey: stockKeys.all })]),
-  });
-}
+const puzzleChangeKeys = [puzzleKeys.all, stockKeys.all];
+const useInvalidating = <A, R>(fn: (a: A) => Promise<R>) => useInvalidatingMutation(fn, puzzleChangeKeys);
 
 export const useCreatePuzzle = () => useInvalidating(createPuzzle);
 export const useUpdatePuzzle = () => useInvalidating(updatePuzzle);

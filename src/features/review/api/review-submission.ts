@@ -1,8 +1,8 @@
-import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { bulkResultSchema, submissionSchema, type Submission } from '../../../../shared/contracts/submissions';
 import { stockKeys } from '../../../api/stock';
 import { submissionKeys } from '../../../api/submissions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/submissions/:id/accept | /reject (editor). */
 export function reviewSubmission(input: { id: number; action: 'accept' | 'reject'; note?: string }): Promise<Submission> {
@@ -19,22 +19,12 @@ export function bulkReview(input: { ids: number[]; action: 'accept' | 'reject'; 
 }
 
 /** A decision changes the submission lists and details, and (on accept) the stock. */
-function invalidateAfterReview(qc: QueryClient) {
-  return Promise.all([qc.invalidateQueries({ queryKey: submissionKeys.all }), qc.invalidateQueries({ queryKey: stockKeys.all })]);
-}
+const reviewedKeys = [submissionKeys.all, stockKeys.all];
 
 export function useReviewSubmission() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: reviewSubmission,
-    onSuccess: () => invalidateAfterReview(qc),
-  });
+  return useInvalidatingMutation(reviewSubmission, reviewedKeys, { after: 'success' });
 }
 
 export function useBulkReview() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: bulkReview,
-    onSuccess: () => invalidateAfterReview(qc),
-  });
+  return useInvalidatingMutation(bulkReview, reviewedKeys, { after: 'success' });
 }

@@ -1,7 +1,7 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { submissionSchema, type CreateSubmission, type Submission } from '../../../../shared/contracts/submissions';
 import { submissionKeys } from '../../../api/submissions';
 import { apiRequest } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 /** POST /api/submissions (setter): one tiling by paste or sketch. */
 export function createSubmission(input: CreateSubmission): Promise<Submission> {
@@ -9,9 +9,5 @@ export function createSubmission(input: CreateSubmission): Promise<Submission> {
 }
 
 export function useCreateSubmission() {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: createSubmission,
-    onSuccess: () => qc.invalidateQueries({ queryKey: submissionKeys.all }),
-  });
+  return useInvalidatingMutation(createSubmission, [submissionKeys.all], { after: 'success' });
 }

@@ -1,8 +1,8 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { uploadReportSchema, type UploadReport } from '../../../../shared/contracts/submissions';
 import { submissionKeys } from '../../../api/submissions';
 import { ApiError } from '../../../lib/api-client';
+import { useInvalidatingMutation } from '../../../lib/use-invalidating-mutation';
 
 export interface UploadProgress {
   phase: 'uploading' | 'checking';
@@ -48,9 +48,5 @@ export function uploadSubmissions(file: File, onProgress?: (p: UploadProgress) =
 }
 
 export function useUploadSubmissions(onProgress?: (p: UploadProgress) => void) {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (file: File) => uploadSubmissions(file, onProgress),
-    onSuccess: () => qc.invalidateQueries({ queryKey: submissionKeys.all }),
-  });
+  return useInvalidatingMutation((file: File) => uploadSubmissions(file, onProgress), [submissionKeys.all], { after: 'success' });
 }
