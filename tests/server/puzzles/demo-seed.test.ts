@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { PuzzleListQuery } from '../../../shared/contracts/puzzles';
 import { verifyTiling } from '../../../shared/tiling/index';
 import { seedDemoStock } from '../../../server/areas/intake/demo-seed';
 import { seedDemoPuzzles } from '../../../server/areas/puzzles/demo-seed';
@@ -24,11 +25,15 @@ afterAll(async () => {
 });
 
 const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
+/** Every demo puzzle (there are six), oldest first. */
+const byId: PuzzleListQuery = { page: 1, pageSize: 50, sort: { key: 'id', desc: false } };
+/** The demo puzzles that went into an edition. */
+const usedInEditions = () => listPuzzles(t.deps, jobRunnerFor(t.db), byId).items.filter((p) => p.usedIn.length > 0);
 
 describe('demo puzzles', () => {
   it('are made from the demo stock, of both kinds, proved unique at seed time, quickly', () => {
     const runner = jobRunnerFor(t.db);
-    const list = listPuzzles(t.deps, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } });
+    const list = listPuzzles(t.deps, runner, byId);
     expect(list.total).toBe(6);
     expect(new Set(list.items.map((p) => p.kind))).toEqual(new Set(['assembly', 'deduction']));
     // distinct tilings, so the editions' reuse guard lets them all in
@@ -52,14 +57,12 @@ describe('demo puzzles', () => {
     const states = listEditions(t.deps, admin, {}).map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort();
     expect(states).toContain('The Saturday Quadrant 40 published');
     expect(states).toContain('The Saturday Quadrant 41 in_proof');
-    const used = listPuzzles(t.deps, jobRunnerFor(t.db), { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
-    expect(used.length).toBe(4);
+    expect(usedInEditions().length).toBe(4);
   });
 
   it("show on each stock tiling's history the editions its puzzles went into", () => {
     const runner = jobRunnerFor(t.db);
-    const used = listPuzzles(t.deps, runner, { page: 1, pageSize: 50, sort: { key: 'id', desc: false } }).items.filter((p) => p.usedIn.length > 0);
-    for (const p of used) {
+    for (const p of usedInEditions()) {
       const detail = getStockDetail(t.deps, getPuzzle(t.deps, runner, p.id).stockId);
       const expected = p.usedIn.map((u) => `${u.publicationTitle} No. ${u.number}`);
       expect(detail.history.editions.map((e) => e.title)).toEqual(expected);

@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { puzzleDetailSchema, puzzleListSchema, puzzleStartedSchema, type PuzzleDetail } from '../../../shared/contracts/puzzles';
+import { puzzleDetailSchema, puzzleListSchema, puzzleStartedSchema, type PuzzleCreate, type PuzzleDetail, type PuzzlePatch } from '../../../shared/contracts/puzzles';
 import { parseTiling, verifyTiling } from '../../../shared/tiling/index';
 import { closeJobRunner } from '../../../server/platform/jobs/runtime';
 import { listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
@@ -31,6 +31,18 @@ async function settled(agent: Agent, id: number, timeoutMs = 60_000): Promise<Pu
     if (Date.now() > deadline) throw new Error(`puzzle ${id} still proving`);
     await new Promise((r) => setTimeout(r, 50));
   }
+}
+
+/** POST /api/puzzles (202), then the puzzle once its first proof is done. */
+async function made(agent: Agent, body: PuzzleCreate): Promise<PuzzleDetail> {
+  const { id } = puzzleStartedSchema.parse((await agent.post('/api/puzzles').send(body).expect(202)).body);
+  return settled(agent, id);
+}
+
+/** PATCH /api/puzzles/:id (202), then the puzzle once it is proved again. */
+async function changed(agent: Agent, id: number, body: PuzzlePatch): Promise<PuzzleDetail> {
+  await agent.patch(`/api/puzzles/${id}`).send(body).expect(202);
+  return settled(agent, id);
 }
 
 describe('puzzles API', () => {
@@ -65,8 +77,7 @@ describe('puzzles API', () => {
 
   it('a Deduction puzzle: givens chosen, every step value is the published size, proved unique with a certificate', async () => {
     const editor = await t.signInAs('editor');
-    const started = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction', level: 2 }).expect(202)).body);
-    const p = await settled(editor, started.id);
+    const p = await made(editor, { stockId: order9, kind: 'deduction', level: 2 });
     expect(p.status).toBe('unique');
     // the printed title of a Deduction puzzle must not give the frame's sizes away
     expect(p.title).toBe('Deduction, 9 squares');
@@ -94,8 +105,8 @@ describe('puzzles API', () => {
 
   it('changing givens proves again; no givens at all is reported as not unique, and that stale puzzle cannot print', async () => {
     const editor = await t.signInAs('editor');
-    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction' }).expect(202)).body);
-    const first = await settled(editor, id);
+    const first = await made(editor, { stockId: order9, kind: 'deduction' });
+    const { id } = first;
     expect(first.status).toBe('unique');
     const firstHash = first.certificate!.inputHash;
 
@@ -121,16 +132,14 @@ describe('puzzles API', () => {
     // one printed size fixes the scale: the rank proof says unique (same fact, other side),
     // whether or not local steps reach every size ('stuck' is printable never)
     const corner = none.tiling.squares[0]!;
-    await editor.patch(`/api/puzzles/${id}`).send({ givens: [{ x: corner.x, y: corner.y }], level: 'closure' }).expect(202);
-    const one = await settled(editor, id);
+    const one = await changed(editor, id, { givens: [{ x: corner.x, y: corner.y }], level: 'closure' });
     expect(['unique', 'stuck']).toContain(one.status);
     expect(one.certificate?.counts.rank).toBe(one.certificate?.counts.unknowns);
     expect(one.givens).toEqual([{ x: corner.x, y: corner.y, size: corner.s }]);
     expect(one.level).toBe('closure');
 
     // back to the engine's givens at level 3: unique, current, and the same input hash as before
-    await editor.patch(`/api/puzzles/${id}`).send({ givens: first.givens.map(({ x, y }) => ({ x, y })), level: 3 }).expect(202);
-    const back = await settled(editor, id);
+    const back = await changed(editor, id, { givens: first.givens.map(({ x, y }) => ({ x, y })), level: 3 });
     expect(back.status).toBe('unique');
     expect(back.certificateCurrent).toBe(true);
     expect(back.certificate?.inputHash).toBe(firstHash);
@@ -144,8 +153,8 @@ describe('puzzles API', () => {
       solutionRule: 'same_edition', reuseWindowDays: 90, currency: 'GBP', feeAssemblyMinor: 4500, feeDeductionMinor: 6000,
     }).expect(201);
     const ed = await editor.post('/api/editions').send({ publicationId: pub.body.id, number: 7, date: '2026-12-05' }).expect(201);
-    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction', givens: [] }).expect(202)).body);
-    const p = await settled(editor, id);
+    const p = await made(editor, { stockId: order9, kind: 'deduction', givens: [] });
+    const { id } = p;
     expect(p.status).toBe('not-unique');
     await editor.patch(`/api/editions/${ed.body.id}`).send({ slots: [{ puzzleId: String(id) }] }).expect(200);
     const checks = (await editor.get(`/api/editions/${ed.body.id}/checks`).expect(200)).body as { ok: boolean; checks: { code: string; ok: boolean; slot?: number; message: string }[] };
@@ -154,8 +163,7 @@ describe('puzzles API', () => {
     await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(422);
 
     // print every size: trivially deduced, proved unique again, current
-    await editor.patch(`/api/puzzles/${id}`).send({ givens: p.tiling.squares.map(({ x, y }) => ({ x, y })) }).expect(202);
-    expect((await settled(editor, id)).status).toBe('unique');
+    expect((await changed(editor, id, { givens: p.tiling.squares.map(({ x, y }) => ({ x, y })) })).status).toBe('unique');
     const again = (await editor.get(`/api/editions/${ed.body.id}/checks`).expect(200)).body as typeof checks;
     expect(again.checks.filter((c) => c.code === 'certificate').every((c) => c.ok)).toBe(true);
     await editor.post(`/api/editions/${ed.body.id}/proofs`).expect(201);
@@ -167,16 +175,15 @@ describe('puzzles API', () => {
 
   it('an Assembly puzzle of a set with two ways gets the fewest starter pieces; without them it is reported multiple', async () => {
     const editor = await t.signInAs('editor');
-    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: twin13, kind: 'assembly' }).expect(202)).body);
-    const p = await settled(editor, id);
+    const p = await made(editor, { stockId: twin13, kind: 'assembly' });
+    const { id } = p;
     // TWIN_13: the bare 13 sizes assemble in two ways (published), so starters are needed
     expect(p.status).toBe('unique');
     expect(p.starters.length).toBeGreaterThanOrEqual(1);
     expect(p.notes.join(' ')).toMatch(/starter piece/);
     expect(p.certificateCurrent).toBe(true);
 
-    await editor.patch(`/api/puzzles/${id}`).send({ starters: [] }).expect(202);
-    const bare = await settled(editor, id);
+    const bare = await changed(editor, id, { starters: [] });
     expect(bare.status).toBe('multiple');
     expect(bare.certificate?.counts.classes).toBe(2);
     expect(bare.second).not.toBeNull();
@@ -185,8 +192,7 @@ describe('puzzles API', () => {
 
     // the engine proposes again: unique with starter pieces once more
     await editor.patch(`/api/puzzles/${id}`).send({ propose: true, starters: [] }).expect(400);
-    await editor.patch(`/api/puzzles/${id}`).send({ propose: true }).expect(202);
-    const proposed = await settled(editor, id);
+    const proposed = await changed(editor, id, { propose: true });
     expect(proposed.status).toBe('unique');
     expect(proposed.starters.length).toBeGreaterThanOrEqual(1);
     expect(proposed.certificateCurrent).toBe(true);
@@ -197,8 +203,8 @@ describe('puzzles API', () => {
 
   it('a second change while the first is still being proved wins; cancel needs a running proof', async () => {
     const editor = await t.signInAs('editor');
-    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'deduction' }).expect(202)).body);
-    const first = await settled(editor, id);
+    const first = await made(editor, { stockId: order9, kind: 'deduction' });
+    const { id } = first;
     await editor.post(`/api/puzzles/${id}/cancel`).expect(409);
     await editor.patch(`/api/puzzles/${id}`).send({ givens: [] }).expect(202);
     await editor.patch(`/api/puzzles/${id}`).send({ givens: first.tiling.squares.map(({ x, y }) => ({ x, y })) }).expect(202);
@@ -210,8 +216,8 @@ describe('puzzles API', () => {
 
   it('recheck recomputes the certificate and it holds', async () => {
     const editor = await t.signInAs('editor');
-    const { id } = puzzleStartedSchema.parse((await editor.post('/api/puzzles').send({ stockId: order9, kind: 'assembly' }).expect(202)).body);
-    const p = await settled(editor, id);
+    const p = await made(editor, { stockId: order9, kind: 'assembly' });
+    const { id } = p;
     expect(['unique', 'multiple']).toContain(p.status);
     await editor.post(`/api/puzzles/${id}/recheck`).expect(202);
     const r = await settled(editor, id);

@@ -110,12 +110,7 @@ describe("the proof job's summary", () => {
     const bad = { ...made, certificate: { ...made.certificate, verdict: 'probably' }, givens: [{ x: 0, y: 0 }] };
     finishProof(t.db, id, 1, bad, 'done');
     const p = getPuzzle(t.deps, jobRunnerFor(t.db), id);
-    expect(p.status).toBe('failed');
-    expect(p.certificate).toBeNull();
-    expect(p.certificateCurrent).toBe(false);
-    expect(p.givens).toEqual([]);
-    expect(p.steps).toEqual([]);
-    expect(p.grade).toBeNull();
+    expect(p).toMatchObject({ status: 'failed', certificate: null, certificateCurrent: false, givens: [], steps: [], grade: null });
     expect(p.notes).toHaveLength(1);
     expect(p.notes[0]).toMatch(/result was refused/);
     expect(p.notes[0]).toMatch(/certificate\.verdict/);
