@@ -6,6 +6,7 @@ import type { PuzzlesDeps } from './ports';
 import { solveAssembly } from '../../../shared/puzzle/index';
 import { provePuzzle, type PuzzleJobInput } from './rules';
 import { puzzleTitle, storeResult } from './puzzles';
+import { levelText } from './stored';
 import { demoAccounts } from '../accounts/index';
 
 // Demo puzzles: from the smallest tilings of the demo stock, three Deduction puzzles (levels
@@ -54,7 +55,7 @@ export function seedDemoPuzzles(deps: PuzzlesDeps): void {
         .insert(puzzle)
         .values({
           stockId: s.id, kind: p.kind, title: puzzleTitle(p.kind, tiling),
-          status: 'proving', level: p.level === null ? null : JSON.stringify(p.level), inputHash: '', createdBy: editor?.id ?? null,
+          status: 'proving', level: levelText(p.level), inputHash: '', createdBy: editor?.id ?? null,
         })
         .returning({ id: puzzle.id })
         .get();

@@ -20,7 +20,7 @@ import { puzzle } from './schema';
 import { stock } from '../stock/index';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { certificateInputOf, DEFAULT_LEVEL, issuesText, nodeSha256, PUZZLE_JOB_KIND, puzzleJobSummarySchema, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
-import { certificateOf, givensOf, lastRecheckOf, levelOf, notesOf, secondOf, startersOf, stepsOf } from './stored';
+import { certificateOf, givensOf, lastRecheckOf, levelOf, levelText, notesOf, secondOf, startersOf, stepsOf } from './stored';
 import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
 import type { PuzzleForPrint, PuzzleSource } from '../editions/ports';
 import type { StockPort, StockUsage } from '../stock/ports';
@@ -116,7 +116,7 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
     stepsJson: JSON.stringify(s.steps),
     // a grade only means something for a puzzle with one solution
     grade: cert.verdict === 'unique' ? s.grade : null,
-    level: row.kind === 'deduction' ? JSON.stringify(s.level ?? DEFAULT_LEVEL) : null,
+    level: row.kind === 'deduction' ? levelText(s.level ?? DEFAULT_LEVEL) : null,
     secondJson: s.second ? JSON.stringify(s.second) : null,
     notesJson: JSON.stringify(s.notes),
   });
@@ -157,7 +157,7 @@ export function createPuzzle(deps: PuzzlesStore, runner: JobRunner, who: Session
       .insert(puzzle)
       .values({
         stockId: body.stockId, kind: body.kind, title: puzzleTitle(body.kind, tiling), status: 'proving',
-        level: level === null ? null : JSON.stringify(level), showFrame,
+        level: levelText(level), showFrame,
         startersJson: JSON.stringify(starters ?? []), givensJson: JSON.stringify(givens ?? []),
         inputHash: hash, createdBy: who.id,
       })
@@ -205,7 +205,7 @@ export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionU
   db.update(puzzle)
     .set({
       revision, status: 'proving', inputHash: hash, startersJson: JSON.stringify(starters), givensJson: JSON.stringify(givens),
-      level: level === null ? null : JSON.stringify(level), showFrame, secondJson: null, recheckJson: null, updatedAt: new Date(),
+      level: levelText(level), showFrame, secondJson: null, recheckJson: null, updatedAt: new Date(),
     })
     .where(eq(puzzle.id, id))
     .run();

@@ -1,6 +1,6 @@
 import { getTableName } from 'drizzle-orm';
 import { z } from 'zod';
-import { puzzleLevelSchema } from '../../../shared/contracts/puzzles';
+import { puzzleLevelSchema, type PuzzleLevel } from '../../../shared/contracts/puzzles';
 import { certificateSchema, issuesText, noteListSchema, placedListSchema, recheckOutcomeSchema, secondSolutionSchema, stepListSchema } from './rules';
 import { puzzle } from './schema';
 
@@ -45,6 +45,8 @@ function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: n
 /** A re-check as stored: its outcome and when it ran. */
 const storedRecheckSchema = recheckOutcomeSchema.extend({ at: z.string() });
 
+/** The level column's text for a level (Deduction) or none (Assembly); levelOf reads it back. */
+export const levelText = (level: PuzzleLevel | null): string | null => (level === null ? null : JSON.stringify(level));
 /** Deduction: its locality level; null for Assembly. */
 export const levelOf = (r: Row<'level'>) => parseColumn(puzzle.level, puzzleLevelSchema, r.id, r.level);
 export const startersOf = (r: Row<'startersJson'>) => parseColumn(puzzle.startersJson, placedListSchema, r.id, r.startersJson);
