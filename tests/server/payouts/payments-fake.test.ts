@@ -71,12 +71,27 @@ describe('the local fake provider', () => {
   it('refuses a missing or wrong parameter naming it, as the provider does (400, invalid request)', async () => {
     const account = await sdk.accounts.create({ type: 'express', country: 'GB' });
     fake.completeOnboarding(account.id);
+    // Without a destination, which the SDK's types would not let through.
     const missing = await sdk.transfers.create({ amount: 500, currency: 'gbp' } as Stripe.TransferCreateParams).catch((e: unknown) => e);
     expect(missing).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(missing).toMatchObject({ code: 'parameter_missing', param: 'destination', message: 'Missing required param: destination.' });
     const fraction = await sdk.transfers.create({ amount: 5.5, currency: 'gbp', destination: account.id }).catch((e: unknown) => e);
     expect(fraction).toMatchObject({ code: 'parameter_invalid_integer', param: 'amount' });
     expect(fake.balanceOf(account.id)).toEqual({});
+  });
+
+  it('takes its switches over HTTP too (/__fake/*, for a browser session against the dev server)', async () => {
+    const account = await sdk.accounts.create({ type: 'express', country: 'GB' });
+    const flip = (action: string) => fetch(`${fake.url}/__fake/accounts/${account.id}/${action}`, { method: 'POST' });
+    expect((await flip('complete-onboarding')).status).toBe(200);
+    expect((await flip('fail-transfers')).status).toBe(200);
+    await expect(sdk.transfers.create({ amount: 100, currency: 'gbp', destination: account.id })).rejects.toMatchObject({ code: 'account_invalid' });
+    expect((await flip('clear-failures')).status).toBe(200);
+    await sdk.transfers.create({ amount: 100, currency: 'gbp', destination: account.id });
+    const stats = z.object({ created: z.object({ transfers: z.number() }) }).parse(await (await fetch(`${fake.url}/__fake/stats`)).json());
+    expect(stats.created.transfers).toBe(fake.stats().created.transfers);
+    expect(fake.balanceOf(account.id)).toEqual({ gbp: 100 });
+    expect((await fetch(`${fake.url}/__fake/accounts/${account.id}/explode`, { method: 'POST' })).status).toBe(404);
   });
 
   it('refuses a payout larger than the account balance, as a refusal our client does not retry', async () => {

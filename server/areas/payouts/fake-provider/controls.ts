@@ -39,21 +39,16 @@ export function fakeControls(ctx: FakeContext, settlement: Settlement): FakeCont
   };
 }
 
-const ok = () => jsonAnswer(200, JSON.stringify({ ok: true }));
-
 /** The control endpoints: GET /__fake/stats, POST /__fake/settle, POST /__fake/accounts/:id/<switch>. Null for any other path. */
 export function controlAnswer(controls: FakeControls, method: string, path: string): Answer | Promise<Answer> | null {
   if (method === 'GET' && path === '/__fake/stats') return jsonAnswer(200, JSON.stringify(controls.stats()));
   if (method === 'POST' && path === '/__fake/settle') return controls.settleAll().then(() => jsonAnswer(200, JSON.stringify({ settled: true })));
   const m = method === 'POST' ? path.match(/^\/__fake\/accounts\/(\w+)\/(fail-payouts|fail-transfers|clear-failures|complete-onboarding)$/) : null;
   if (!m) return null;
-  const id = m[1] ?? '';
-  const switches: Record<string, (id: string) => void> = {
-    'fail-payouts': (a) => controls.failPayoutsFor(a),
-    'fail-transfers': (a) => controls.failTransfersFor(a),
-    'clear-failures': controls.clearFailures,
-    'complete-onboarding': controls.completeOnboarding,
-  };
-  switches[m[2] ?? '']?.(id);
-  return ok();
+  const [, id = '', action] = m;
+  if (action === 'fail-payouts') controls.failPayoutsFor(id);
+  else if (action === 'fail-transfers') controls.failTransfersFor(id);
+  else if (action === 'complete-onboarding') controls.completeOnboarding(id);
+  else controls.clearFailures(id);
+  return jsonAnswer(200, JSON.stringify({ ok: true }));
 }
