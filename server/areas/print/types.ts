@@ -17,12 +17,16 @@ export type SolvedTiling = z.infer<typeof solvedTilingSchema>;
 const layoutRectSchema = z.object({ x: z.number(), y: z.number(), w: z.number(), h: z.number() });
 export type LayoutRect = z.infer<typeof layoutRectSchema>;
 
-const assemblyPrintSchema = z.object({
+/** What every printed puzzle carries, whatever its kind. */
+const puzzlePrintBase = z.object({
   slot: z.number().int(),
-  kind: z.literal('assembly'),
   title: z.string(),
   instructions: richTextDocSchema,
   grade: z.number().int(),
+});
+
+const assemblyPrintSchema = puzzlePrintBase.extend({
+  kind: z.literal('assembly'),
   frame: z.object({ W: z.number(), H: z.number() }),
   /** The sizes the solver must place (starter pieces included or not: all pieces). */
   pieces: z.array(z.number()),
@@ -30,12 +34,8 @@ const assemblyPrintSchema = z.object({
 });
 export type AssemblyPrint = z.infer<typeof assemblyPrintSchema>;
 
-const deductionPrintSchema = z.object({
-  slot: z.number().int(),
+const deductionPrintSchema = puzzlePrintBase.extend({
   kind: z.literal('deduction'),
-  title: z.string(),
-  instructions: richTextDocSchema,
-  grade: z.number().int(),
   layout: z.object({ W: z.number(), H: z.number(), rects: z.array(layoutRectSchema) }),
   /** Sizes shown on the page: rect index into layout.rects and its size. */
   givens: z.array(z.object({ rect: z.number().int(), size: z.number() })),

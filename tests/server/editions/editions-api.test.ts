@@ -6,6 +6,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
+import { quadrantPublication } from './fixtures';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 import { hasPoppler, pdftotext, writeTemp } from '../print/poppler';
@@ -48,17 +49,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const pubBody = {
-  title: 'The Saturday Quadrant',
-  publisher: 'Larkspur & Quill Press',
-  templateId: 'newspaper-column',
-  cadence: 'weekly',
-  solutionRule: 'same_edition',
-  reuseWindowDays: 90,
-  currency: 'GBP',
-  feeAssemblyMinor: 4500,
-  feeDeductionMinor: 6000,
-};
+const pubBody = quadrantPublication;
 
 describe('publications', () => {
   it('lets an admin create and change one, and refuses an unknown template by field', async () => {

@@ -6,6 +6,7 @@ import type { RenderResult } from '../../../server/areas/print/types';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
+import { quadrantPublication } from './fixtures';
 
 // Sending a proof renders the edition once: the checks before proof read the preflight of
 // the very PDF that is stored (it used to render a preview for the checks, then the file).
@@ -39,7 +40,7 @@ beforeAll(async () => {
   pubId = (
     await admin
       .post('/api/publications')
-      .send({ title: 'Squared Away Monthly', publisher: 'Larkspur & Quill Press', templateId: 'a4', cadence: 'monthly', solutionRule: 'same_edition', reuseWindowDays: 365, currency: 'GBP', feeAssemblyMinor: 6000, feeDeductionMinor: 7500 })
+      .send({ ...quadrantPublication, title: 'Squared Away Monthly', templateId: 'a4', cadence: 'monthly', reuseWindowDays: 365 })
       .expect(201)
   ).body.id;
 });

@@ -8,6 +8,7 @@ import { StoredRowError } from '../../../server/areas/editions/stored-json';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles } from '../print/fixtures/stub-puzzles';
+import { quadrantPublication } from './fixtures';
 
 // Parse, don't cast: the editions' JSON columns (introduction, slot instructions, a proof's
 // preflight and print document) are read through their schemas; a corrupt row is an error
@@ -33,7 +34,7 @@ beforeAll(async () => {
   const ed = await t.signInAs('editor');
   const pub = await admin
     .post('/api/publications')
-    .send({ title: 'The Saturday Quadrant', publisher: 'Larkspur & Quill Press', templateId: 'newspaper-column', cadence: 'weekly', solutionRule: 'same_edition', reuseWindowDays: 90, currency: 'GBP', feeAssemblyMinor: 4500, feeDeductionMinor: 6000 })
+    .send(quadrantPublication)
     .expect(201);
   editionId = (await ed.post('/api/editions').send({ publicationId: pub.body.id, number: 41, date: '2026-12-05', introduction: plainRichText('Welcome.') }).expect(201)).body.id;
   await ed.patch(`/api/editions/${editionId}`).send({ slots: [{ puzzleId: a.id }, { puzzleId: d.id }] }).expect(200);
