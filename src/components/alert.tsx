@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { errorMessage } from '../lib/api-client';
 
 export type Tone = 'info' | 'success' | 'warning' | 'danger' | 'neutral';
 
@@ -39,5 +40,18 @@ export function Alert({ tone = 'info', title, children, className = '' }: AlertP
         {children ? <div className="text-ink-soft">{children}</div> : null}
       </div>
     </div>
+  );
+}
+
+/**
+ * The message of a failed query or mutation (an ApiError or any Error) as a danger Alert, or
+ * nothing while there is no error: `<ErrorAlert error={save.error} title="Could not save" />`.
+ */
+export function ErrorAlert({ error, title, className }: { error: unknown; title?: ReactNode; className?: string }) {
+  if (!error) return null;
+  return (
+    <Alert tone="danger" title={title} className={className}>
+      {errorMessage(error)}
+    </Alert>
   );
 }

@@ -3,7 +3,9 @@ import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { describe, expect, it, vi } from 'vitest';
+import { ErrorAlert } from '../../../src/components/alert';
 import { FramedTable } from '../../../src/components/framed-table';
+import { ApiError } from '../../../src/lib/api-client';
 import { ProgressBar } from '../../../src/components/progress-bar';
 import { StatusBadge } from '../../../src/components/status-badge';
 import { Tabs } from '../../../src/components/tabs';
@@ -26,6 +28,17 @@ function TabsHarness() {
 }
 
 describe('shared components', () => {
+  it('ErrorAlert shows nothing without an error, and the server’s message under its title with one', () => {
+    const { container, rerender } = render(<ErrorAlert error={null} title="Could not save" />);
+    expect(container.innerHTML).toBe('');
+    rerender(<ErrorAlert error={new ApiError(409, 'conflict', 'The edition changed meanwhile.')} title="Could not save" />);
+    const alert = screen.getByRole('alert');
+    expect(alert.textContent).toContain('Could not save');
+    expect(alert.textContent).toContain('The edition changed meanwhile.');
+    rerender(<ErrorAlert error="not an Error" />);
+    expect(screen.getByRole('alert').textContent).toContain('Something went wrong.');
+  });
+
   it('Tabs move with the arrow keys, wrap around, and show only the selected panel (WAI-ARIA tabs pattern)', async () => {
     const user = userEvent.setup();
     render(<TabsHarness />);

@@ -1,12 +1,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { createInvitationBodySchema } from '../../../../shared/contracts/auth';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Dialog } from '../../../components/dialog';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { roleLabel, roles } from '../../../lib/roles';
 import { useInviteUser } from '../api/invite-user';
 
@@ -37,11 +36,7 @@ export function InviteDialog({ open, onClose, onInvited }: { open: boolean; onCl
   return (
     <Dialog open={open} onClose={close} title="Invite someone">
       <form id="invite-form" onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-        {invite.error ? (
-          <Alert tone="danger" title="Could not send the invitation">
-            {errorMessage(invite.error)}
-          </Alert>
-        ) : null}
+        <ErrorAlert error={invite.error} title="Could not send the invitation" />
         <TextField label="E-mail" type="email" {...register('email')} error={errors.email?.message} />
         <SelectField label="Role" options={roleOptions} {...register('role')} error={errors.role?.message} />
         <p className="text-sm text-ink-muted">They get a mail with a one-time link to choose a name and password.</p>

@@ -2,13 +2,12 @@ import { useState } from 'react';
 import { roleSchema } from '../../../../shared/contracts/common';
 import type { AdminUser } from '../../../../shared/contracts/users';
 import { useMe } from '../../../api/session';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
 import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { roleLabel, roles, type Role } from '../../../lib/roles';
 import { useUsers } from '../api/list-users';
@@ -37,17 +36,11 @@ export function UsersPage() {
           {notice}
         </Alert>
       ) : null}
-      {update.error ? (
-        <Alert tone="danger" title="The change was not saved">
-          {errorMessage(update.error)}
-        </Alert>
-      ) : null}
+      <ErrorAlert error={update.error} title="The change was not saved" />
       {users.isPending ? (
         <Loading />
       ) : users.error ? (
-        <Alert tone="danger" title="Could not load the users">
-          {errorMessage(users.error)}
-        </Alert>
+        <ErrorAlert error={users.error} title="Could not load the users" />
       ) : users.data.length === 0 ? (
         <EmptyState title="No users yet" />
       ) : (

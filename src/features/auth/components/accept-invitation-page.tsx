@@ -3,7 +3,7 @@ import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { z } from 'zod';
 import { acceptInvitationBodySchema } from '../../../../shared/contracts/auth';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Loading } from '../../../components/page';
 import { TextField } from '../../../components/text-field';
@@ -67,11 +67,7 @@ export function AcceptInvitationPage() {
           You are invited as <strong className="text-ink">{roleLabel[invitation.data.role]}</strong> with the address{' '}
           <code className="text-ink">{invitation.data.email}</code>. Choose your name and a password.
         </p>
-        {accept.error ? (
-          <Alert tone="danger" title="Could not finish the sign-up">
-            {errorMessage(accept.error)}
-          </Alert>
-        ) : null}
+        <ErrorAlert error={accept.error} title="Could not finish the sign-up" />
         <TextField label="Your name" autoComplete="name" {...register('name')} error={errors.name?.message} />
         <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters." {...register('password')} error={errors.password?.message} />
         <TextField label="Password, again" type="password" autoComplete="new-password" {...register('confirm')} error={errors.confirm?.message} />

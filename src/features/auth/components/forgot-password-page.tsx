@@ -3,10 +3,9 @@ import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { z } from 'zod';
 import { emailSchema } from '../../../../shared/contracts/auth';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useRequestPasswordReset } from '../api/request-password-reset';
 import { AuthFrame } from './auth-frame';
 
@@ -34,11 +33,7 @@ export function ForgotPasswordPage() {
       ) : (
         <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
           <p className="text-sm text-ink-muted">Enter the address you sign in with. We will mail you a link to set a new password.</p>
-          {request.error ? (
-            <Alert tone="danger" title="Could not send the link">
-              {errorMessage(request.error)}
-            </Alert>
-          ) : null}
+          <ErrorAlert error={request.error} title="Could not send the link" />
           <TextField label="E-mail" type="email" autoComplete="email" {...register('email')} error={errors.email?.message} />
           <Button type="submit" variant="primary" busy={request.isPending}>
             Send the link

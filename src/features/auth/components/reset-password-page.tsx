@@ -3,10 +3,9 @@ import { useForm } from 'react-hook-form';
 import { Link, useSearchParams } from 'react-router-dom';
 import { z } from 'zod';
 import { passwordSchema } from '../../../../shared/contracts/auth';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useResetPassword } from '../api/reset-password';
 import { AuthFrame } from './auth-frame';
 
@@ -51,11 +50,7 @@ export function ResetPasswordPage() {
         </div>
       ) : (
         <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-          {reset.error ? (
-            <Alert tone="danger" title="Could not set the password">
-              {errorMessage(reset.error)}
-            </Alert>
-          ) : null}
+          <ErrorAlert error={reset.error} title="Could not set the password" />
           <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." {...register('newPassword')} error={errors.newPassword?.message} />
           <TextField label="New password, again" type="password" autoComplete="new-password" {...register('confirm')} error={errors.confirm?.message} />
           <Button type="submit" variant="primary" busy={reset.isPending}>

@@ -4,10 +4,9 @@ import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { signInBodySchema } from '../../../../shared/contracts/auth';
 import { meQueryOptions } from '../../../api/session';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { roleLabel } from '../../../lib/roles';
 import { safeNextPath } from '../../../lib/safe-next-path';
 import { usePublicConfig } from '../api/get-public-config';
@@ -78,11 +77,7 @@ export function SignInPage() {
       }
     >
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-        {signIn.error ? (
-          <Alert tone="danger" title="Sign-in failed">
-            {errorMessage(signIn.error)}
-          </Alert>
-        ) : null}
+        <ErrorAlert error={signIn.error} title="Sign-in failed" />
         <TextField label="E-mail" type="email" autoComplete="username" {...register('email')} error={errors.email?.message} />
         <TextField label="Password" type="password" autoComplete="current-password" {...register('password')} error={errors.password?.message} />
         <Button type="submit" variant="primary" busy={signIn.isPending}>

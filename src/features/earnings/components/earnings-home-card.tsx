@@ -1,15 +1,14 @@
 import { formatMoney } from '../../../../shared/contracts/ledger';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Loading } from '../../../components/page';
 import { PayoutStateBadge } from '../../../components/payout-state-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { useEarnings } from '../api/get-earnings';
 
 /** Home card (setter): fees this month, what is owed, and the latest payout. */
 export function EarningsHomeCard() {
   const earnings = useEarnings();
   if (earnings.isPending) return <Loading />;
-  if (earnings.error) return <Alert tone="danger" title="Could not load your earnings">{errorMessage(earnings.error)}</Alert>;
+  if (earnings.error) return <ErrorAlert error={earnings.error} title="Could not load your earnings" />;
   const thisMonth = earnings.data.statements.find((s) => s.month === earnings.data.month);
   const latest = earnings.data.payouts[0];
   return (

@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
 import { formatMoney } from '../../../../shared/contracts/ledger';
 import { payoutDetailsInputSchema, type Earnings, type PayoutDetailsInput } from '../../../../shared/contracts/payouts';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { CautionNote } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
@@ -12,7 +12,6 @@ import { Card, Loading, Page } from '../../../components/page';
 import { PayoutStateBadge } from '../../../components/payout-state-badge';
 import { SelectField } from '../../../components/select-field';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useEarnings } from '../api/get-earnings';
 import { statementCsvUrl } from '../api/get-statement';
@@ -34,7 +33,7 @@ export function EarningsPage() {
       {earnings.isPending ? (
         <Loading />
       ) : earnings.error ? (
-        <Alert tone="danger" title="Could not load your earnings">{errorMessage(earnings.error)}</Alert>
+        <ErrorAlert error={earnings.error} title="Could not load your earnings" />
       ) : (
         <>
           <div className="grid gap-4 md:grid-cols-2">
@@ -98,7 +97,7 @@ function PayoutDetailsCard({ details }: { details: Earnings['details'] }) {
       <p className="text-sm text-ink-muted">
         Your bank details are entered on the payments provider’s own page. Squarewright keeps only the provider’s reference to your account, never your bank or card numbers.
       </p>
-      {start.error ? <Alert tone="danger" title="Could not open the provider’s page">{errorMessage(start.error)}</Alert> : null}
+      <ErrorAlert error={start.error} title="Could not open the provider’s page" />
       <form onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3">
         <SelectField label="Country of your bank account" options={countries} {...register('country')} error={errors.country?.message} />
         <Button type="submit" variant={details?.status === 'ready' ? 'secondary' : 'primary'} busy={start.isPending}>
@@ -148,7 +147,7 @@ function StatementsCard({ statements, onView }: { statements: Earnings['statemen
   return (
     <Card title="Monthly statements">
       {send.data ? <Alert tone="success" title="Statement sent">Your statement for {send.data.month} is on its way to {send.data.to}.</Alert> : null}
-      {send.error ? <Alert tone="danger" title="The statement was not sent">{errorMessage(send.error)}</Alert> : null}
+      <ErrorAlert error={send.error} title="The statement was not sent" />
       {statements.length === 0 ? (
         <EmptyState title="No statements yet">A statement appears for each month in which a puzzle of yours was printed.</EmptyState>
       ) : (

@@ -1,8 +1,7 @@
 import { formatMoney } from '../../../../shared/contracts/ledger';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Dialog } from '../../../components/dialog';
 import { Loading } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { statementCsvUrl, useStatement } from '../api/get-statement';
 
@@ -14,7 +13,7 @@ export function StatementDialog({ month, onClose }: { month: string; onClose: ()
       {statement.isPending ? (
         <Loading />
       ) : statement.error ? (
-        <Alert tone="danger" title="Could not load the statement">{errorMessage(statement.error)}</Alert>
+        <ErrorAlert error={statement.error} title="Could not load the statement" />
       ) : (
         <div className="flex flex-col gap-4">
           <p>

@@ -3,7 +3,7 @@ import { useParams } from 'react-router-dom';
 import { emptyRichText, type Edition, type RichTextDoc, type SlotInput } from '../../../../shared/contracts/editions';
 import { useEdition } from '../../../api/editions';
 import { usePuzzleList } from '../../../api/puzzles';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { Card, Loading, Page } from '../../../components/page';
@@ -169,7 +169,7 @@ function Checks({ edition }: { edition: Edition }) {
       {checks.isPending ? (
         <Loading label="Running the checks (this renders a preview)…" />
       ) : checks.error ? (
-        <Alert tone="danger">{errorMessage(checks.error)}</Alert>
+        <ErrorAlert error={checks.error} />
       ) : (
         <>
           <ul className="flex flex-col gap-1 text-sm">
@@ -259,7 +259,7 @@ export function EditionPage() {
   const send = useSendProof(id);
   const publish = usePublishEdition(id);
   if (edition.isPending) return <Loading />;
-  if (edition.error) return <Alert tone="danger" title="Could not load the edition">{errorMessage(edition.error)}</Alert>;
+  if (edition.error) return <ErrorAlert error={edition.error} title="Could not load the edition" />;
   const e = edition.data;
   return (
     <Page

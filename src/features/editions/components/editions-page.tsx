@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { editionCreateSchema, type EditionSummary } from '../../../../shared/contracts/editions';
 import { useEditions } from '../../../api/editions';
 import { usePublications } from '../../../api/publications';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
@@ -14,7 +14,6 @@ import { FramedTable } from '../../../components/framed-table';
 import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { useCreateEdition } from '../api/create-edition';
 import { EditionStateBadge } from './edition-state-badge';
@@ -101,7 +100,7 @@ function NewEditionForm() {
   const { errors } = form.formState;
   return (
     <Card title="New edition">
-      {pubs.error ? <Alert tone="danger">{errorMessage(pubs.error)}</Alert> : null}
+      <ErrorAlert error={pubs.error} />
       <form
         className="flex flex-col gap-3"
         noValidate
@@ -113,7 +112,7 @@ function NewEditionForm() {
         <SelectField label="Publication" placeholder="Choose…" options={(pubs.data ?? []).map((p) => ({ value: p.id, label: p.title }))} error={errors.publicationId?.message} {...form.register('publicationId')} />
         <TextField label="Number" type="number" min={1} error={errors.number?.message} {...form.register('number')} />
         <TextField label="Date" type="date" error={errors.date?.message} {...form.register('date')} />
-        {create.error ? <Alert tone="danger" title="Could not create the edition">{errorMessage(create.error)}</Alert> : null}
+        <ErrorAlert error={create.error} title="Could not create the edition" />
         <Button type="submit" variant="primary" busy={create.isPending}>
           Create draft
         </Button>
@@ -153,9 +152,7 @@ export function EditionsPage() {
       {editions.isPending ? (
         <Loading />
       ) : editions.error ? (
-        <Alert tone="danger" title="Could not load the editions">
-          {errorMessage(editions.error)}
-        </Alert>
+        <ErrorAlert error={editions.error} title="Could not load the editions" />
       ) : (
         <>
           <Calendar month={month} editions={editions.data} />

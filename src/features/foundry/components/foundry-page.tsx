@@ -1,12 +1,11 @@
 import { Link } from 'react-router-dom';
 import type { Run, RunState } from '../../../../shared/contracts/foundry';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
 import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { useCancelRun } from '../api/cancel-run';
 import { isActive, useRuns } from '../api/list-runs';
@@ -42,11 +41,11 @@ export function FoundryPage() {
       <RunForm />
       <section aria-labelledby="runs-heading" className="flex flex-col gap-3">
         <h2 id="runs-heading" className="text-lg font-semibold text-ink">Runs</h2>
-        {cancel.error ? <Alert tone="danger" title="Could not cancel">{errorMessage(cancel.error)}</Alert> : null}
+        <ErrorAlert error={cancel.error} title="Could not cancel" />
         {runs.isPending ? (
           <Loading />
         ) : runs.error ? (
-          <Alert tone="danger" title="Could not load the runs">{errorMessage(runs.error)}</Alert>
+          <ErrorAlert error={runs.error} title="Could not load the runs" />
         ) : runs.data.length === 0 ? (
           <EmptyState title="No runs yet" />
         ) : (

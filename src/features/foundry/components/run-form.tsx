@@ -9,13 +9,12 @@ import {
   type RunMode,
   type RunRequest,
 } from '../../../../shared/contracts/foundry';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { CheckboxField } from '../../../components/checkbox-field';
 import { Card } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useStartRun } from '../api/start-run';
 
 const modes = [
@@ -107,7 +106,7 @@ export function RunForm() {
         ) : null}
         {mode !== 'joining' ? <CheckboxField label="Squares only" checked={squaresOnly} onChange={(e) => setSquaresOnly(e.target.checked)} /> : null}
         {errors.form ? <Alert tone="danger" title="Check the parameters">{errors.form}</Alert> : null}
-        {start.error ? <Alert tone="danger" title="The run did not start">{errorMessage(start.error)}</Alert> : null}
+        <ErrorAlert error={start.error} title="The run did not start" />
         <div>
           <Button type="submit" variant="primary" busy={start.isPending}>
             Start run

@@ -1,10 +1,9 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 import { isActive } from '../api/list-runs';
 import { useRun, useRunResults } from '../api/run-results';
 import { describeRun, RunProgress } from './run-progress';
@@ -17,13 +16,13 @@ export function RunResultsPage() {
   const results = useRunResults(id, page, run.data ? isActive(run.data) : false);
   return (
     <Page title="Foundry run" description={run.data ? describeRun(run.data) : undefined} actions={<Link className="text-accent-strong underline" to="/foundry">All runs</Link>}>
-      {run.isPending ? <Loading /> : run.error ? <Alert tone="danger" title="Could not load the run">{errorMessage(run.error)}</Alert> : (
+      {run.isPending ? <Loading /> : run.error ? <ErrorAlert error={run.error} title="Could not load the run" /> : (
         <Card>
           <RunProgress run={run.data} />
           {run.data.error ? <p className="text-sm text-danger">{run.data.error}</p> : null}
         </Card>
       )}
-      {results.isPending ? <Loading /> : results.error ? <Alert tone="danger" title="Could not load the results">{errorMessage(results.error)}</Alert> : results.data.total === 0 ? (
+      {results.isPending ? <Loading /> : results.error ? <ErrorAlert error={results.error} title="Could not load the results" /> : results.data.total === 0 ? (
         <EmptyState title="Nothing found yet" />
       ) : (
         <div className="flex flex-col gap-3">

@@ -1,7 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Card, Loading, Page } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { useMail } from '../api/get-mail';
 import { LinkifiedText } from './linkified-text';
@@ -15,9 +14,7 @@ export function MailPage() {
       {mail.isPending ? (
         <Loading />
       ) : mail.error ? (
-        <Alert tone="danger" title="Could not open this mail">
-          {errorMessage(mail.error)}
-        </Alert>
+        <ErrorAlert error={mail.error} title="Could not open this mail" />
       ) : (
         <Card>
           <dl className="grid grid-cols-[6rem_1fr] gap-x-3 gap-y-1 border-b border-rule pb-3 text-sm">

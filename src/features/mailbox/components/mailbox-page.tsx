@@ -1,9 +1,8 @@
 import { Link } from 'react-router-dom';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { EmptyState } from '../../../components/empty-state';
 import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { useMailList } from '../api/list-mail';
 
@@ -18,9 +17,7 @@ export function MailboxPage() {
       {mail.isPending ? (
         <Loading />
       ) : mail.error ? (
-        <Alert tone="danger" title="Could not read the mailbox">
-          {errorMessage(mail.error)}
-        </Alert>
+        <ErrorAlert error={mail.error} title="Could not read the mailbox" />
       ) : mail.data.length === 0 ? (
         <EmptyState title="No mail caught yet">Invitations, password resets and proof notices appear here as they are sent.</EmptyState>
       ) : (

@@ -2,11 +2,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { ledgerCorrectionInputSchema, type LedgerCorrectionInput } from '../../../../shared/contracts/ledger';
 import type { OwedRow } from '../../../../shared/contracts/payouts';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Dialog } from '../../../components/dialog';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useAddCorrection } from '../api/add-correction';
 import { formatMoney } from './money';
 
@@ -23,7 +22,7 @@ export function CorrectionDialog({ row, onClose }: { row: OwedRow | null; onClos
     <Dialog open={row !== null} onClose={onClose} title={row ? `Correction for ${row.setterName}` : 'Correction'}>
       {row ? (
         <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-          {add.error ? <Alert tone="danger" title="The correction was not saved">{errorMessage(add.error)}</Alert> : null}
+          <ErrorAlert error={add.error} title="The correction was not saved" />
           <p className="text-sm text-ink-muted">
             Owed now: {formatMoney(row.owedMinor, row.currency)}. A correction is a new entry in the ledger; earlier entries stay as they are.
           </p>

@@ -1,6 +1,5 @@
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Loading } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 import { usePayouts } from '../api/get-payouts';
 import { totalsFor } from './money';
 
@@ -8,7 +7,7 @@ import { totalsFor } from './money';
 export function OwedHomeCard() {
   const overview = usePayouts();
   if (overview.isPending) return <Loading />;
-  if (overview.error) return <Alert tone="danger" title="Could not load payouts">{errorMessage(overview.error)}</Alert>;
+  if (overview.error) return <ErrorAlert error={overview.error} title="Could not load payouts" />;
   const owed = overview.data.owed;
   const setters = new Set(owed.map((o) => o.setterId)).size;
   const payable = new Set(owed.filter((o) => o.detailsStatus === 'ready').map((o) => o.setterId)).size;

@@ -1,14 +1,13 @@
 import { useState } from 'react';
 import { formatMoney, totalsFor } from './money';
 import type { OwedRow, Payout, PayoutRun } from '../../../../shared/contracts/payouts';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
 import { PayoutStateBadge } from '../../../components/payout-state-badge';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { usePayouts } from '../api/get-payouts';
 import { useRetryPayout } from '../api/retry-payout';
@@ -35,11 +34,11 @@ export function PayoutsPage() {
     >
       <TaxCaution />
       {notice ? <Alert tone="success" title="Payout run started">{notice}</Alert> : null}
-      {retry.error ? <Alert tone="danger" title="The retry did not start">{errorMessage(retry.error)}</Alert> : null}
+      <ErrorAlert error={retry.error} title="The retry did not start" />
       {overview.isPending ? (
         <Loading />
       ) : overview.error ? (
-        <Alert tone="danger" title="Could not load payouts">{errorMessage(overview.error)}</Alert>
+        <ErrorAlert error={overview.error} title="Could not load payouts" />
       ) : (
         <>
           <Card title="Owed now">

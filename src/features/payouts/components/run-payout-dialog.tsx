@@ -1,10 +1,9 @@
 import { useState } from 'react';
 import type { OwedRow } from '../../../../shared/contracts/payouts';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
 import { Dialog } from '../../../components/dialog';
-import { errorMessage } from '../../../lib/api-client';
 import { useCreatePayoutRun } from '../api/create-payout-run';
 import { formatMoney, totalsFor } from './money';
 
@@ -41,7 +40,7 @@ export function RunPayoutDialog({ open, payable, onClose, onDone }: { open: bool
       }
     >
       <div className="flex flex-col gap-4">
-        {run.error ? <Alert tone="danger" title="The payout run did not start">{errorMessage(run.error)}</Alert> : null}
+        <ErrorAlert error={run.error} title="The payout run did not start" />
         <p>These setters will be paid what they are owed, through the payments provider:</p>
         <ul className="flex flex-col gap-1 text-sm">
           {payable.map((p) => (

@@ -2,12 +2,11 @@ import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { returnProofSchema } from '../../../../shared/contracts/editions';
 import { usePrinterEdition } from '../../../api/editions';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { Card, Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useApproveProof, useReturnProof } from '../api/decide-proof';
 
@@ -20,7 +19,7 @@ export function ProofPage() {
   const [notes, setNotes] = useState('');
   const [notesError, setNotesError] = useState<string | undefined>();
   if (edition.isPending) return <Loading />;
-  if (edition.error) return <Alert tone="danger">{errorMessage(edition.error)}</Alert>;
+  if (edition.error) return <ErrorAlert error={edition.error} />;
   const e = edition.data;
   const latest = e.proofs.at(-1);
   const pending = latest && latest.status === 'pending' && e.state === 'in_proof' ? latest : null;
@@ -29,8 +28,8 @@ export function ProofPage() {
       <PrintCaution />
       {approve.isSuccess ? <Alert tone="success">Approved. The press file is ready under Press files; the desk has been mailed.</Alert> : null}
       {ret.isSuccess ? <Alert tone="success">Returned to the desk with your notes.</Alert> : null}
-      {approve.error ? <Alert tone="danger" title="Could not approve">{errorMessage(approve.error)}</Alert> : null}
-      {ret.error ? <Alert tone="danger" title="Could not return">{errorMessage(ret.error)}</Alert> : null}
+      <ErrorAlert error={approve.error} title="Could not approve" />
+      <ErrorAlert error={ret.error} title="Could not return" />
       {pending ? (
         <Card title={`Proof v${pending.version}`}>
           <p className="text-sm">

@@ -1,12 +1,11 @@
 import { Link } from 'react-router-dom';
 import { editionStateLabels, type EditionSummary } from '../../../../shared/contracts/editions';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { PrintCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useSentEditions } from '../api/list-proofs';
 
@@ -50,7 +49,7 @@ export function ProofsPage() {
       {list.isPending ? (
         <Loading />
       ) : list.error ? (
-        <Alert tone="danger">{errorMessage(list.error)}</Alert>
+        <ErrorAlert error={list.error} />
       ) : (
         <>
           <h2 className="text-lg font-semibold">Waiting for you</h2>
@@ -73,7 +72,7 @@ export function PressFilesPage() {
   const rows = (list.data ?? []).filter((e) => e.hasPressFile);
   return (
     <Page title="Press files" description="Approved editions: the approved proof without the PROOF stamp, ready for the press.">
-      {list.isPending ? <Loading /> : list.error ? <Alert tone="danger">{errorMessage(list.error)}</Alert> : rows.length === 0 ? <EmptyState title="No press files yet" /> : <SentTable rows={rows} label="Press files" press />}
+      {list.isPending ? <Loading /> : list.error ? <ErrorAlert error={list.error} /> : rows.length === 0 ? <EmptyState title="No press files yet" /> : <SentTable rows={rows} label="Press files" press />}
     </Page>
   );
 }

@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { cadences, formatFee, publicationInputSchema, type Publication } from '../../../../shared/contracts/publications';
 import { usePublications } from '../../../api/publications';
 import { useTemplates } from '../../../api/templates';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TaxCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
@@ -13,7 +13,6 @@ import { FramedTable } from '../../../components/framed-table';
 import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useSavePublication } from '../api/save-publication';
 
 // The form edits fees as decimals ("45.00") and sends whole minor units (4500).
@@ -76,11 +75,7 @@ function PublicationForm({ editing, onDone }: { editing: Publication | null; onD
           </Button>
           <Button onClick={onDone}>Cancel</Button>
         </div>
-        {save.error ? (
-          <Alert tone="danger" title="Could not save" className="md:col-span-2">
-            {errorMessage(save.error)}
-          </Alert>
-        ) : null}
+        <ErrorAlert error={save.error} title="Could not save" className="md:col-span-2" />
       </form>
     </Card>
   );
@@ -105,7 +100,7 @@ export function PublicationsPage() {
       {list.isPending ? (
         <Loading />
       ) : list.error ? (
-        <Alert tone="danger">{errorMessage(list.error)}</Alert>
+        <ErrorAlert error={list.error} />
       ) : list.data.length === 0 ? (
         <EmptyState title="No publications yet" />
       ) : (

@@ -2,14 +2,13 @@ import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { puzzleCreateSchema, type PuzzleKind } from '../../../../shared/contracts/puzzles';
 import { useStockDetail } from '../../../api/stock';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button, ButtonLink } from '../../../components/button';
 import { CheckboxField } from '../../../components/checkbox-field';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TilingDrawing } from '../../../components/tiling-drawing';
-import { errorMessage } from '../../../lib/api-client';
 import { useCreatePuzzle } from '../api/puzzle-mutations';
 import { levelOptions, parseLevel } from './puzzle-labels';
 
@@ -53,7 +52,7 @@ export function NewPuzzlePage() {
     <Page title="Make a puzzle" description={<>From stock tiling <Link className="underline" to={`/stock/${stockId}`}>No. {stockId}</Link>. The engine proposes the starter pieces or givens and proves the solution unique; you can adjust them afterwards on the workbench.</>}>
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <Card title="The tiling">
-          {stock.isPending ? <Loading /> : stock.error ? <Alert tone="danger" title="Could not load the tiling">{errorMessage(stock.error)}</Alert> : (
+          {stock.isPending ? <Loading /> : stock.error ? <ErrorAlert error={stock.error} title="Could not load the tiling" /> : (
             <>
               <TilingDrawing tiling={stock.data.tiling} pixelWidth={360} />
               <p className="text-sm text-ink-muted">{stock.data.width} × {stock.data.height}, order {stock.data.order}{stock.data.perfect ? ', perfect' : ''}{stock.data.useCount > 0 ? ` · already used for ${stock.data.useCount} puzzle(s)` : ''}</p>
@@ -82,7 +81,7 @@ export function NewPuzzlePage() {
               </>
             ) : null}
             {formError ? <Alert tone="danger" title="Check the form">{formError}</Alert> : null}
-            {create.error ? <Alert tone="danger" title="Could not make the puzzle">{errorMessage(create.error)}</Alert> : null}
+            <ErrorAlert error={create.error} title="Could not make the puzzle" />
             <div><Button type="submit" variant="primary" busy={create.isPending}>Make and prove</Button></div>
           </form>
         </Card>

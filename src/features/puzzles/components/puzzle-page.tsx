@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import type { PuzzleDetail, PuzzleLevel } from '../../../../shared/contracts/puzzles';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { CheckboxField } from '../../../components/checkbox-field';
@@ -11,7 +11,6 @@ import { SelectField } from '../../../components/select-field';
 import { StatusBadge } from '../../../components/status-badge';
 import { Tabs } from '../../../components/tabs';
 import { TilingDrawing } from '../../../components/tiling-drawing';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { isProving, usePuzzle } from '../api/get-puzzle';
 import { useCancelPuzzle, useRecheckPuzzle, useUpdatePuzzle } from '../api/puzzle-mutations';
@@ -26,7 +25,7 @@ export function PuzzlePage() {
   const puzzle = usePuzzle(id);
   if (!Number.isInteger(id) || id < 1) return <Page title="Puzzle"><Alert tone="danger" title="No such puzzle">The address does not name a puzzle.</Alert></Page>;
   if (puzzle.isPending) return <Page title="Puzzle"><Loading /></Page>;
-  if (puzzle.error) return <Page title="Puzzle"><Alert tone="danger" title="Could not load the puzzle">{errorMessage(puzzle.error)}</Alert></Page>;
+  if (puzzle.error) return <Page title="Puzzle"><ErrorAlert error={puzzle.error} title="Could not load the puzzle" /></Page>;
   return <Workbench p={puzzle.data} />;
 }
 
@@ -105,8 +104,8 @@ function Workbench({ p }: { p: PuzzleDetail }) {
               <CheckboxField label="Print the frame’s width and height" checked={draftFrame ?? p.showFrame} onChange={(e) => setDraftFrame(e.target.checked)} />
             </div>
           ) : null}
-          {update.error ? <Alert tone="danger" title="Could not change the puzzle">{errorMessage(update.error)}</Alert> : null}
-          {recheck.error ? <Alert tone="danger" title="Could not re-check">{errorMessage(recheck.error)}</Alert> : null}
+          <ErrorAlert error={update.error} title="Could not change the puzzle" />
+          <ErrorAlert error={recheck.error} title="Could not re-check" />
           <div className="flex gap-2">
             <Button variant="primary" onClick={proveAgain} disabled={!changed} busy={update.isPending}>Prove again</Button>
             <Button onClick={discard} disabled={!changed}>Discard changes</Button>

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Dialog } from '../../../components/dialog';
 import { controlClasses } from '../../../components/field';
@@ -8,7 +8,6 @@ import { Loading } from '../../../components/page';
 import { SmithDiagram } from '../../../components/smith-diagram';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { useSubmissionDetail } from '../api/get-submission';
 import { useReviewSubmission } from '../api/review-submission';
@@ -54,8 +53,8 @@ export function ReviewDrawer({ id, onClose }: { id: number | null; onClose: () =
       }
     >
       {detail.isPending && id !== null ? <Loading /> : null}
-      {detail.error ? <Alert tone="danger" title="Could not load it">{errorMessage(detail.error)}</Alert> : null}
-      {review.error ? <Alert tone="danger" title="Not saved">{errorMessage(review.error)}</Alert> : null}
+      <ErrorAlert error={detail.error} title="Could not load it" />
+      <ErrorAlert error={review.error} title="Not saved" />
       {d ? (
         <div className="flex flex-col gap-4">
           <p className="text-sm text-ink-muted">

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { Submission } from '../../../../shared/contracts/submissions';
 import { useSubmissionList } from '../../../api/submissions';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
@@ -9,7 +9,6 @@ import { controlClasses } from '../../../components/field';
 import { Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { useBulkReview } from '../api/review-submission';
 import { ReviewDrawer } from './review-drawer';
@@ -85,7 +84,7 @@ export function ReviewPage() {
           <Button variant="danger" busy={bulk.isPending} disabled={!bulkNote.trim()} onClick={() => runBulk('reject')}>Reject selected</Button>
         </div>
       ) : null}
-      {bulk.error ? <Alert tone="danger" title="Nothing was changed">{errorMessage(bulk.error)}</Alert> : null}
+      <ErrorAlert error={bulk.error} title="Nothing was changed" />
       {failed.length > 0 ? (
         <Alert tone="warning" title={`${failed.length} could not be changed`}>
           <ul>{failed.map((f) => <li key={f.id}>Submission {f.id}: {f.error}</li>)}</ul>

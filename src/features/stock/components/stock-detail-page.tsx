@@ -1,12 +1,11 @@
 import { Link, useParams } from 'react-router-dom';
 import { useStockDetail } from '../../../api/stock';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { ButtonLink } from '../../../components/button';
 import { Card, Loading, Page } from '../../../components/page';
 import { SmithDiagram } from '../../../components/smith-diagram';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
-import { errorMessage } from '../../../lib/api-client';
 import { formatDate, formatDateTime } from '../../../lib/format';
 
 const eventText = { submitted: 'Submitted', accepted: 'Accepted into the stock', added: 'Added' } as const;
@@ -17,7 +16,7 @@ export function StockDetailPage() {
   const n = Number(id);
   const detail = useStockDetail(Number.isInteger(n) && n > 0 ? n : 0);
   if (detail.isPending) return <Loading />;
-  if (detail.error) return <Alert tone="danger" title="Could not load this tiling">{errorMessage(detail.error)}</Alert>;
+  if (detail.error) return <ErrorAlert error={detail.error} title="Could not load this tiling" />;
   const d = detail.data;
   return (
     <Page

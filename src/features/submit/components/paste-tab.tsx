@@ -1,11 +1,10 @@
 import { useId, useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { MAX_NOTE, MAX_TITLE } from '../../../../shared/contracts/submissions';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { controlClasses } from '../../../components/field';
 import { TextField } from '../../../components/text-field';
-import { errorMessage } from '../../../lib/api-client';
 import { useCheckTiling } from '../api/check-tiling';
 import { useCreateSubmission } from '../api/create-submission';
 import { useDebounced } from './use-debounced';
@@ -76,11 +75,7 @@ export function PasteTab() {
             Your tiling is in the review queue{create.data.duplicateOf ? ' (flagged as a duplicate)' : ''}. Follow it on <Link to="/submissions">My submissions</Link>.
           </Alert>
         ) : null}
-        {create.error ? (
-          <Alert tone="danger" title="Not submitted">
-            {errorMessage(create.error)}
-          </Alert>
-        ) : null}
+        <ErrorAlert error={create.error} title="Not submitted" />
       </div>
       <section aria-label="Verdict" aria-live="polite" className="flex flex-col gap-3">
         {!debounced ? (
@@ -88,9 +83,7 @@ export function PasteTab() {
         ) : check.isPending || !current ? (
           <p className="text-sm text-ink-muted">Checking…</p>
         ) : check.error ? (
-          <Alert tone="danger" title="Could not check the code">
-            {errorMessage(check.error)}
-          </Alert>
+          <ErrorAlert error={check.error} title="Could not check the code" />
         ) : check.data ? (
           <VerdictView verdict={check.data} />
         ) : null}

@@ -1,11 +1,10 @@
 import { useMemo, useRef, useState, type PointerEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { planeGraphFromDrawing, solvePlaneNetwork, TilingInputError, type Tiling } from '../../../../shared/tiling/index';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { tilingPalette } from '../../../components/tiling-palette';
-import { errorMessage } from '../../../lib/api-client';
 import { useCreateSubmission } from '../api/create-submission';
 
 type Mode = 'nodes' | 'edges' | 'poles';
@@ -186,7 +185,7 @@ export function SketchTab() {
           </>
         ) : null}
         {create.isSuccess ? <Alert tone="success" title="Submitted">Follow it on <Link to="/submissions">My submissions</Link>.</Alert> : null}
-        {create.error ? <Alert tone="danger" title="Not submitted">{errorMessage(create.error)}</Alert> : null}
+        <ErrorAlert error={create.error} title="Not submitted" />
       </section>
     </div>
   );

@@ -1,11 +1,10 @@
 import { useId, useState, type DragEvent } from 'react';
 import type { UploadLine, UploadReport } from '../../../../shared/contracts/submissions';
 import { MAX_UPLOAD_BYTES, MAX_UPLOAD_LINES } from '../../../../shared/contracts/submissions';
-import { Alert } from '../../../components/alert';
+import { Alert, ErrorAlert } from '../../../components/alert';
 import { FramedTable } from '../../../components/framed-table';
 import { ProgressBar } from '../../../components/progress-bar';
 import { StatusBadge } from '../../../components/status-badge';
-import { errorMessage } from '../../../lib/api-client';
 import { useUploadSubmissions, type UploadProgress } from '../api/upload-submissions';
 import { whereText } from './verdict-view';
 
@@ -61,7 +60,7 @@ export function UploadTab() {
         )
       ) : null}
       {localError ? <Alert tone="danger" title="Not uploaded">{localError}</Alert> : null}
-      {upload.error ? <Alert tone="danger" title="Not uploaded">{errorMessage(upload.error)}</Alert> : null}
+      <ErrorAlert error={upload.error} title="Not uploaded" />
       {upload.data ? <UploadReportView report={upload.data} /> : null}
     </div>
   );

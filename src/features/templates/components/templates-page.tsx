@@ -1,9 +1,8 @@
 import { useState } from 'react';
 import { useTemplates } from '../../../api/templates';
-import { Alert } from '../../../components/alert';
+import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { Card, Loading, Page } from '../../../components/page';
-import { errorMessage } from '../../../lib/api-client';
 
 /** /admin/templates: the page templates (templates/pages) and a sample page of each. */
 export function TemplatesPage() {
@@ -14,7 +13,7 @@ export function TemplatesPage() {
       {list.isPending ? (
         <Loading />
       ) : list.error ? (
-        <Alert tone="danger">{errorMessage(list.error)}</Alert>
+        <ErrorAlert error={list.error} />
       ) : (
         <div className="grid gap-4 lg:grid-cols-3">
           {list.data.map(({ template: t, pageWidthMm, pageHeightMm, columnWidthMm }) => (
