@@ -68,6 +68,28 @@ export interface DataTableProps<T extends RowData> {
 
 const noRows: never[] = [];
 
+/** A list query whose answer is one page, `{ items, total }` (the server's pageOf). */
+export interface PageQuery<T> {
+  data?: { items: readonly T[]; total: number };
+  isFetching: boolean;
+  error: unknown;
+}
+
+/**
+ * The DataTable props a page query fills in: its rows (a stable empty array while loading),
+ * total, loading and error, and rows keyed by their id.
+ * `<DataTable label="Puzzles" columns={columns} params={params} {...pageQueryProps(list)} />`.
+ */
+export function pageQueryProps<T extends { id: string | number }>(query: PageQuery<T>) {
+  return {
+    rows: query.data?.items ?? noRows,
+    total: query.data?.total,
+    loading: query.isFetching,
+    error: query.error,
+    getRowId: (row: T) => String(row.id),
+  };
+}
+
 /** True when a row event started on a control inside the row (checkbox, link, button): that control handles it, not the row. */
 function fromControlInside(event: React.SyntheticEvent): boolean {
   const target = event.target as Element | null;

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { PlainTable, type TableHeading } from './plain-table';
 
 /**
  * A plain (not sortable, not paged) table in a framed box that scrolls sideways on narrow
@@ -6,22 +7,12 @@ import type { ReactNode } from 'react';
  * heading is an actions column, named for screen readers only. `ruledHead` draws a rule
  * under the header and sets it bold. For sortable, filtered, paged lists use DataTable.
  */
-export function FramedTable({ caption, headings, ruledHead = false, children }: { caption: ReactNode; headings: readonly string[]; ruledHead?: boolean; children: ReactNode }) {
+export function FramedTable({ caption, headings, ruledHead = false, children }: { caption: ReactNode; headings: readonly TableHeading[]; ruledHead?: boolean; children: ReactNode }) {
   return (
     <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-      <table className="w-full border-collapse text-sm">
-        <caption className="sr-only">{caption}</caption>
-        <thead className="bg-paper-deep text-left">
-          <tr>
-            {headings.map((h, i) => (
-              <th key={i} scope="col" className={ruledHead ? 'border-b border-rule px-3 py-2 font-semibold' : 'px-3 py-2'}>
-                {h || <span className="sr-only">Actions</span>}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>{children}</tbody>
-      </table>
+      <PlainTable caption={caption} headings={headings} ruledHead={ruledHead} boldHead={ruledHead} shadedHead>
+        {children}
+      </PlainTable>
     </div>
   );
 }

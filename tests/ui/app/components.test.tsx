@@ -6,6 +6,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { ErrorAlert } from '../../../src/components/alert';
 import { FramedTable } from '../../../src/components/framed-table';
 import { ApiError } from '../../../src/lib/api-client';
+import { PlainTable } from '../../../src/components/plain-table';
 import { ProgressBar } from '../../../src/components/progress-bar';
 import { StatusBadge } from '../../../src/components/status-badge';
 import { Tabs } from '../../../src/components/tabs';
@@ -65,6 +66,24 @@ describe('shared components', () => {
     const table = screen.getByRole('table', { name: 'Caught mail' });
     expect(screen.getAllByRole('columnheader').map((h) => h.textContent)).toEqual(['Subject', 'Actions']);
     expect(table.querySelectorAll('tbody tr')).toHaveLength(1);
+  });
+
+  it('PlainTable right-aligns a numeric heading and puts totals in the footer, apart from the body rows', () => {
+    render(
+      <PlainTable caption="Entries of 2026-11" headings={['Date', { label: 'Amount', numeric: true }]} dense footer={<tr><th scope="row">Total earned</th><td>£45.00</td></tr>}>
+        <tr>
+          <td>2 Nov 2026</td>
+          <td>£45.00</td>
+        </tr>
+      </PlainTable>,
+    );
+    const table = screen.getByRole('table', { name: 'Entries of 2026-11' });
+    const [date, amount] = screen.getAllByRole('columnheader');
+    expect(amount?.textContent).toBe('Amount');
+    expect(amount?.className).toContain('text-right');
+    expect(date?.className).not.toContain('text-right');
+    expect(table.querySelectorAll('tbody tr')).toHaveLength(1);
+    expect(table.querySelector('tfoot')?.textContent).toBe('Total earned£45.00');
   });
 
   it('ProgressBar reports its value to assistive technology, and says when it is indeterminate', () => {

@@ -10,6 +10,7 @@ import { CautionNote } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
 import { PayoutStateBadge } from '../../../components/payout-state-badge';
+import { PlainTable } from '../../../components/plain-table';
 import { SelectField } from '../../../components/select-field';
 import { StatusBadge } from '../../../components/status-badge';
 import { formatDate, formatDateTime } from '../../../lib/format';
@@ -114,29 +115,18 @@ function PayoutsCard({ payouts }: { payouts: Earnings['payouts'] }) {
       {payouts.length === 0 ? (
         <EmptyState title="No payouts yet" />
       ) : (
-        <table className="w-full border-collapse text-sm">
-          <caption className="sr-only">Payouts to you</caption>
-          <thead className="text-left">
-            <tr>
-              <th scope="col" className="border-b border-rule px-3 py-2">Started</th>
-              <th scope="col" className="border-b border-rule px-3 py-2 text-right">Amount</th>
-              <th scope="col" className="border-b border-rule px-3 py-2">State</th>
-              <th scope="col" className="border-b border-rule px-3 py-2">Note</th>
+        <PlainTable caption="Payouts to you" headings={['Started', { label: 'Amount', numeric: true }, 'State', 'Note']}>
+          {payouts.map((p) => (
+            <tr key={p.id} className="border-b border-rule last:border-b-0">
+              <td className="px-3 py-2 tabular-nums">{formatDateTime(p.createdAt)}</td>
+              <td className="px-3 py-2 text-right tabular-nums">{formatMoney(p.amountMinor, p.currency)}</td>
+              <td className="px-3 py-2"><PayoutStateBadge state={p.state} /></td>
+              <td className="px-3 py-2 text-ink-soft">
+                {p.state === 'paid' && p.paidAt ? `Paid ${formatDateTime(p.paidAt)}` : p.state === 'failed' ? 'Not paid yet; the editors will retry it.' : 'On its way'}
+              </td>
             </tr>
-          </thead>
-          <tbody>
-            {payouts.map((p) => (
-              <tr key={p.id} className="border-b border-rule last:border-b-0">
-                <td className="px-3 py-2 tabular-nums">{formatDateTime(p.createdAt)}</td>
-                <td className="px-3 py-2 text-right tabular-nums">{formatMoney(p.amountMinor, p.currency)}</td>
-                <td className="px-3 py-2"><PayoutStateBadge state={p.state} /></td>
-                <td className="px-3 py-2 text-ink-soft">
-                  {p.state === 'paid' && p.paidAt ? `Paid ${formatDateTime(p.paidAt)}` : p.state === 'failed' ? 'Not paid yet; the editors will retry it.' : 'On its way'}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </PlainTable>
       )}
     </Card>
   );
@@ -183,27 +173,17 @@ function EntriesCard({ entries }: { entries: Earnings['entries'] }) {
       {entries.length === 0 ? (
         <EmptyState title="No entries yet" />
       ) : (
-        <table className="w-full border-collapse text-sm">
-          <caption className="sr-only">Your ledger entries, newest first</caption>
-          <thead className="text-left">
-            <tr>
-              <th scope="col" className="border-b border-rule px-3 py-2">Date</th>
-              <th scope="col" className="border-b border-rule px-3 py-2">What</th>
-              <th scope="col" className="border-b border-rule px-3 py-2 text-right">Amount</th>
+        <PlainTable caption="Your ledger entries, newest first" headings={['Date', 'What', { label: 'Amount', numeric: true }]}>
+          {entries.map((e) => (
+            <tr key={e.id} className="border-b border-rule last:border-b-0">
+              <td className="px-3 py-2 tabular-nums">{formatDate(e.date)}</td>
+              <td className="px-3 py-2">
+                {e.kind === 'fee' ? `Fee: ${e.puzzleKind === 'deduction' ? 'Deduction' : 'Assembly'} puzzle printed` : `Correction: ${e.reason ?? ''}`}
+              </td>
+              <td className="px-3 py-2 text-right tabular-nums">{formatMoney(e.amountMinor, e.currency)}</td>
             </tr>
-          </thead>
-          <tbody>
-            {entries.map((e) => (
-              <tr key={e.id} className="border-b border-rule last:border-b-0">
-                <td className="px-3 py-2 tabular-nums">{formatDate(e.date)}</td>
-                <td className="px-3 py-2">
-                  {e.kind === 'fee' ? `Fee: ${e.puzzleKind === 'deduction' ? 'Deduction' : 'Assembly'} puzzle printed` : `Correction: ${e.reason ?? ''}`}
-                </td>
-                <td className="px-3 py-2 text-right tabular-nums">{formatMoney(e.amountMinor, e.currency)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </PlainTable>
       )}
     </Card>
   );

@@ -2,6 +2,7 @@ import { formatMoney } from '../../../../shared/contracts/ledger';
 import { ErrorAlert } from '../../../components/alert';
 import { Dialog } from '../../../components/dialog';
 import { Loading } from '../../../components/page';
+import { PlainTable } from '../../../components/plain-table';
 import { formatDate } from '../../../lib/format';
 import { statementCsvUrl, useStatement } from '../api/get-statement';
 
@@ -20,39 +21,35 @@ export function StatementDialog({ month, onClose }: { month: string; onClose: ()
             {statement.data.setterName} · {statement.data.entries.length} entries ·{' '}
             <a className="underline" href={statementCsvUrl(month)} download>download as CSV</a>
           </p>
-          <table className="w-full border-collapse text-sm">
-            <caption className="sr-only">Entries of {month}</caption>
-            <thead className="text-left">
-              <tr>
-                <th scope="col" className="border-b border-rule px-2 py-1">Date</th>
-                <th scope="col" className="border-b border-rule px-2 py-1">What</th>
-                <th scope="col" className="border-b border-rule px-2 py-1 text-right">Amount</th>
+          <PlainTable
+            caption={`Entries of ${month}`}
+            headings={['Date', 'What', { label: 'Amount', numeric: true }]}
+            dense
+            footer={
+              <>
+                {statement.data.totals.map((t) => (
+                  <tr key={t.currency}>
+                    <th scope="row" colSpan={2} className="px-2 py-1 text-left">Total earned</th>
+                    <td className="px-2 py-1 text-right font-semibold tabular-nums">{formatMoney(t.amountMinor, t.currency)}</td>
+                  </tr>
+                ))}
+                {statement.data.paid.map((t) => (
+                  <tr key={`paid-${t.currency}`}>
+                    <th scope="row" colSpan={2} className="px-2 py-1 text-left">Paid out this month</th>
+                    <td className="px-2 py-1 text-right tabular-nums">{formatMoney(t.amountMinor, t.currency)}</td>
+                  </tr>
+                ))}
+              </>
+            }
+          >
+            {statement.data.entries.map((e) => (
+              <tr key={e.id} className="border-b border-rule">
+                <td className="px-2 py-1 tabular-nums">{formatDate(e.date)}</td>
+                <td className="px-2 py-1">{e.kind === 'fee' ? `Fee, ${e.puzzleKind ?? 'puzzle'}` : `Correction: ${e.reason ?? ''}`}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatMoney(e.amountMinor, e.currency)}</td>
               </tr>
-            </thead>
-            <tbody>
-              {statement.data.entries.map((e) => (
-                <tr key={e.id} className="border-b border-rule">
-                  <td className="px-2 py-1 tabular-nums">{formatDate(e.date)}</td>
-                  <td className="px-2 py-1">{e.kind === 'fee' ? `Fee, ${e.puzzleKind ?? 'puzzle'}` : `Correction: ${e.reason ?? ''}`}</td>
-                  <td className="px-2 py-1 text-right tabular-nums">{formatMoney(e.amountMinor, e.currency)}</td>
-                </tr>
-              ))}
-            </tbody>
-            <tfoot>
-              {statement.data.totals.map((t) => (
-                <tr key={t.currency}>
-                  <th scope="row" colSpan={2} className="px-2 py-1 text-left">Total earned</th>
-                  <td className="px-2 py-1 text-right font-semibold tabular-nums">{formatMoney(t.amountMinor, t.currency)}</td>
-                </tr>
-              ))}
-              {statement.data.paid.map((t) => (
-                <tr key={`paid-${t.currency}`}>
-                  <th scope="row" colSpan={2} className="px-2 py-1 text-left">Paid out this month</th>
-                  <td className="px-2 py-1 text-right tabular-nums">{formatMoney(t.amountMinor, t.currency)}</td>
-                </tr>
-              ))}
-            </tfoot>
-          </table>
+            ))}
+          </PlainTable>
         </div>
       )}
     </Dialog>

@@ -7,6 +7,7 @@ import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button, buttonClasses } from '../../../components/button';
 import { PrintCaution } from '../../../components/caution-note';
 import { Card, Loading, Page } from '../../../components/page';
+import { PlainTable } from '../../../components/plain-table';
 import { SelectField } from '../../../components/select-field';
 import { StatusBadge } from '../../../components/status-badge';
 import { TextField } from '../../../components/text-field';
@@ -210,35 +211,22 @@ function Proofs({ edition }: { edition: Edition }) {
         <p className="text-sm text-ink-muted">No proof sent yet.</p>
       ) : (
         <div className="overflow-x-auto">
-          <table className="w-full border-collapse text-sm">
-            <caption className="sr-only">Proofs of this edition</caption>
-            <thead className="text-left">
-              <tr>
-                <th scope="col" className="px-2 py-1">Version</th>
-                <th scope="col" className="px-2 py-1">Sent</th>
-                <th scope="col" className="px-2 py-1">Pages</th>
-                <th scope="col" className="px-2 py-1">State</th>
-                <th scope="col" className="px-2 py-1">Printer’s notes</th>
-                <th scope="col" className="px-2 py-1">File</th>
+          <PlainTable caption="Proofs of this edition" headings={['Version', 'Sent', 'Pages', 'State', 'Printer’s notes', 'File']} dense ruledHead={false}>
+            {edition.proofs.map((p) => (
+              <tr key={p.version} className="border-t border-rule">
+                <td className="px-2 py-1 tabular-nums">{`v${p.version}`}</td>
+                <td className="px-2 py-1 whitespace-nowrap">{`${formatDateTime(p.createdAt)}${p.createdByName ? ` by ${p.createdByName}` : ''}`}</td>
+                <td className="px-2 py-1 tabular-nums">{p.pages}</td>
+                <td className="px-2 py-1">
+                  <StatusBadge tone={p.status === 'approved' ? 'success' : p.status === 'returned' ? 'warning' : 'neutral'}>{p.status[0]!.toUpperCase() + p.status.slice(1)}</StatusBadge>
+                </td>
+                <td className="px-2 py-1">{p.notes ?? '—'}</td>
+                <td className="px-2 py-1">
+                  <a href={`/api/editions/${edition.id}/proofs/${p.version}.pdf?download=1`}>{`Download v${p.version}`}</a>
+                </td>
               </tr>
-            </thead>
-            <tbody>
-              {edition.proofs.map((p) => (
-                <tr key={p.version} className="border-t border-rule">
-                  <td className="px-2 py-1 tabular-nums">{`v${p.version}`}</td>
-                  <td className="px-2 py-1 whitespace-nowrap">{`${formatDateTime(p.createdAt)}${p.createdByName ? ` by ${p.createdByName}` : ''}`}</td>
-                  <td className="px-2 py-1 tabular-nums">{p.pages}</td>
-                  <td className="px-2 py-1">
-                    <StatusBadge tone={p.status === 'approved' ? 'success' : p.status === 'returned' ? 'warning' : 'neutral'}>{p.status[0]!.toUpperCase() + p.status.slice(1)}</StatusBadge>
-                  </td>
-                  <td className="px-2 py-1">{p.notes ?? '—'}</td>
-                  <td className="px-2 py-1">
-                    <a href={`/api/editions/${edition.id}/proofs/${p.version}.pdf?download=1`}>{`Download v${p.version}`}</a>
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </PlainTable>
         </div>
       )}
       {edition.pressFile ? (

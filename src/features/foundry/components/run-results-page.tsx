@@ -3,6 +3,7 @@ import { Link, useParams } from 'react-router-dom';
 import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
+import { FramedTable } from '../../../components/framed-table';
 import { Card, Loading, Page } from '../../../components/page';
 import { isActive } from '../api/list-runs';
 import { useRun, useRunResults } from '../api/run-results';
@@ -26,30 +27,18 @@ export function RunResultsPage() {
         <EmptyState title="Nothing found yet" />
       ) : (
         <div className="flex flex-col gap-3">
-          <div className="overflow-x-auto rounded-lg border border-rule bg-surface">
-            <table className="w-full border-collapse text-sm">
-              <caption className="sr-only">Tilings found by this run</caption>
-              <thead className="bg-paper-deep text-left">
-                <tr>
-                  {['Order', 'Size', 'Class', 'Largest square', 'Bouwkamp code', 'Stock'].map((h) => (
-                    <th key={h} scope="col" className="border-b border-rule px-3 py-2 font-semibold">{h}</th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                {results.data.items.map((r) => (
-                  <tr key={r.canonicalKey} className="border-b border-rule last:border-b-0">
-                    <td className="px-3 py-2 tabular-nums">{r.order}</td>
-                    <td className="px-3 py-2 tabular-nums">{r.width} × {r.height}</td>
-                    <td className="px-3 py-2">{[r.simple ? 'simple' : 'compound', r.perfect ? 'perfect' : 'imperfect', r.square ? 'square' : ''].filter(Boolean).join(', ')}</td>
-                    <td className="px-3 py-2 tabular-nums">{r.maxSize}</td>
-                    <td className="max-w-md px-3 py-2"><code className="break-all text-xs text-ink-soft">{r.code}</code></td>
-                    <td className="px-3 py-2">{r.stockId !== null ? <Link className="text-accent-strong underline" to={`/stock/${r.stockId}`}>#{r.stockId}</Link> : '—'}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <FramedTable caption="Tilings found by this run" headings={['Order', 'Size', 'Class', 'Largest square', 'Bouwkamp code', 'Stock']} ruledHead>
+            {results.data.items.map((r) => (
+              <tr key={r.canonicalKey} className="border-b border-rule last:border-b-0">
+                <td className="px-3 py-2 tabular-nums">{r.order}</td>
+                <td className="px-3 py-2 tabular-nums">{r.width} × {r.height}</td>
+                <td className="px-3 py-2">{[r.simple ? 'simple' : 'compound', r.perfect ? 'perfect' : 'imperfect', r.square ? 'square' : ''].filter(Boolean).join(', ')}</td>
+                <td className="px-3 py-2 tabular-nums">{r.maxSize}</td>
+                <td className="max-w-md px-3 py-2"><code className="break-all text-xs text-ink-soft">{r.code}</code></td>
+                <td className="px-3 py-2">{r.stockId !== null ? <Link className="text-accent-strong underline" to={`/stock/${r.stockId}`}>#{r.stockId}</Link> : '—'}</td>
+              </tr>
+            ))}
+          </FramedTable>
           <div className="flex items-center gap-3 text-sm">
             <Button size="sm" disabled={page <= 1} onClick={() => setPage(page - 1)}>Previous</Button>
             <span className="tabular-nums text-ink-muted">Page {page} of {Math.max(1, Math.ceil(results.data.total / 100))} · {results.data.total} tilings</span>

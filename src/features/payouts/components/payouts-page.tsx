@@ -7,6 +7,7 @@ import { TaxCaution } from '../../../components/caution-note';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Loading, Page } from '../../../components/page';
 import { PayoutStateBadge } from '../../../components/payout-state-badge';
+import { PlainTable } from '../../../components/plain-table';
 import { StatusBadge } from '../../../components/status-badge';
 import { formatDateTime } from '../../../lib/format';
 import { usePayouts } from '../api/get-payouts';
@@ -90,33 +91,22 @@ function detailsBadge(row: OwedRow) {
 function OwedTable({ rows, onCorrect }: { rows: OwedRow[]; onCorrect: (row: OwedRow) => void }) {
   return (
     <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-sm">
-        <caption className="sr-only">Owed per setter</caption>
-        <thead className="bg-paper-deep text-left">
-          <tr>
-            <th scope="col" className="border-b border-rule px-3 py-2">Setter</th>
-            <th scope="col" className="border-b border-rule px-3 py-2 text-right">Owed</th>
-            <th scope="col" className="border-b border-rule px-3 py-2">Payout details</th>
-            <th scope="col" className="border-b border-rule px-3 py-2"><span className="sr-only">Actions</span></th>
+      <PlainTable caption="Owed per setter" headings={['Setter', { label: 'Owed', numeric: true }, 'Payout details', '']} shadedHead>
+        {rows.map((row) => (
+          <tr key={`${row.setterId}-${row.currency}`} className="border-b border-rule last:border-b-0">
+            <td className="px-3 py-2">
+              <span className="font-medium">{row.setterName}</span> <code className="text-ink-muted">{row.email}</code>
+            </td>
+            <td className="px-3 py-2 text-right tabular-nums">{formatMoney(row.owedMinor, row.currency)}</td>
+            <td className="px-3 py-2">{detailsBadge(row)}</td>
+            <td className="px-3 py-2 text-right">
+              <Button size="sm" variant="ghost" onClick={() => onCorrect(row)} aria-label={`Add a correction for ${row.setterName}`}>
+                Correction…
+              </Button>
+            </td>
           </tr>
-        </thead>
-        <tbody>
-          {rows.map((row) => (
-            <tr key={`${row.setterId}-${row.currency}`} className="border-b border-rule last:border-b-0">
-              <td className="px-3 py-2">
-                <span className="font-medium">{row.setterName}</span> <code className="text-ink-muted">{row.email}</code>
-              </td>
-              <td className="px-3 py-2 text-right tabular-nums">{formatMoney(row.owedMinor, row.currency)}</td>
-              <td className="px-3 py-2">{detailsBadge(row)}</td>
-              <td className="px-3 py-2 text-right">
-                <Button size="sm" variant="ghost" onClick={() => onCorrect(row)} aria-label={`Add a correction for ${row.setterName}`}>
-                  Correction…
-                </Button>
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+        ))}
+      </PlainTable>
     </div>
   );
 }
@@ -135,23 +125,11 @@ function RunCard({ run, retryingId, onRetry }: { run: PayoutRun; retryingId: str
       <p className="text-sm text-ink-muted">
         {totalsFor(run.payouts)} · {counts.paid} paid, {counts.pending} pending, {counts.failed} failed
       </p>
-      <table className="w-full border-collapse text-sm">
-        <caption className="sr-only">Payouts of the run of {formatDateTime(run.createdAt)}</caption>
-        <thead className="text-left">
-          <tr>
-            <th scope="col" className="border-b border-rule px-3 py-2">Setter</th>
-            <th scope="col" className="border-b border-rule px-3 py-2 text-right">Amount</th>
-            <th scope="col" className="border-b border-rule px-3 py-2">State</th>
-            <th scope="col" className="border-b border-rule px-3 py-2">Note</th>
-            <th scope="col" className="border-b border-rule px-3 py-2"><span className="sr-only">Actions</span></th>
-          </tr>
-        </thead>
-        <tbody>
-          {run.payouts.map((p) => (
-            <PayoutRow key={p.id} payout={p} retrying={retryingId === p.id} onRetry={() => onRetry(p.id)} />
-          ))}
-        </tbody>
-      </table>
+      <PlainTable caption={`Payouts of the run of ${formatDateTime(run.createdAt)}`} headings={['Setter', { label: 'Amount', numeric: true }, 'State', 'Note', '']}>
+        {run.payouts.map((p) => (
+          <PayoutRow key={p.id} payout={p} retrying={retryingId === p.id} onRetry={() => onRetry(p.id)} />
+        ))}
+      </PlainTable>
     </Card>
   );
 }

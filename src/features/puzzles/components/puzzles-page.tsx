@@ -2,7 +2,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import type { PuzzleSummary } from '../../../../shared/contracts/puzzles';
 import { usePuzzleList } from '../../../api/puzzles';
 import { ButtonLink } from '../../../components/button';
-import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
+import { DataTable, dataTableColumnHelper, pageQueryProps } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
@@ -44,12 +44,8 @@ export function PuzzlesPage() {
       <DataTable
         label="Puzzles"
         columns={columns}
-        rows={list.data?.items ?? []}
-        total={list.data?.total}
         params={params}
-        loading={list.isFetching}
-        error={list.error}
-        getRowId={(r) => String(r.id)}
+        {...pageQueryProps(list)}
         onRowActivate={(r) => navigate(`/puzzles/${r.id}`)}
         filters={[
           { id: 'kind', label: 'Kind', kind: 'select', options: [{ value: 'assembly', label: 'Assembly' }, { value: 'deduction', label: 'Deduction' }] },

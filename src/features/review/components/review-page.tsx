@@ -3,7 +3,7 @@ import type { Submission } from '../../../../shared/contracts/submissions';
 import { useSubmissionList } from '../../../api/submissions';
 import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
-import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
+import { DataTable, dataTableColumnHelper, pageQueryProps } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { controlClasses } from '../../../components/field';
 import { Page } from '../../../components/page';
@@ -26,7 +26,6 @@ export function ReviewPage() {
   const [selected, setSelected] = useState<Set<number>>(new Set());
   const [bulkNote, setBulkNote] = useState('');
   const bulk = useBulkReview();
-  const rows = list.data?.items ?? [];
 
   const toggle = (id: number) => setSelected((s) => { const n = new Set(s); if (n.has(id)) n.delete(id); else n.add(id); return n; });
   const columns = col.columns([
@@ -93,12 +92,8 @@ export function ReviewPage() {
       <DataTable
         label="Submissions to review"
         columns={columns}
-        rows={rows}
-        total={list.data?.total}
         params={params}
-        loading={list.isFetching}
-        error={list.error}
-        getRowId={(r) => String(r.id)}
+        {...pageQueryProps(list)}
         onRowActivate={(r) => setOpen(r.id)}
         filters={[
           { id: 'q', label: 'Title contains', kind: 'text' },

@@ -1,7 +1,7 @@
 import { useNavigate } from 'react-router-dom';
 import { listItemTiling, type StockListItem } from '../../../../shared/contracts/stock';
 import { buttonClasses } from '../../../components/button';
-import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
+import { DataTable, dataTableColumnHelper, pageQueryProps } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { Card, Page } from '../../../components/page';
 import { TilingDrawing } from '../../../components/tiling-drawing';
@@ -52,12 +52,8 @@ export function StockPage() {
       <DataTable
         label="Stock tilings"
         columns={columns}
-        rows={list.data?.items ?? []}
-        total={list.data?.total}
         params={params}
-        loading={list.isFetching}
-        error={list.error}
-        getRowId={(r) => String(r.id)}
+        {...pageQueryProps(list)}
         onRowActivate={(r) => navigate(`/stock/${r.id}`)}
         filters={[
           { id: 'orderMin', label: 'Order from', kind: 'text' },

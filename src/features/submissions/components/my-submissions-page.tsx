@@ -1,7 +1,7 @@
 import type { Submission } from '../../../../shared/contracts/submissions';
 import { useSubmissionList } from '../../../api/submissions';
 import { ButtonLink } from '../../../components/button';
-import { DataTable, dataTableColumnHelper } from '../../../components/data-table';
+import { DataTable, dataTableColumnHelper, pageQueryProps } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { Page } from '../../../components/page';
 import { toListSearch, useTableSearchParams } from '../../../components/use-table-search-params';
@@ -35,12 +35,8 @@ export function MySubmissionsPage() {
       <DataTable
         label="My submissions"
         columns={columns}
-        rows={list.data?.items ?? []}
-        total={list.data?.total}
         params={params}
-        loading={list.isFetching}
-        error={list.error}
-        getRowId={(r) => String(r.id)}
+        {...pageQueryProps(list)}
         filters={[
           { id: 'q', label: 'Title contains', kind: 'text' },
           { id: 'status', label: 'State', kind: 'select', options: [{ value: 'pending', label: 'Pending review' }, { value: 'accepted', label: 'Accepted' }, { value: 'rejected', label: 'Not accepted' }] },
