@@ -1,13 +1,18 @@
 import { useEffect, type ReactNode } from 'react';
 
+/** Names the browser tab after the page: "Stock · Squarewright". */
+export function useDocumentTitle(title: string) {
+  useEffect(() => {
+    document.title = `${title} · Squarewright`;
+  }, [title]);
+}
+
 /**
  * The frame of one page: an h1 title, optional one-line description, actions on the
  * right, then the content. Also sets the document title.
  */
 export function Page({ title, description, actions, children }: { title: string; description?: ReactNode; actions?: ReactNode; children?: ReactNode }) {
-  useEffect(() => {
-    document.title = `${title} · Squarewright`;
-  }, [title]);
+  useDocumentTitle(title);
   return (
     <div className="flex flex-col gap-6">
       <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-4">

@@ -1,4 +1,4 @@
-import { tilingPalette } from './tiling-palette';
+import { numberLabelProps, tilingPalette } from './tiling-palette';
 
 export interface SmithDiagramNode { id: number; y: number; x0: number; x1: number }
 export interface SmithDiagramEdge { square: number; from: number; to: number; x: number; current: number }
@@ -69,8 +69,7 @@ export function SmithDiagram({ diagram, title, labels = true, className }: Smith
                 y={mid}
                 fontSize={fontSize}
                 dominantBaseline="central"
-                fill={tilingPalette.ink}
-                style={{ fontVariantNumeric: 'tabular-nums', fontFamily: 'var(--font-sans, sans-serif)' }}
+                {...numberLabelProps}
               >
                 {e.current}
               </text>

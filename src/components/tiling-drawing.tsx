@@ -1,4 +1,4 @@
-import { fillForSize, tilingPalette } from './tiling-palette';
+import { fillForSize, numberLabelProps, tilingPalette } from './tiling-palette';
 
 export interface TilingDrawingSquare { x: number; y: number; s: number }
 export interface TilingDrawingTiling { W: number; H: number; squares: TilingDrawingSquare[] }
@@ -61,8 +61,7 @@ export function TilingDrawing({ tiling, highlight, title, labels = true, pixelWi
                 fontSize={fontSize}
                 textAnchor="middle"
                 dominantBaseline="central"
-                fill={tilingPalette.ink}
-                style={{ fontVariantNumeric: 'tabular-nums', fontFamily: 'var(--font-sans, sans-serif)' }}
+                {...numberLabelProps}
               >
                 {q.s}
               </text>

@@ -8,6 +8,12 @@ export const tilingPalette = {
   muted: '#7a7f88',
 } as const;
 
+/** The SVG text attributes of the numbers on a drawing (square sizes, currents): ink, tabular figures. */
+export const numberLabelProps = {
+  fill: tilingPalette.ink,
+  style: { fontVariantNumeric: 'tabular-nums', fontFamily: 'var(--font-sans, sans-serif)' },
+} as const;
+
 /** A fill for a square, stable for a given size so equal sizes share a colour. */
 export function fillForSize(size: number): string {
   const fills = tilingPalette.fills;

@@ -1,11 +1,10 @@
-import { useEffect, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
 import { SquarewrightMark } from '../../../components/mark';
+import { useDocumentTitle } from '../../../components/page';
 
 /** The quiet frame of the signed-out pages: mark, name, one card, an optional aside. */
 export function AuthFrame({ title, children, aside }: { title: string; children: ReactNode; aside?: ReactNode }) {
-  useEffect(() => {
-    document.title = `${title} · Squarewright`;
-  }, [title]);
+  useDocumentTitle(title);
   return (
     <div className="flex min-h-dvh flex-col items-center bg-paper px-4 py-12">
       <div className="flex w-full max-w-md flex-col gap-6">
