@@ -1,13 +1,11 @@
-import { and, asc, count, desc, eq, gt, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
 import { canonicalTiling, isSimple, toBouwkamp, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
-import { stockFilterSchema } from '../../../shared/contracts/stock';
-import type { z } from 'zod';
-import type { Statement } from 'better-sqlite3';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
+import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
@@ -24,7 +22,7 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   const f = stockFacts(input.tiling);
   const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, f.canonicalKey)).get();
   if (existing) return { id: existing.id, created: false, canonicalKey: f.canonicalKey };
-  stockGeneration++;
+  noteStockWrite();
   const row = tx
     .insert(stock)
     .values({
@@ -63,7 +61,7 @@ export function stockFacts(t: Tiling) {
 
 /** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */
 export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
-  stockGeneration++;
+  noteStockWrite();
   const r = tx
     .update(stock)
     .set({ useCount: sql`max(0, ${stock.useCount} + ${delta})` })
@@ -75,26 +73,6 @@ export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
 /** The id of the stock row with this canonical key, if any. */
 export function findStockByKey(db: DbOrTx, key: string): number | null {
   return db.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, key)).get()?.id ?? null;
-}
-
-type StockFilter = z.infer<typeof stockFilterSchema>;
-
-function whereOf(f: StockFilter): SQL | undefined {
-  const w: SQL[] = [];
-  if (f.orderMin !== undefined) w.push(gte(stock.order, f.orderMin));
-  if (f.orderMax !== undefined) w.push(lte(stock.order, f.orderMax));
-  if (f.widthMin !== undefined) w.push(gte(stock.width, f.widthMin));
-  if (f.widthMax !== undefined) w.push(lte(stock.width, f.widthMax));
-  if (f.heightMin !== undefined) w.push(gte(stock.height, f.heightMin));
-  if (f.heightMax !== undefined) w.push(lte(stock.height, f.heightMax));
-  if (f.square !== undefined) w.push(eq(stock.square, f.square));
-  if (f.perfect !== undefined) w.push(eq(stock.perfect, f.perfect));
-  if (f.simple !== undefined) w.push(eq(stock.simple, f.simple));
-  if (f.provenance !== undefined) w.push(eq(stock.provenance, f.provenance));
-  if (f.used === 'used') w.push(gt(stock.useCount, 0));
-  if (f.used === 'unused') w.push(eq(stock.useCount, 0));
-  if (f.setterId !== undefined) w.push(eq(stock.setterId, f.setterId));
-  return w.length ? and(...w) : undefined;
 }
 
 const itemColumns = {
@@ -128,183 +106,10 @@ const sortColumns = {
 } as const;
 
 /**
- * The list's SQL, written out once per filter shape and prepared once per database (Drizzle
- * would build and SQLite would prepare the same text on every request). Column names and
- * directions come from whitelists; every value is a bound parameter. Mirrors whereOf.
- */
-function listWhere(f: StockFilter): { text: string; params: (string | number)[] } {
-  const w: string[] = [];
-  const params: (string | number)[] = [];
-  const add = (cond: string, v: string | number) => {
-    w.push(cond);
-    params.push(v);
-  };
-  if (f.orderMin !== undefined) add('"order" >= ?', f.orderMin);
-  if (f.orderMax !== undefined) add('"order" <= ?', f.orderMax);
-  if (f.widthMin !== undefined) add('width >= ?', f.widthMin);
-  if (f.widthMax !== undefined) add('width <= ?', f.widthMax);
-  if (f.heightMin !== undefined) add('height >= ?', f.heightMin);
-  if (f.heightMax !== undefined) add('height <= ?', f.heightMax);
-  if (f.square !== undefined) add('square = ?', f.square ? 1 : 0);
-  if (f.perfect !== undefined) add('perfect = ?', f.perfect ? 1 : 0);
-  if (f.simple !== undefined) add('simple = ?', f.simple ? 1 : 0);
-  if (f.provenance !== undefined) add('provenance = ?', f.provenance);
-  if (f.used === 'used') w.push('use_count > 0');
-  if (f.used === 'unused') w.push('use_count = 0');
-  if (f.setterId !== undefined) add('setter_id = ?', f.setterId);
-  return { text: w.length ? `where ${w.join(' and ')}` : '', params };
-}
-
-type Sqlite = Db['$client'];
-const statementCache = new WeakMap<Sqlite, Map<string, Statement>>();
-function prepared(client: Sqlite, text: string): Statement {
-  let perDb = statementCache.get(client);
-  if (!perDb) statementCache.set(client, (perDb = new Map()));
-  let st = perDb.get(text);
-  if (!st) {
-    // filter shapes x sorts are finitely many (a few thousand at most); keep the recent ones
-    if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-    perDb.set(text, (st = client.prepare(text)));
-  }
-  return st;
-}
-
-/**
- * Totals come from a snapshot of the filter columns in typed arrays (about 1 MB for 50,000
- * tilings), counted in a loop: SQLite needs 5-10 ms to count a filter through an index at that
- * size, the loop well under 1 ms. The snapshot is used only while nothing was written to the
- * database since it was taken (this module's writes, SQLite's total_changes() on this
- * connection and data_version for other connections), so totals are always exact. Taking one
- * costs ~100 ms at 50,000, so after a write it is retaken at most every SNAPSHOT_MIN_AGE_MS;
- * until then totals are counted by SQLite in the narrowest index.
- */
-const SNAPSHOT_MIN_AGE_MS = 1_000;
-let stockGeneration = 0;
-
-type FilterSnapshot = {
-  n: number;
-  order: Int32Array;
-  width: Int32Array;
-  height: Int32Array;
-  /** bit 0 square, bit 1 perfect, bit 2 simple, bit 3 used (useCount > 0) */
-  flags: Uint8Array;
-  /** index into provenanceCodes, 255 for anything else */
-  provenance: Uint8Array;
-  setter: (string | null)[];
-  /** what the database looked like when the snapshot was taken */
-  stamp: string;
-  at: number;
-};
-const provenanceCodes: readonly Provenance[] = ['setter', 'foundry', 'demo'];
-const snapshots = new WeakMap<Sqlite, FilterSnapshot>();
-
-function databaseStamp(db: Db): string {
-  const changes = prepared(db.$client, 'select total_changes()').pluck().get() as number;
-  const version = db.$client.pragma('data_version', { simple: true }) as number;
-  return `${stockGeneration}:${changes}:${version}`;
-}
-
-/** The snapshot if it is current or may be retaken now; null when SQLite should count instead. */
-function filterSnapshot(db: Db): FilterSnapshot | null {
-  const now = Date.now();
-  const stamp = databaseStamp(db);
-  const hit = snapshots.get(db.$client);
-  if (hit && hit.stamp === stamp) return hit;
-  if (hit && now - hit.at < SNAPSHOT_MIN_AGE_MS) return null;
-  const rows = prepared(db.$client, 'select "order", width, height, square, perfect, simple, use_count, provenance, setter_id from stock indexed by stock_filter_idx')
-    .raw()
-    .all() as [number, number, number, number, number, number, number, string, string | null][];
-  const n = rows.length;
-  const snap: FilterSnapshot = {
-    n,
-    order: new Int32Array(n),
-    width: new Int32Array(n),
-    height: new Int32Array(n),
-    flags: new Uint8Array(n),
-    provenance: new Uint8Array(n),
-    setter: Array.from<string | null>({ length: n }),
-    stamp,
-    at: now,
-  };
-  for (let i = 0; i < n; i++) {
-    const [order, width, height, square, perfect, simple, useCount, provenance, setterId] = rows[i]!;
-    snap.order[i] = order;
-    snap.width[i] = width;
-    snap.height[i] = height;
-    snap.flags[i] = (square ? 1 : 0) | (perfect ? 2 : 0) | (simple ? 4 : 0) | (useCount > 0 ? 8 : 0);
-    const p = provenanceCodes.indexOf(provenance as Provenance);
-    snap.provenance[i] = p < 0 ? 255 : p;
-    snap.setter[i] = setterId;
-  }
-  snapshots.set(db.$client, snap);
-  return snap;
-}
-
-/** How many stock tilings match the filter (the same conditions as whereOf and listWhere). */
-export function countStock(db: Db, f: StockFilter): number {
-  const s = filterSnapshot(db);
-  if (!s) return countStockInSql(db, f);
-  const oLo = f.orderMin ?? -Infinity;
-  const oHi = f.orderMax ?? Infinity;
-  const wLo = f.widthMin ?? -Infinity;
-  const wHi = f.widthMax ?? Infinity;
-  const hLo = f.heightMin ?? -Infinity;
-  const hHi = f.heightMax ?? Infinity;
-  // flags: the bits that must match (mask) and their values (want)
-  let mask = 0;
-  let want = 0;
-  if (f.square !== undefined) {
-    mask |= 1;
-    want |= f.square ? 1 : 0;
-  }
-  if (f.perfect !== undefined) {
-    mask |= 2;
-    want |= f.perfect ? 2 : 0;
-  }
-  if (f.simple !== undefined) {
-    mask |= 4;
-    want |= f.simple ? 4 : 0;
-  }
-  if (f.used !== undefined) {
-    mask |= 8;
-    want |= f.used === 'used' ? 8 : 0;
-  }
-  const prov = f.provenance === undefined ? -1 : provenanceCodes.indexOf(f.provenance);
-  const setter = f.setterId;
-  let count = 0;
-  for (let i = 0; i < s.n; i++) {
-    const o = s.order[i]!;
-    if (o < oLo || o > oHi) continue;
-    const w = s.width[i]!;
-    if (w < wLo || w > wHi) continue;
-    const h = s.height[i]!;
-    if (h < hLo || h > hHi) continue;
-    if ((s.flags[i]! & mask) !== want) continue;
-    if (prov >= 0 && s.provenance[i] !== prov) continue;
-    if (setter !== undefined && s.setter[i] !== setter) continue;
-    count++;
-  }
-  return count;
-}
-
-function countStockInSql(db: Db, f: StockFilter): number {
-  // count in a narrow index, as a range scan where a range filter allows
-  const idx =
-    f.orderMin !== undefined || f.orderMax !== undefined
-      ? 'stock_filter_idx'
-      : f.widthMin !== undefined || f.widthMax !== undefined
-        ? 'stock_width_sort_idx'
-        : f.heightMin !== undefined || f.heightMax !== undefined
-          ? 'stock_height_sort_idx'
-          : 'stock_filter_idx';
-  const where = listWhere(f);
-  return (prepared(db.$client, `select count(*) from stock indexed by ${idx} ${where.text}`).pluck().get(...where.params) as number | undefined) ?? 0;
-}
-
-/**
  * GET /api/stock. Two steps so the wide rows (squares JSON) are never scanned or sorted:
  * the page's ids come from a narrow covering index (stock_recent_idx or stock_filter_idx, as
- * SQLite picks), the total from stock_filter_idx, then only the page's rows are read (decision 052).
+ * SQLite picks), the total from countStock (./stock-filter.ts), then only the page's rows are
+ * read (decision 052).
  */
 const LIST_TTL_MS = 5_000;
 const listCache = new WeakMap<object, Map<string, { value: StockList; generation: number; at: number }>>();
@@ -317,10 +122,10 @@ export function listStock(db: Db, q: StockListQuery): StockList {
   if (!perDb) listCache.set(db, (perDb = new Map()));
   const hit = perDb.get(key);
   const now = Date.now();
-  if (hit && hit.generation === stockGeneration && now - hit.at < LIST_TTL_MS) return hit.value;
+  if (hit && hit.generation === stockGeneration() && now - hit.at < LIST_TTL_MS) return hit.value;
   const value = listStockUncached(db, q);
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-  perDb.set(key, { value, generation: stockGeneration, at: now });
+  perDb.set(key, { value, generation: stockGeneration(), at: now });
   return value;
 }
 
@@ -355,7 +160,7 @@ function squaresFromJson(json: string): [number, number, number][] {
 }
 
 function listStockUncached(db: Db, q: StockListQuery): StockList {
-  const where = listWhere(q);
+  const where = stockWhereSql(q);
   const dir = q.sort.desc ? 'desc' : 'asc';
   const col = sortColumns[q.sort.key];
   const offset = (q.page - 1) * q.pageSize;
@@ -452,7 +257,7 @@ export function exportStock(db: DbOrTx, f: StockFilter, limit: number): StockIte
   return db
     .select(itemColumns)
     .from(stock)
-    .where(whereOf(f))
+    .where(stockWhere(f))
     .orderBy(desc(stock.createdAt), desc(stock.id))
     .limit(limit)
     .all()

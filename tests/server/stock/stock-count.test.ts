@@ -3,11 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { stockFilterSchema } from '../../../shared/contracts/stock';
 import { stock } from '../../../server/areas/stock/schema';
 import { seedBulkStock } from '../../../server/areas/intake/demo-seed';
-import { countStock, exportStock, markStockUsed } from '../../../server/areas/stock/stock';
+import { exportStock, markStockUsed } from '../../../server/areas/stock/stock';
+import { countStock } from '../../../server/areas/stock/stock-filter';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
-// The list's totals are counted in memory (server/services/stock.ts countStock); SQLite is the
-// oracle: the same filter through the export's SQL (Drizzle, whereOf) must give as many rows.
+// The list's totals are counted in memory (server/areas/stock/stock-filter.ts countStock); SQLite
+// is the oracle: the same filter through the export's SQL (Drizzle, stockWhere) must give as many rows.
 
 let t: TestApp;
 let setterId: string;

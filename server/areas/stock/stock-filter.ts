@@ -1,0 +1,252 @@
+import { and, sql, type SQL } from 'drizzle-orm';
+import type { Statement } from 'better-sqlite3';
+import type { z } from 'zod';
+import type { stockFilterSchema } from '../../../shared/contracts/stock';
+import type { Db } from '../../platform/db/client';
+
+// The stock filter, defined once. Every filter field is a condition on one column (`fields`);
+// every column says how SQL reads it (`columns`). From these two tables come the SQL text of
+// the list and count statements (stockWhereSql), the export's Drizzle condition (stockWhere)
+// and the totals counted in memory (countStock): adding a filter field is one line in
+// `fields` (and, for a new column, one in `columns`).
+
+export type StockFilter = z.infer<typeof stockFilterSchema>;
+
+/**
+ * The columns the filter reads: the SQL expression over the stock table, and its kind (int:
+ * a number; bool: 0 or 1; text: a string, or NULL that no condition matches). `index` names the
+ * narrow index SQLite counts in when a range condition is on that column (the first such column
+ * in this order wins).
+ */
+interface ColumnDef {
+  sql: string;
+  kind: 'int' | 'bool' | 'text';
+  index?: string;
+}
+const columns = {
+  order: { sql: '"order"', kind: 'int', index: 'stock_filter_idx' },
+  width: { sql: 'width', kind: 'int', index: 'stock_width_sort_idx' },
+  height: { sql: 'height', kind: 'int', index: 'stock_height_sort_idx' },
+  square: { sql: 'square', kind: 'bool' },
+  perfect: { sql: 'perfect', kind: 'bool' },
+  simple: { sql: 'simple', kind: 'bool' },
+  used: { sql: '(use_count > 0)', kind: 'bool' },
+  provenance: { sql: 'provenance', kind: 'text' },
+  setter: { sql: 'setter_id', kind: 'text' },
+} satisfies Record<string, ColumnDef>;
+type Column = keyof typeof columns;
+const columnDef = (c: Column): ColumnDef => columns[c];
+const columnNames = Object.keys(columns) as Column[];
+
+/** One condition: `column op value`. */
+interface Condition {
+  column: Column;
+  op: '>=' | '<=' | '=';
+  value: number | string | boolean;
+}
+
+const atLeast = (column: Column) => (value: number): Condition => ({ column, op: '>=', value });
+const atMost = (column: Column) => (value: number): Condition => ({ column, op: '<=', value });
+const equals = (column: Column) => (value: string | boolean): Condition => ({ column, op: '=', value });
+
+/** Every field of the filter as a condition on one column. */
+type Field = keyof StockFilter;
+type Rule<K extends Field> = (value: NonNullable<StockFilter[K]>) => Condition;
+const fields: { [K in Field]: Rule<K> } = {
+  orderMin: atLeast('order'),
+  orderMax: atMost('order'),
+  widthMin: atLeast('width'),
+  widthMax: atMost('width'),
+  heightMin: atLeast('height'),
+  heightMax: atMost('height'),
+  square: equals('square'),
+  perfect: equals('perfect'),
+  simple: equals('simple'),
+  provenance: equals('provenance'),
+  used: (v) => equals('used')(v === 'used'),
+  setterId: equals('setter'),
+};
+const fieldNames = Object.keys(fields) as Field[];
+
+function conditionOf<K extends Field>(f: StockFilter, name: K): Condition | null {
+  const rule: Rule<K> = fields[name];
+  const v = f[name];
+  return v === undefined ? null : rule(v);
+}
+
+function conditionsOf(f: StockFilter): Condition[] {
+  const out: Condition[] = [];
+  for (const name of fieldNames) {
+    const c = conditionOf(f, name);
+    if (c) out.push(c);
+  }
+  return out;
+}
+
+/** A condition's value as SQLite stores it (booleans are 0 and 1). */
+const sqlValue = (c: Condition): number | string => (typeof c.value === 'boolean' ? (c.value ? 1 : 0) : c.value);
+const sqlTest = (c: Condition) => `${columnDef(c.column).sql} ${c.op}`;
+
+/** The filter as a SQL `where` clause over the stock table ('' for no filter) with its bound parameters, in order. */
+export function stockWhereSql(f: StockFilter): { text: string; params: (string | number)[] } {
+  const conds = conditionsOf(f);
+  return { text: conds.length ? `where ${conds.map((c) => `${sqlTest(c)} ?`).join(' and ')}` : '', params: conds.map(sqlValue) };
+}
+
+/** The filter as a Drizzle condition on the stock table (undefined for no filter). */
+export function stockWhere(f: StockFilter): SQL | undefined {
+  const conds = conditionsOf(f);
+  return conds.length ? and(...conds.map((c) => sql`${sql.raw(sqlTest(c))} ${sqlValue(c)}`)) : undefined;
+}
+
+type Sqlite = Db['$client'];
+const statementCache = new WeakMap<Sqlite, Map<string, Statement>>();
+
+/**
+ * A statement prepared once per database (Drizzle would build and SQLite would prepare the same
+ * text on every request). Texts come from whitelists (columns, sorts); values are parameters.
+ */
+export function prepared(client: Sqlite, text: string): Statement {
+  let perDb = statementCache.get(client);
+  if (!perDb) statementCache.set(client, (perDb = new Map()));
+  let st = perDb.get(text);
+  if (!st) {
+    // filter shapes x sorts are finitely many (a few thousand at most); keep the recent ones
+    if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
+    perDb.set(text, (st = client.prepare(text)));
+  }
+  return st;
+}
+
+/** Bumped by every write of the stock service (the snapshot and the list's page cache follow it). */
+let generation = 0;
+export const stockGeneration = () => generation;
+export function noteStockWrite(): void {
+  generation++;
+}
+
+/**
+ * Totals come from a snapshot of the filter columns in typed arrays (about 1.2 MB for 50,000
+ * tilings), counted in a loop: SQLite needs 5-10 ms to count a filter through an index at that
+ * size, the loop well under 1 ms. The snapshot is used only while nothing was written to the
+ * database since it was taken (this area's writes, SQLite's total_changes() on this connection
+ * and data_version for other connections), so totals are always exact. Taking one costs ~100 ms
+ * at 50,000, so after a write it is retaken at most every SNAPSHOT_MIN_AGE_MS; until then totals
+ * are counted by SQLite in the narrowest index.
+ */
+const SNAPSHOT_MIN_AGE_MS = 1_000;
+
+interface FilterSnapshot {
+  n: number;
+  /** per int or text column: ints as they are, texts as codes (-1 for NULL) */
+  values: Partial<Record<Column, Int32Array>>;
+  /** the code of each text seen, per text column */
+  codes: Partial<Record<Column, Map<string, number>>>;
+  /** the bool columns, one bit each (bit k for the k-th bool column in `columns` order) */
+  flags: Int32Array;
+  /** what the database looked like when the snapshot was taken */
+  stamp: string;
+  at: number;
+}
+const snapshots = new WeakMap<Sqlite, FilterSnapshot>();
+const snapshotSql = `select ${columnNames.map((c) => columnDef(c).sql).join(', ')} from stock indexed by stock_filter_idx`;
+const flagBit = new Map(columnNames.filter((c) => columnDef(c).kind === 'bool').map((c, k) => [c, 1 << k]));
+
+function databaseStamp(client: Sqlite): string {
+  const changes = prepared(client, 'select total_changes()').pluck().get() as number;
+  const version = client.pragma('data_version', { simple: true }) as number;
+  return `${generation}:${changes}:${version}`;
+}
+
+/** The snapshot if it is current or may be retaken now; null when SQLite should count instead. */
+function filterSnapshot(client: Sqlite): FilterSnapshot | null {
+  const now = Date.now();
+  const stamp = databaseStamp(client);
+  const hit = snapshots.get(client);
+  if (hit && hit.stamp === stamp) return hit;
+  if (hit && now - hit.at < SNAPSHOT_MIN_AGE_MS) return null;
+  const rows = prepared(client, snapshotSql).raw().all() as (number | string | null)[][];
+  const n = rows.length;
+  const snap: FilterSnapshot = { n, values: {}, codes: {}, flags: new Int32Array(n), stamp, at: now };
+  columnNames.forEach((name, k) => {
+    const kind = columnDef(name).kind;
+    const bit = flagBit.get(name);
+    if (bit !== undefined) {
+      for (let i = 0; i < n; i++) if (rows[i]![k]) snap.flags[i]! |= bit;
+      return;
+    }
+    const a = (snap.values[name] = new Int32Array(n));
+    if (kind === 'text') {
+      const seen = (snap.codes[name] = new Map<string, number>());
+      for (let i = 0; i < n; i++) {
+        const v = rows[i]![k] as string | null;
+        if (v === null) a[i] = -1;
+        else {
+          let code = seen.get(v);
+          if (code === undefined) seen.set(v, (code = seen.size));
+          a[i] = code;
+        }
+      }
+    } else {
+      for (let i = 0; i < n; i++) a[i] = rows[i]![k] as number;
+    }
+  });
+  snapshots.set(client, snap);
+  return snap;
+}
+
+/** How many stock tilings match the filter: the same conditions as stockWhereSql, tested on the snapshot. */
+export function countStock(db: Db, f: StockFilter): number {
+  const s = filterSnapshot(db.$client);
+  if (!s) return countStockInSql(db.$client, f);
+  // bool conditions: the flag bits that must match (mask) and their values (want); the other
+  // conditions on one column meet in one range [lo, hi] of its snapshot values
+  let mask = 0;
+  let want = 0;
+  const ranges = new Map<Column, { lo: number; hi: number }>();
+  for (const c of conditionsOf(f)) {
+    const bit = flagBit.get(c.column);
+    if (bit !== undefined) {
+      const v = c.value ? bit : 0;
+      if (mask & bit && (want & bit) !== v) return 0;
+      mask |= bit;
+      want |= v;
+      continue;
+    }
+    let v: number;
+    if (typeof c.value === 'string') {
+      const code = s.codes[c.column]?.get(c.value);
+      if (code === undefined) return 0; // no row holds this text
+      v = code;
+    } else v = Number(c.value);
+    const r = ranges.get(c.column) ?? { lo: -Infinity, hi: Infinity };
+    if (c.op !== '<=') r.lo = Math.max(r.lo, v);
+    if (c.op !== '>=') r.hi = Math.min(r.hi, v);
+    if (r.lo > r.hi) return 0;
+    ranges.set(c.column, r);
+  }
+  const cols = [...ranges.keys()].map((c) => s.values[c]!);
+  const lo = Float64Array.from(ranges.values(), (r) => r.lo);
+  const hi = Float64Array.from(ranges.values(), (r) => r.hi);
+  const m = cols.length;
+  const flags = s.flags;
+  let count = 0;
+  rows: for (let i = 0; i < s.n; i++) {
+    if ((flags[i]! & mask) !== want) continue;
+    for (let k = 0; k < m; k++) {
+      const v = cols[k]![i]!;
+      if (v < lo[k]! || v > hi[k]!) continue rows;
+    }
+    count++;
+  }
+  return count;
+}
+
+function countStockInSql(client: Sqlite, f: StockFilter): number {
+  // count in a narrow index, as a range scan where a range filter allows
+  const conds = conditionsOf(f);
+  const ranged = columnNames.find((c) => columnDef(c).index !== undefined && conds.some((d) => d.column === c));
+  const idx = (ranged && columnDef(ranged).index) ?? 'stock_filter_idx';
+  const where = stockWhereSql(f);
+  return (prepared(client, `select count(*) from stock indexed by ${idx} ${where.text}`).pluck().get(...where.params) as number | undefined) ?? 0;
+}
