@@ -1,12 +1,12 @@
 import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
-import { canonicalTiling, isSimple, toBouwkamp, verifyTiling, type Tiling } from '../../../shared/tiling/index';
+import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
-import { classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-analysis';
+import { canonicalFormOf, classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
 // (review, foundry, demo seed all call it).
@@ -46,17 +46,13 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
 }
 
 /**
- * What a stock row needs, computed once: the canonical orientation (engine), its code and
- * key read off that orientation's Bouwkamp code, the engine's fast simplicity test, and
- * perfection as distinct sizes. Tests check it equals canonicalCode/canonicalKey/classifyTiling.
+ * What a stock row needs: the canonical orientation with the engine's canonical code and key
+ * (canonicalised once), the engine's fast simplicity test, and perfection as distinct sizes.
+ * Tests check it equals canonicalCode/canonicalKey/classifyTiling.
  */
 export function stockFacts(t: Tiling) {
-  const canonical = canonicalTiling(t);
-  const canonicalCode = toBouwkamp(canonical, { header: true });
-  const sizes = canonicalCode.replace(/^\s*\d+\s+\d+\s+\d+\s*/, '').match(/\d+/g) ?? [];
-  const canonicalKey = `${canonical.W}x${canonical.H}:${sizes.join(',')}`;
   const perfect = new Set(t.squares.map((q) => q.s)).size === t.squares.length;
-  return { canonical, canonicalCode, canonicalKey, perfect, simple: isSimple(t) };
+  return { ...canonicalFormOf(t), perfect, simple: isSimple(t) };
 }
 
 /** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */

@@ -53,39 +53,43 @@ export function classificationOf(tiling: Tiling): ClassificationData {
   };
 }
 
+/**
+ * The canonical orientation with the engine's canonical code and key. The tiling is
+ * canonicalised once; code and key are then taken of the canonical orientation, which is its
+ * own canonical form (the engine's canonicalCode/canonicalKey of the canonical orientation cost
+ * less than of another one).
+ */
+export function canonicalFormOf(tiling: Tiling): { canonical: Tiling; canonicalCode: string; canonicalKey: string } {
+  const canonical = canonicalTiling(tiling);
+  return { canonical, canonicalCode: canonicalCode(canonical), canonicalKey: canonicalKey(canonical) };
+}
+
 /** Analyse a tiling that the engine already decoded and verified. */
 export function analyseTiling(tiling: Tiling): TilingAnalysis {
   return {
     tiling,
-    canonical: canonicalTiling(tiling),
-    canonicalCode: canonicalCode(tiling),
-    canonicalKey: canonicalKey(tiling),
+    ...canonicalFormOf(tiling),
     bouwkamp: toBouwkamp(tiling, { header: true }),
     classification: classificationOf(tiling),
   };
 }
 
-/** Decode a Bouwkamp or table code; a bad code gives the engine's precise error (what and where). */
-export function analyseCode(code: string): AnalysisResult {
+/** Decode with the engine and analyse; a bad input gives the engine's precise error (what and where). */
+function analyse(decode: () => Tiling): AnalysisResult {
   let tiling: Tiling;
   try {
-    tiling = parseTiling(code);
+    tiling = decode();
   } catch (e) {
     return { ok: false, error: toError(e) };
   }
   return { ok: true, analysis: analyseTiling(tiling) };
 }
 
+/** A Bouwkamp or table code. */
+export const analyseCode = (code: string): AnalysisResult => analyse(() => parseTiling(code));
+
 /** Squares given explicitly (the network sketch sends these). */
-export function analyseSquares(input: SquaresInput): AnalysisResult {
-  let tiling: Tiling;
-  try {
-    tiling = tilingFromSquares(input);
-  } catch (e) {
-    return { ok: false, error: toError(e) };
-  }
-  return { ok: true, analysis: analyseTiling(tiling) };
-}
+export const analyseSquares = (input: SquaresInput): AnalysisResult => analyse(() => tilingFromSquares(input));
 
 /** The engine's horizontal Smith diagram as our drawing data (see SmithDrawing in the contract). */
 export function toSmithDrawing(d: SmithDiagram): SmithDrawing {
