@@ -17,7 +17,7 @@ import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
-import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, tilingFromJson, type TilingAnalysis } from '../stock/index';
+import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, storedTiling, type TilingAnalysis } from '../stock/index';
 import type { StockPort, SubmissionHistory } from '../stock/ports';
 
 // Setters' submissions: in by paste, sketch or file; verified and checked for duplicates on
@@ -261,7 +261,7 @@ export function getSubmission(db: DbOrTx, actor: Actor, id: number): Submission 
 export function getSubmissionDetail(deps: IntakeStore, actor: Actor, id: number): SubmissionDetail {
   const { db } = deps;
   const { squaresJson, ...r } = rowOf(db, actor, id);
-  const tiling = tilingFromJson(r.width, r.height, squaresJson);
+  const tiling = storedTiling('submission', { ...r, squaresJson });
   const a = analyseTiling(tiling);
   const duplicates = isEditor(actor) ? sameTilingAs(deps.stock, db, r.canonicalKey, id) : { stockId: null, submissions: [] };
   return { ...toSubmission(r), tiling, smith: smithDrawingOf(tiling), classification: a.classification, bouwkamp: a.bouwkamp, duplicates };
@@ -308,7 +308,7 @@ export function reviewSubmission(
     let stockId: number | null = null;
     if (action === 'accept') {
       const added = deps.stock.add(tx, {
-        tiling: tilingFromJson(r.width, r.height, r.squaresJson),
+        tiling: storedTiling('submission', { id, ...r }),
         provenance: 'setter',
         setterId: r.setterId,
         params: { submissionId: id },

@@ -8,11 +8,11 @@ export {
   analyseCode,
   analyseSquares,
   analyseTiling,
+  canonicalFormOf,
   classificationOf,
   smithDrawingOf,
-  squaresToJson,
-  tilingFromJson,
   toSmithDrawing,
   type AnalysisResult,
   type TilingAnalysis,
 } from './tiling-analysis';
+export { jsonText, readStored, squaresToJson, storedTiling, StoredJsonError, type StoredAt } from './stored-json';

@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
 import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
@@ -6,7 +7,8 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
-import { canonicalFormOf, classificationOf, smithDrawingOf, squaresToJson, tilingFromJson } from './tiling-analysis';
+import { jsonText, readStored, squaresToJson, storedSquares, storedTiling } from './stored-json';
+import { canonicalFormOf, classificationOf, smithDrawingOf } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
 // (review, foundry, demo seed all call it).
@@ -146,15 +148,6 @@ const listRowsSql =
   'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt, squares_json as squaresJson ' +
   'from stock where id in (select value from json_each(?))';
 
-/** The stored squares ([[x,y,s],...], written by squaresToJson) as the list sends them. */
-function squaresFromJson(json: string): [number, number, number][] {
-  const raw = JSON.parse(json) as unknown;
-  if (!Array.isArray(raw) || !raw.every((q) => Array.isArray(q) && q.length === 3 && q.every(Number.isInteger))) {
-    throw new Error('stored squares are not a list of [x,y,s]');
-  }
-  return raw as [number, number, number][];
-}
-
 function listStockUncached(db: Db, q: StockListQuery): StockList {
   const where = stockWhereSql(q);
   const dir = q.sort.desc ? 'desc' : 'asc';
@@ -184,7 +177,7 @@ function listStockUncached(db: Db, q: StockListQuery): StockList {
           useCount: r.useCount,
           createdAt: new Date(r.createdAt).toISOString(),
           acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
-          squares: squaresFromJson(r.squaresJson),
+          squares: storedSquares('stock', r.id, r.squaresJson),
         },
       ];
     }),
@@ -201,8 +194,11 @@ export function stockTiling(db: DbOrTx, id: number): StockTiling {
     .where(eq(stock.id, id))
     .get();
   if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
-  return { tiling: tilingFromJson(r.width, r.height, r.squaresJson), canonicalKey: r.canonicalKey, setterId: r.setterId };
+  return { tiling: storedTiling('stock', { id, ...r }), canonicalKey: r.canonicalKey, setterId: r.setterId };
 }
+
+/** params_json: how the tiling was made (AddToStockInput.params), read only here. */
+const stockParamsSchema = jsonText(z.record(z.string(), z.unknown()));
 
 export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submissionHistory: SubmissionHistory }, id: number): StockDetail {
   const { db, stockUsage: usage } = deps;
@@ -214,7 +210,7 @@ export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submi
   if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
   const { squaresJson, paramsJson, ...item } = r;
   // the stored orientation is the canonical one: its Bouwkamp code is the canonical code
-  const tiling = tilingFromJson(r.width, r.height, squaresJson);
+  const tiling = storedTiling('stock', { ...r, squaresJson });
   const subs = deps.submissionHistory.acceptedFor(db, id);
   const events: StockDetail['history']['events'] = [];
   if (subs.length === 0) events.push({ kind: 'added', at: r.createdAt.toISOString(), note: `added by ${r.provenance}` });
@@ -225,7 +221,7 @@ export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submi
   return {
     ...toItem(item),
     bouwkamp: r.canonicalCode,
-    params: paramsJson ? (JSON.parse(paramsJson) as Record<string, unknown>) : null,
+    params: paramsJson === null ? null : readStored(stockParamsSchema, paramsJson, { table: 'stock', id, column: 'params_json' }),
     tiling,
     smith: smithDrawingOf(tiling),
     classification: classificationOf(tiling),
@@ -292,7 +288,7 @@ export function perfectRectangles(db: DbOrTx, limit: number): { id: number; tili
     .orderBy(asc(stock.id))
     .limit(limit)
     .all()
-    .map((r) => ({ id: r.id, tiling: tilingFromJson(r.width, r.height, r.squaresJson) }));
+    .map((r) => ({ id: r.id, tiling: storedTiling('stock', r) }));
 }
 
 /** The stock's port for other areas (see ./ports.ts), wired in server/compose.ts. */

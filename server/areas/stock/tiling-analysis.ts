@@ -111,21 +111,3 @@ export function smithDrawingOf(tiling: Tiling): SmithDrawing | null {
     throw e;
   }
 }
-
-/** Squares stored compactly as [[x,y,s],...]. */
-export function squaresToJson(t: Tiling): string {
-  return JSON.stringify(t.squares.map((q) => [q.x, q.y, q.s]));
-}
-
-export function tilingFromJson(W: number, H: number, json: string): Tiling {
-  const raw = JSON.parse(json) as unknown;
-  if (!Array.isArray(raw)) throw new Error('stored squares are not a list');
-  return {
-    W,
-    H,
-    squares: raw.map((r: unknown) => {
-      if (!Array.isArray(r) || r.length !== 3) throw new Error('stored square is not [x,y,s]');
-      return { x: Number(r[0]), y: Number(r[1]), s: Number(r[2]) };
-    }),
-  };
-}

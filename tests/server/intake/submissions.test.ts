@@ -1,6 +1,6 @@
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { count, eq } from 'drizzle-orm';
 import type { Role } from '../../../shared/contracts/common';
 import { submission } from '../../../server/areas/intake/schema';
@@ -9,7 +9,7 @@ import { mailOutbox } from '../../../server/platform/mail/schema';
 import { uploadSubmissions } from '../../../server/areas/intake/submissions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { order9Code, order9bCode } from '../../fixtures/order9';
-import { order10Codes } from '../../fixtures/intake/order10';
+import { order10Codes, order21Square } from '../../fixtures/intake/order10';
 
 let t: TestApp;
 const agents = new Map<string, TestAgent>();
@@ -276,5 +276,26 @@ describe('searching submissions by title', () => {
     expect(await titles('50%')).toEqual(['Harbour 50% sale']);
     expect(await titles('r_q')).toEqual(['Harbour_quay']);
     expect(await titles('Harbour')).toEqual(['Harbour 50 sale', 'Harbour 50% sale', 'Harbour_quay']);
+  });
+});
+
+describe('a submission row whose squares_json does not read', () => {
+  it('is an error naming the table and row id; accepting it writes nothing', async () => {
+    const created = await (await as('setter')).post('/api/submissions').send({ code: order21Square, title: 'Broken later', source: 'paste' }).expect(201);
+    const id: number = created.body.id;
+    t.db.$client.prepare('update submission set squares_json = ? where id = ?').run('[[0,0,50],[50,0,"35"]]', id);
+    const editor = await as('editor');
+    const mailsBefore = t.db.select({ n: count() }).from(mailOutbox).get()!.n;
+    const stockBefore = t.db.select({ n: count() }).from(stock).get()!.n;
+    const spy = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const detail = await editor.get(`/api/submissions/${id}`).expect(500);
+    const accept = await editor.post(`/api/submissions/${id}/accept`).send({ note: 'ok' }).expect(500);
+    const logged = spy.mock.calls.flat().map(String).join(' ');
+    spy.mockRestore();
+    expect([detail.body.error.code, accept.body.error.code]).toEqual(['internal', 'internal']);
+    expect(logged).toContain(`submission row ${id}: squares_json does not read`);
+    expect(t.db.select({ status: submission.status }).from(submission).where(eq(submission.id, id)).get()!.status).toBe('pending');
+    expect(t.db.select({ n: count() }).from(stock).get()!.n).toBe(stockBefore);
+    expect(t.db.select({ n: count() }).from(mailOutbox).get()!.n).toBe(mailsBefore);
   });
 });
