@@ -23,8 +23,8 @@ import {
   listSubmissions,
   reviewSubmission,
   uploadSubmissions,
+  type Actor,
 } from './submissions';
-
 
 export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } });
@@ -68,33 +68,31 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
     ({ user, params }) => getSubmissionDetail(deps, user, params.id),
   );
 
+  /** Review answers queue the setter's mail in the same transaction; the outbox sends it now. */
+  const mailing = <T>(answer: T): T => {
+    deps.mail.kick();
+    return answer;
+  };
+  const review =
+    (action: 'accept' | 'reject') =>
+    ({ user, params, body }: { user: Actor; params: { id: number }; body: { note?: string } }) =>
+      mailing(reviewSubmission(deps, user, params.id, action, body.note, reviewOpts()));
+
   route(
     router,
     { method: 'POST', path: '/api/submissions/:id/accept', summary: 'Accept a pending submission into the stock; mails the setter', tags, params: idParamsSchema, body: reviewSchema, response: submissionSchema },
-    ({ user, params, body }) => {
-      const s = reviewSubmission(deps, user, params.id, 'accept', body.note, reviewOpts());
-      deps.mail.kick();
-      return s;
-    },
+    review('accept'),
   );
 
   route(
     router,
     { method: 'POST', path: '/api/submissions/:id/reject', summary: 'Reject a pending submission with a note; mails the setter', tags, params: idParamsSchema, body: rejectSchema, response: submissionSchema },
-    ({ user, params, body }) => {
-      const s = reviewSubmission(deps, user, params.id, 'reject', body.note, reviewOpts());
-      deps.mail.kick();
-      return s;
-    },
+    review('reject'),
   );
 
   route(
     router,
     { method: 'POST', path: '/api/submissions/bulk', summary: 'Accept or reject several pending submissions; a result per id', tags, body: bulkReviewSchema, response: bulkResultSchema },
-    ({ user, body }) => {
-      const r = bulkReview(deps, user, body, reviewOpts());
-      deps.mail.kick();
-      return r;
-    },
+    ({ user, body }) => mailing(bulkReview(deps, user, body, reviewOpts())),
   );
 }

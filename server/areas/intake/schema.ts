@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { user } from '../../platform/auth/schema';
-import { stock } from '../stock/schema';
+import { stock, tilingColumns } from '../stock/schema';
 
 // Setters' submissions: verified on the way in, reviewed by an editor.
 
@@ -21,13 +21,8 @@ export const submission = sqliteTable(
     code: text('code').notNull(),
     canonicalCode: text('canonical_code').notNull(),
     canonicalKey: text('canonical_key').notNull(),
-    squaresJson: text('squares_json').notNull(),
-    width: integer('width').notNull(),
-    height: integer('height').notNull(),
-    order: integer('order').notNull(),
-    square: integer('square', { mode: 'boolean' }).notNull(),
-    perfect: integer('perfect', { mode: 'boolean' }).notNull(),
-    simple: integer('simple', { mode: 'boolean' }).notNull(),
+    /** the tiling as sent (not turned to the canonical orientation) */
+    ...tilingColumns(),
     status: text('status', { enum: ['pending', 'accepted', 'rejected'] }).notNull().default('pending'),
     /** at submission time: already in the stock, or already pending. */
     duplicateOf: text('duplicate_of', { enum: ['stock', 'pending'] }),

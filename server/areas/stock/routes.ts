@@ -1,5 +1,15 @@
+import type { Response } from 'express';
 import { idParamsSchema } from '../../../shared/contracts/submissions';
-import { imageQuerySchema, stockDetailSchema, stockExportQuerySchema, stockListQuerySchema, stockListSchema, stockSummarySchema } from '../../../shared/contracts/stock';
+import {
+  imageQuerySchema,
+  stockDetailSchema,
+  stockExportQuerySchema,
+  stockListQuerySchema,
+  stockListSchema,
+  stockSummarySchema,
+  type StockExportQuery,
+  type StockItem,
+} from '../../../shared/contracts/stock';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderTilingPng, PNG_SIZES } from '../../platform/images/tiling-png';
 import type { StockDeps } from './ports';
@@ -24,30 +34,24 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
     () => stockSummary(deps.db, deps.stockUsage),
   );
 
+  /** An export route's answer: the filtered selection (at most `limit`) as a file. */
+  const exportAs =
+    (fileName: string, type: string, write: (items: StockItem[]) => string) =>
+    ({ res, query }: { res: Response; query: StockExportQuery }) => {
+      const { limit, ...filter } = query;
+      res.status(200).attachment(fileName).type(type).send(write(exportStock(deps.db, filter, limit)));
+    };
+
   route(
     router,
     { method: 'GET', path: '/api/stock/export.csv', summary: 'The filtered selection as CSV', tags, query: stockExportQuerySchema, produces: 'text/csv' },
-    ({ res, query }) => {
-      const { limit, ...filter } = query;
-      res
-        .status(200)
-        .attachment('squarewright-stock.csv')
-        .type('text/csv; charset=utf-8')
-        .send(stockCsv(exportStock(deps.db, filter, limit)));
-    },
+    exportAs('squarewright-stock.csv', 'text/csv; charset=utf-8', stockCsv),
   );
 
   route(
     router,
     { method: 'GET', path: '/api/stock/export.bkp', summary: 'The filtered selection as a code file (one canonical Bouwkamp code a line)', tags, query: stockExportQuerySchema, produces: 'text/plain' },
-    ({ res, query }) => {
-      const { limit, ...filter } = query;
-      res
-        .status(200)
-        .attachment('squarewright-stock.bkp')
-        .type('text/plain; charset=utf-8')
-        .send(stockCodeFile(exportStock(deps.db, filter, limit), deps.clock.now()));
-    },
+    exportAs('squarewright-stock.bkp', 'text/plain; charset=utf-8', (items) => stockCodeFile(items, deps.clock.now())),
   );
 
   route(

@@ -6,6 +6,21 @@ import { user } from '../../platform/auth/schema';
 
 const nowMs = sql`(cast(unixepoch('subsecond') * 1000 as integer))`;
 
+/**
+ * The columns of a stored tiling, shared by the stock and the submissions: its squares as
+ * JSON [[x,y,s],...] (so drawings need no decoding; read through storedSquares), its size,
+ * order and class flags.
+ */
+export const tilingColumns = () => ({
+  squaresJson: text('squares_json').notNull(),
+  width: integer('width').notNull(),
+  height: integer('height').notNull(),
+  order: integer('order').notNull(),
+  square: integer('square', { mode: 'boolean' }).notNull(),
+  perfect: integer('perfect', { mode: 'boolean' }).notNull(),
+  simple: integer('simple', { mode: 'boolean' }).notNull(),
+});
+
 export const stock = sqliteTable(
   'stock',
   {
@@ -14,14 +29,8 @@ export const stock = sqliteTable(
     canonicalKey: text('canonical_key').notNull().unique(),
     /** canonical Bouwkamp code with header. */
     canonicalCode: text('canonical_code').notNull(),
-    /** the canonical tiling's squares as JSON [[x,y,s],...], so drawings need no decoding. */
-    squaresJson: text('squares_json').notNull(),
-    width: integer('width').notNull(),
-    height: integer('height').notNull(),
-    order: integer('order').notNull(),
-    square: integer('square', { mode: 'boolean' }).notNull(),
-    perfect: integer('perfect', { mode: 'boolean' }).notNull(),
-    simple: integer('simple', { mode: 'boolean' }).notNull(),
+    /** the canonical orientation */
+    ...tilingColumns(),
     provenance: text('provenance', { enum: ['setter', 'foundry', 'demo'] }).notNull(),
     setterId: text('setter_id').references(() => user.id, { onDelete: 'set null' }),
     /** how it was made (foundry run, seed, source submission) as JSON. */
@@ -37,7 +46,7 @@ export const stock = sqliteTable(
     // newest-first lists (the default) walk this one and stop after a page, filtering in the index
     index('stock_recent_idx').on(t.createdAt, t.id, t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
     // every filter and sort column: list and count queries scan this narrow index, never the
-    // wide rows (squares JSON); see server/services/stock.ts listStock and decision 052
+    // wide rows (squares JSON); see listStock (./stock.ts), countStock (./stock-filter.ts) and decision 052
     // lists sorted by width or height walk these in order and stop after a page
     index('stock_width_sort_idx').on(t.width, t.id, t.order, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
     index('stock_height_sort_idx').on(t.height, t.id, t.order, t.width, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),

@@ -57,8 +57,8 @@ const storedSquare = String.raw`\[${storedInt},${storedInt},${storedInt}\]`;
  * squares_json of the stock and of submissions: [[x,y,s],...] exactly as squaresToJson writes
  * it. The schema checks the text's grammar, so what JSON.parse gives for a text that matches is
  * a non-empty list of integer triples. Checking the text costs about as much as JSON.parse;
- * checking the parsed value element by element (z.tuple) made the stock list twice as costly
- * (bench/intake.ts, 50,000 tilings).
+ * checking the parsed value element by element (z.tuple) made a stock list page cost about
+ * twice the CPU (measured on the 50,000 tilings bench/intake.ts seeds).
  */
 export const storedSquaresSchema = z
   .string()
