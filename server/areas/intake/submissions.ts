@@ -11,7 +11,6 @@ import type {
   UploadReport,
 } from '../../../shared/contracts/submissions';
 import { MAX_TITLE, MAX_UPLOAD_LINES } from '../../../shared/contracts/submissions';
-import type { DuplicateOf } from '../../../shared/contracts/tilings';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
@@ -202,7 +201,6 @@ type Row = Omit<Submission, 'createdAt' | 'reviewedAt' | 'setterName' | 'duplica
 function toSubmission(r: Row): Submission {
   return {
     ...r,
-    duplicateOf: r.duplicateOf as DuplicateOf | null,
     createdAt: r.createdAt.toISOString(),
     reviewedAt: r.reviewedAt ? r.reviewedAt.toISOString() : null,
   };
