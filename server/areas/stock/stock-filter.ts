@@ -12,17 +12,18 @@ import type { Db } from '../../platform/db/client';
 
 export type StockFilter = z.infer<typeof stockFilterSchema>;
 
+interface ColumnDef {
+  sql: string;
+  kind: 'int' | 'bool' | 'text';
+  index?: string;
+}
+
 /**
  * The columns the filter reads: the SQL expression over the stock table, and its kind (int:
  * a number; bool: 0 or 1; text: a string, or NULL that no condition matches). `index` names the
  * narrow index SQLite counts in when a range condition is on that column (the first such column
  * in this order wins).
  */
-interface ColumnDef {
-  sql: string;
-  kind: 'int' | 'bool' | 'text';
-  index?: string;
-}
 const columns = {
   order: { sql: '"order"', kind: 'int', index: 'stock_filter_idx' },
   width: { sql: 'width', kind: 'int', index: 'stock_width_sort_idx' },
