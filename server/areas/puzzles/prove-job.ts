@@ -1,5 +1,6 @@
 import { defineJob } from '../../platform/jobs/types';
-import { issuesText, provePuzzle, PUZZLE_JOB_KIND, puzzleJobInputSchema, puzzleJobParamsSchema } from './rules';
+import { issuesText } from '../../platform/db/stored-json';
+import { provePuzzle, PUZZLE_JOB_KIND, puzzleJobInputSchema, puzzleJobParamsSchema } from './rules';
 
 // The puzzle proof as a job in the worker pool (kind 'puzzle-prove'); the work itself is
 // provePuzzle in ./rules.ts. Params and input are parsed here, in the worker: a malformed

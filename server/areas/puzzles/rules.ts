@@ -86,11 +86,6 @@ export const puzzleJobSummarySchema = z.object({
 });
 export type PuzzleJobSummary = z.infer<typeof puzzleJobSummarySchema>;
 
-/** What a schema refused, on one line: `path: message; ...` (for the errors that name a job or a row). */
-export function issuesText(error: z.ZodError): string {
-  return error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`).join('; ');
-}
-
 export interface ProveControl {
   shouldStop?: () => boolean;
   progress?: (phase: string, done: number) => void;

@@ -1,7 +1,8 @@
 import { getTableName } from 'drizzle-orm';
 import { z } from 'zod';
 import { puzzleLevelSchema, type PuzzleLevel } from '../../../shared/contracts/puzzles';
-import { certificateSchema, issuesText, noteListSchema, placedListSchema, recheckOutcomeSchema, secondSolutionSchema, stepListSchema } from './rules';
+import { parseStoredJson } from '../../platform/db/stored-json';
+import { certificateSchema, noteListSchema, placedListSchema, recheckOutcomeSchema, secondSolutionSchema, stepListSchema } from './rules';
 import { puzzle } from './schema';
 
 // The puzzle table's JSON columns, each with its schema, read here and nowhere else. They are
@@ -12,34 +13,11 @@ import { puzzle } from './schema';
 type PuzzleRow = typeof puzzle.$inferSelect;
 type Row<K extends keyof PuzzleRow> = Pick<PuzzleRow, 'id' | K>;
 
-/** A stored value that does not have its column's shape. */
-export class StoredPuzzleError extends Error {
-  constructor(
-    readonly table: string,
-    readonly column: string,
-    readonly rowId: number,
-    problem: string,
-  ) {
-    super(`${table} ${rowId}: column ${column} ${problem}`);
-    this.name = 'StoredPuzzleError';
-  }
-}
-
 /** One column's text through its schema; a column left empty (SQL null) reads as null. */
 function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string): T;
 function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string | null): T | null;
 function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: number, text: string | null): T | null {
-  if (text === null) return null;
-  const fail = (problem: string) => new StoredPuzzleError(getTableName(puzzle), column.name, rowId, problem);
-  let raw: unknown;
-  try {
-    raw = JSON.parse(text);
-  } catch (e) {
-    throw fail(`is not JSON (${(e as Error).message})`);
-  }
-  const parsed = schema.safeParse(raw);
-  if (!parsed.success) throw fail(`does not have its stored shape: ${issuesText(parsed.error)}`);
-  return parsed.data;
+  return parseStoredJson(schema, text, { table: getTableName(puzzle), rowId, column: column.name });
 }
 
 /** A re-check as stored: its outcome and when it ran. */

@@ -3,6 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { Worker } from 'node:worker_threads';
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db/client';
+import { parseStoredJson } from '../db/stored-json';
 import { job } from './schema';
 import type { FromWorker, JobProgress, StopReason, ToWorker } from './types';
 import { sourceBootstrap, workerSpec } from './worker-url';
@@ -360,18 +361,7 @@ const storedProgressSchema = z.object({
 });
 
 /** A stored JSON column of the job table; a row that does not parse names the job and column. */
-function column<T>(id: string, name: string, text: string | null, schema: z.ZodType<T>): T | null {
-  if (text === null) return null;
-  let raw: unknown;
-  try {
-    raw = JSON.parse(text);
-  } catch (e) {
-    throw new Error(`job ${id}: column ${name} is not JSON (${(e as Error).message})`);
-  }
-  const r = schema.safeParse(raw);
-  if (!r.success) throw new Error(`job ${id}: column ${name} does not have the stored shape: ${r.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`).join('; ')}`);
-  return r.data;
-}
+const column = <T>(id: string, name: string, text: string | null, schema: z.ZodType<T>): T | null => parseStoredJson(schema, text, { table: 'job', rowId: id, column: name });
 
 function toRecord(row: typeof job.$inferSelect): JobRecord {
   return {

@@ -69,19 +69,19 @@ describe('a corrupt JSON column', () => {
   it('instructions_json: JSON of the wrong shape names the slot row (no silent empty instructions)', async () => {
     const e = await withCorrupt('edition_slot', 'instructions_json', slotId, '{"type":"paragraph"}', () => getEditionFor(t.deps, editor, editionId));
     expect(e).toBeInstanceOf(StoredRowError);
-    expect((e as Error).message).toMatch(new RegExp(`^edition_slot ${slotId}: column instructions_json does not have the stored shape: type: a rich text document starts with type "doc"`));
+    expect((e as Error).message).toMatch(new RegExp(`^edition_slot ${slotId}: column instructions_json does not have its stored shape: type: a rich text document starts with type "doc"`));
   });
 
   it('preflight_json: listing the editions names the proof row', async () => {
     const e = await withCorrupt('edition_proof', 'preflight_json', proofId, '{"ok":"yes"}', () => listEditions(t.deps, editor, {}));
     expect(e).toBeInstanceOf(StoredRowError);
-    expect((e as Error).message).toMatch(new RegExp(`^edition_proof ${proofId}: column preflight_json does not have the stored shape: ok: `));
+    expect((e as Error).message).toMatch(new RegExp(`^edition_proof ${proofId}: column preflight_json does not have its stored shape: ok: `));
   });
 
   it('document_json: approving names the proof row and makes no press file', async () => {
     const e = await withCorrupt('edition_proof', 'document_json', proofId, '{"publicationTitle":"The Saturday Quadrant"}', () => approveProof(t.deps, printer, editionId, 1));
     expect(e).toBeInstanceOf(StoredRowError);
-    expect((e as Error).message).toMatch(new RegExp(`^edition_proof ${proofId}: column document_json does not have the stored shape: editionNumber: `));
+    expect((e as Error).message).toMatch(new RegExp(`^edition_proof ${proofId}: column document_json does not have its stored shape: editionNumber: `));
     expect(t.db.select({ state: edition.state, press: edition.pressPath }).from(edition).where(eq(edition.id, editionId)).get()).toEqual({ state: 'in_proof', press: null });
   });
 

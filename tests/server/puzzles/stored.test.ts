@@ -5,7 +5,7 @@ import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runt
 import { finishProof, getPuzzle, listPuzzles } from '../../../server/areas/puzzles/puzzles';
 import { provePuzzle, PUZZLE_JOB_KIND, type PuzzleJobSummary } from '../../../server/areas/puzzles/rules';
 import { puzzle } from '../../../server/areas/puzzles/schema';
-import { StoredPuzzleError } from '../../../server/areas/puzzles/stored';
+import { StoredRowError } from '../../../server/platform/db/stored-json';
 import { addToStock } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { ORDER_9 } from './fixtures';
@@ -65,7 +65,7 @@ describe('a corrupt JSON column', () => {
       // mended, so the other tests' lists read
       setColumn.run(kept.v, id);
     }
-    expect(caught).toBeInstanceOf(StoredPuzzleError);
+    expect(caught).toBeInstanceOf(StoredRowError);
     expect(caught).toMatchObject({ table: 'puzzle', column, rowId: id });
     expect((caught as Error).message).toMatch(new RegExp(`^puzzle ${id}: column `));
     expect((caught as Error).message).toMatch(says);
@@ -81,10 +81,10 @@ describe('a corrupt JSON column', () => {
     const one = await editor.get(`/api/puzzles/${id}`).expect(500);
     expect(one.body.error.code).toBe('internal');
     await editor.get('/api/puzzles?pageSize=200').expect(500);
-    expect(logged.mock.calls.map((c) => c.map(String).join(' ')).join('\n')).toMatch(new RegExp(`StoredPuzzleError: puzzle ${id}: column certificate_json is not JSON`));
+    expect(logged.mock.calls.map((c) => c.map(String).join(' ')).join('\n')).toMatch(new RegExp(`StoredRowError: puzzle ${id}: column certificate_json is not JSON`));
     logged.mockRestore();
     expect(() => listPuzzles(t.deps, jobRunnerFor(t.db), { page: 1, pageSize: 200, sort: { key: 'id', desc: false } })).toThrow(`puzzle ${id}: column certificate_json is not JSON`);
-    expect(() => t.deps.puzzles.getPuzzleForPrint(t.db, String(id))).toThrow(StoredPuzzleError);
+    expect(() => t.deps.puzzles.getPuzzleForPrint(t.db, String(id))).toThrow(StoredRowError);
     // mended, it reads again
     t.db.$client.prepare('update puzzle set certificate_json = ? where id = ?').run(JSON.stringify(made.certificate), id);
     expect((await editor.get(`/api/puzzles/${id}`).expect(200)).body.certificate).toEqual(made.certificate);
