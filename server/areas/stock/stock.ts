@@ -7,7 +7,7 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
-import { jsonText, readStored, squaresToJson, storedSquares, storedTiling } from './stored-json';
+import { jsonText, readStored, squaresToJson, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, smithDrawingOf } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
@@ -158,11 +158,13 @@ function listStockUncached(db: Db, q: StockListQuery): StockList {
     .all(...where.params, q.pageSize, offset) as number[];
   const total = countStock(db, q);
   const rows = idRows.length ? (prepared(db.$client, listRowsSql).all(JSON.stringify(idRows)) as ListRow[]) : [];
-  const byId = new Map(rows.map((r) => [r.id, r]));
+  const squares = storedSquaresOf('stock', rows);
+  const byId = new Map(rows.map((r, i) => [r.id, { r, squares: squares[i]! }]));
   return {
     items: idRows.flatMap((id) => {
-      const r = byId.get(id);
-      if (!r) return [];
+      const hit = byId.get(id);
+      if (!hit) return [];
+      const { r } = hit;
       return [
         {
           id: r.id,
@@ -177,7 +179,7 @@ function listStockUncached(db: Db, q: StockListQuery): StockList {
           useCount: r.useCount,
           createdAt: new Date(r.createdAt).toISOString(),
           acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
-          squares: storedSquares('stock', r.id, r.squaresJson),
+          squares: hit.squares,
         },
       ];
     }),
