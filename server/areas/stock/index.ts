@@ -15,4 +15,4 @@ export {
   type AnalysisResult,
   type TilingAnalysis,
 } from './tiling-analysis';
-export { jsonText, readStored, squaresToJson, storedTiling, StoredJsonError, type StoredAt } from './stored-json';
+export { squaresToJson, storedTiling } from './stored-json';

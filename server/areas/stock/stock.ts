@@ -1,5 +1,4 @@
 import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
-import { z } from 'zod';
 import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
@@ -7,7 +6,7 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
-import { jsonText, readStored, squaresToJson, storedSquaresOf, storedTiling } from './stored-json';
+import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, smithDrawingOf } from './tiling-analysis';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
@@ -200,7 +199,6 @@ export function stockTiling(db: DbOrTx, id: number): StockTiling {
 }
 
 /** params_json: how the tiling was made (AddToStockInput.params), read only here. */
-const stockParamsSchema = jsonText(z.record(z.string(), z.unknown()));
 
 export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submissionHistory: SubmissionHistory }, id: number): StockDetail {
   const { db, stockUsage: usage } = deps;
@@ -223,7 +221,7 @@ export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submi
   return {
     ...toItem(item),
     bouwkamp: r.canonicalCode,
-    params: paramsJson === null ? null : readStored(stockParamsSchema, paramsJson, { table: 'stock', id, column: 'params_json' }),
+    params: storedParamsOf({ id, paramsJson }),
     tiling,
     smith: smithDrawingOf(tiling),
     classification: classificationOf(tiling),

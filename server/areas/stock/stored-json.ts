@@ -1,53 +1,15 @@
 import { z } from 'zod';
 import type { Tiling } from '../../../shared/tiling/index';
+import { issuesText, parseStoredJson, StoredRowError } from '../../platform/db/stored-json';
 
-// Stored JSON is parsed, not cast: each JSON column is read through its zod schema at one
-// place, and a row that does not read is an error naming the table, the row and the column.
+// The stock's and the submissions' JSON columns, each read here through its schema (decision
+// 007); a row that does not read is a StoredRowError naming the table, the row and the column.
 
-/** A stored JSON column that does not read as its schema: the stored data are at fault (a 500, not the caller's 4xx). */
-export class StoredJsonError extends Error {
-  constructor(
-    readonly table: string,
-    readonly rowId: number,
-    readonly column: string,
-    problem: string,
-  ) {
-    super(`${table} row ${rowId}: ${column} ${problem}`);
-    this.name = 'StoredJsonError';
-  }
-}
+const stockParamsSchema = z.record(z.string(), z.unknown());
 
-export interface StoredAt {
-  table: string;
-  id: number;
-  column: string;
-}
-
-/** A schema over a column's JSON text: the text must be JSON, and its value must be of `schema`. */
-export function jsonText<S extends z.ZodType>(schema: S) {
-  return z
-    .string()
-    .transform((text, ctx): unknown => {
-      try {
-        return JSON.parse(text);
-      } catch {
-        ctx.addIssue({ code: 'custom', message: 'not JSON' });
-        return z.NEVER;
-      }
-    })
-    .pipe(schema);
-}
-
-function storedError(at: StoredAt, issue: z.core.$ZodIssue | undefined, skip = 0): StoredJsonError {
-  const path = issue && issue.path.length > skip ? ` at ${issue.path.slice(skip).join('.')}` : '';
-  return new StoredJsonError(at.table, at.id, at.column, `does not read${path}: ${issue?.message ?? 'invalid'}`);
-}
-
-/** Read a stored column's text through its schema; a text that does not read throws a StoredJsonError naming the row. */
-export function readStored<S extends z.ZodType<unknown, string>>(schema: S, text: string, at: StoredAt): z.output<S> {
-  const r = schema.safeParse(text);
-  if (!r.success) throw storedError(at, r.error.issues[0]);
-  return r.data;
+/** params_json of a stock row: how it was made (foundry run, submission, demo). */
+export function storedParamsOf(row: { id: number; paramsJson: string | null }): Record<string, unknown> | null {
+  return parseStoredJson(stockParamsSchema, row.paramsJson, { table: 'stock', rowId: row.id, column: 'params_json' });
 }
 
 /** A stored integer as JSON.stringify writes it: non-negative, at most 15 digits (so exact). */
@@ -79,7 +41,8 @@ export function storedSquaresOf(table: 'stock' | 'submission', rows: readonly { 
   if (r.success) return r.data;
   // the first issue's path starts with the index of the row that does not read
   const issue = r.error.issues[0];
-  throw storedError({ table, id: rows[Number(issue?.path[0] ?? 0)]!.id, column: 'squares_json' }, issue, 1);
+  const row = rows[Number(issue?.path[0] ?? 0)]!;
+  throw new StoredRowError(table, row.id, 'squares_json', `does not have its stored shape: ${issuesText(new z.ZodError(issue ? [{ ...issue, path: issue.path.slice(1) }] : []))}`);
 }
 
 /** The tiling of a stock or submission row (its width, height and squares_json). */

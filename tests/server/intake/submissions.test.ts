@@ -293,7 +293,7 @@ describe('a submission row whose squares_json does not read', () => {
     const logged = spy.mock.calls.flat().map(String).join(' ');
     spy.mockRestore();
     expect([detail.body.error.code, accept.body.error.code]).toEqual(['internal', 'internal']);
-    expect(logged).toContain(`submission row ${id}: squares_json does not read`);
+    expect(logged).toContain(`submission ${id}: column squares_json does not have its stored shape`);
     expect(t.db.select({ status: submission.status }).from(submission).where(eq(submission.id, id)).get()!.status).toBe('pending');
     expect(t.db.select({ n: count() }).from(stock).get()!.n).toBe(stockBefore);
     expect(t.db.select({ n: count() }).from(mailOutbox).get()!.n).toBe(mailsBefore);

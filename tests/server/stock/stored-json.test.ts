@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { parseTiling } from '../../../shared/tiling/index';
 import { addToStock, getStockDetail, listStock, stockTiling } from '../../../server/areas/stock/stock';
-import { storedTiling, StoredJsonError } from '../../../server/areas/stock/stored-json';
+import { storedTiling } from '../../../server/areas/stock/stored-json';
+import { StoredRowError } from '../../../server/platform/db/stored-json';
 import { stockListQuerySchema } from '../../../shared/contracts/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { order9Code, order9bCode } from '../../fixtures/order9';
@@ -41,19 +42,19 @@ describe('squares_json of the stock', () => {
   it('a row that is not a list of [x,y,s] is an error naming the table, the row id and the column', () => {
     for (const text of ['[[0,0,"18"]]', '{"squares":[]}', '[]', '[[0,0]]', '[[0,0,1.5]]', 'not json']) {
       setColumn('squares_json', text, bad);
-      expect(() => stockTiling(t.db, bad), text).toThrow(new RegExp(`^stock row ${bad}: squares_json does not read`));
-      expect(() => detail(bad), text).toThrow(StoredJsonError);
+      expect(() => stockTiling(t.db, bad), text).toThrow(new RegExp(`^stock ${bad}: column squares_json does not have its stored shape`));
+      expect(() => detail(bad), text).toThrow(StoredRowError);
     }
   });
 
   it('the list says which row is broken; the API answers 500 without internals and logs the row', async () => {
     setColumn('squares_json', '[[0,0,"18"]]', bad);
-    expect(() => listStock(t.db, stockListQuerySchema.parse({ pageSize: '50', sort: 'id' }))).toThrow(`stock row ${bad}: squares_json`);
+    expect(() => listStock(t.db, stockListQuerySchema.parse({ pageSize: '50', sort: 'id' }))).toThrow(`stock ${bad}: column squares_json`);
     const spy = vi.spyOn(console, 'error').mockImplementation(() => undefined);
     const r = await editor.get(`/api/stock/${bad}`).expect(500);
     expect(r.body.error.code).toBe('internal');
     expect(JSON.stringify(r.body)).not.toContain('squares_json');
-    expect(spy.mock.calls.flat().map(String).join(' ')).toContain(`stock row ${bad}: squares_json does not read`);
+    expect(spy.mock.calls.flat().map(String).join(' ')).toContain(`stock ${bad}: column squares_json does not have its stored shape`);
     spy.mockRestore();
     // the other rows still read
     await editor.get(`/api/stock/${good}`).expect(200);
@@ -64,14 +65,14 @@ describe('params_json of the stock', () => {
   it('a row whose params are not an object, or not JSON, is an error naming the row', () => {
     setColumn('squares_json', badSquares, bad);
     setColumn('params_json', '[1,2]', bad);
-    expect(() => detail(bad)).toThrow(`stock row ${bad}: params_json does not read: Invalid input: expected record, received array`);
+    expect(() => detail(bad)).toThrow(`stock ${bad}: column params_json does not have its stored shape: (root): Invalid input: expected record, received array`);
     setColumn('params_json', '{"run":', bad);
-    expect(() => detail(bad)).toThrow(`stock row ${bad}: params_json does not read: not JSON`);
+    expect(() => detail(bad)).toThrow(`stock ${bad}: column params_json is not JSON`);
   });
 });
 
 describe('storedTiling', () => {
   it('names the submission table for a submission row', () => {
-    expect(() => storedTiling('submission', { id: 41, width: 1, height: 1, squaresJson: '[[0,0,-1]]' })).toThrow(/^submission row 41: squares_json/);
+    expect(() => storedTiling('submission', { id: 41, width: 1, height: 1, squaresJson: '[[0,0,-1]]' })).toThrow(/^submission 41: column squares_json/);
   });
 });
