@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { canonicalKey, classifyTiling, solvePlaneNetwork, toBouwkamp, type PlaneGraph, type Tiling } from '../../../shared/tiling/index';
+import { canonicalKey, classifyTiling, solvePlaneNetwork, toBouwkamp, wheel, type PlaneGraph, type Tiling } from '../../../shared/tiling/index';
 import { user } from '../../platform/auth/schema';
 import type { Db } from '../../platform/db/client';
 import { demoAccounts } from '../accounts/index';
@@ -16,8 +16,7 @@ import { createSubmission, reviewSubmission, type IntakeStore } from './submissi
  * the wedge of the rim face at both ends (between the two rim neighbours).
  */
 export function wheelWithChords(k: number, chords: readonly (readonly [number, number])[]): PlaneGraph {
-  const adj: number[][] = [Array.from({ length: k }, (_, i) => i + 1)];
-  for (let i = 1; i <= k; i++) adj.push([0, i === 1 ? k : i - 1, i === k ? 1 : i + 1]);
+  const { adj } = wheel(k);
   for (const [a, b] of chords) {
     adj[a]!.splice(2, 0, b);
     adj[b]!.splice(2, 0, a);

@@ -13,7 +13,7 @@ import {
   type PuzzleSummary,
   type SquareRef,
 } from '../../../shared/contracts/puzzles';
-import { inputHash, isCertificateCurrent, notToScaleLayout, PUZZLE_ENGINE_VERSION } from '../../../shared/puzzle/index';
+import { inputHash, isCertificateCurrent, notToScaleRects, PUZZLE_ENGINE_VERSION } from '../../../shared/puzzle/index';
 import type { Tiling } from '../../../shared/tiling/index';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { puzzle } from './schema';
@@ -371,14 +371,14 @@ export function getPuzzleForPrint(stockPort: StockPort, db: DbOrTx, puzzleId: st
   if (p.kind === 'assembly') {
     return { ...base, assembly: { frame: { W: tiling.W, H: tiling.H }, pieces: tiling.squares.map((q) => q.s).sort((a, b) => b - a), starters: startersOf(p) }, solution };
   }
-  const layout = notToScaleLayout(tiling);
+  const layout = notToScaleRects(tiling);
   const index = new Map(tiling.squares.map((q, i) => [`${q.x},${q.y}`, i]));
   const givens = givensOf(p).flatMap((g) => {
     const i = index.get(`${g.x},${g.y}`);
     return i === undefined ? [] : [{ rect: i, size: g.size }];
   });
   const steps = stepsOf(p).map((s) => s.text);
-  return { ...base, deduction: { layout: { W: layout.width, H: layout.height, rects: layout.rects }, givens }, solution: { ...solution, steps } };
+  return { ...base, deduction: { layout, givens }, solution: { ...solution, steps } };
 }
 
 export function listPrintablePuzzleIds(db: DbOrTx): string[] {
