@@ -7,7 +7,7 @@
 import { classifyTiling, facesOf, solvePlaneNetwork, type PlaneGraph } from '../tiling/index';
 import { edgeOrbits } from './canonical-graph';
 import { graphFromKey, planeGraphsWithEdges } from './generate-graphs';
-import { describeTiling, type FoundryRunControl, type FoundTiling } from './found-tiling';
+import { describeTiling, type FoundryRunControl } from './found-tiling';
 import { FoundryInputError } from './errors';
 
 export const MIN_ORDER = 5;

@@ -6,7 +6,7 @@
 //    them on that square -> a squared square of side a + b - c, adding squares a - c and b - c.
 // Every result is rebuilt from its squares and verified by the tiling engine before it is offered.
 import { classifyTiling, orientations, tilingFromSquares, TilingInputError, type Square, type Tiling } from '../tiling/index';
-import { describeTiling, type FoundryRunControl, type FoundTiling } from './found-tiling';
+import { describeTiling, type FoundryRunControl } from './found-tiling';
 
 export interface JoinPart {
   /** the stock's id or key, kept in the origin */

@@ -72,7 +72,7 @@ afterAll(async () => {
 describe('route()', () => {
   it('refuses a route that has no entry in the permission table', () => {
     const router = createApiRouter(t.deps);
-    expect(() => route(router, { method: 'GET', path: '/api/unlisted', summary: 'x' }, () => ({}))).toThrow(/no entry in server\/auth\/permissions\.ts/);
+    expect(() => route(router, { method: 'GET', path: '/api/unlisted', summary: 'x' }, () => ({}))).toThrow(/no entry in server\/platform\/auth\/permissions\.ts/);
   });
 
   it('an admin may do what an editor may; other roles may not', async () => {

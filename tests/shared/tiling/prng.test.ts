@@ -29,7 +29,7 @@ describe('seeded randomness', () => {
 
   it('mulberry32 is uniform enough: chi-square over 10 bins of 100,000 draws below the 0.1 % point (27.88, 9 degrees of freedom; standard tables)', () => {
     const r = mulberry32(42);
-    const bins = new Array<number>(10).fill(0);
+    const bins = Array.from<number>({ length: 10 }).fill(0);
     const N = 100_000;
     for (let i = 0; i < N; i++) {
       const x = r();
