@@ -82,3 +82,27 @@ export const editionProof = sqliteTable(
   },
   (t) => [uniqueIndex('edition_proof_version_idx').on(t.editionId, t.version)],
 );
+
+/**
+ * A guard someone went past, with their reason: a proof sent despite preflight errors (the
+ * editor), an edition published before its date or ahead of an earlier unpublished edition
+ * of its publication (an admin). Kept for the record; never changed.
+ */
+export const editionOverride = sqliteTable(
+  'edition_override',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    editionId: text('edition_id')
+      .notNull()
+      .references(() => edition.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['preflight', 'publish-early', 'publish-out-of-order'] }).notNull(),
+    reason: text('reason').notNull(),
+    /** what the guard said when it refused */
+    refused: text('refused').notNull(),
+    /** the proof sent with the override (preflight) */
+    proofVersion: integer('proof_version'),
+    createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().default(nowMs),
+  },
+  (t) => [index('edition_override_edition_idx').on(t.editionId, t.createdAt)],
+);
