@@ -75,13 +75,14 @@ export function preflightPdf(input: PreflightInput): Preflight {
   for (const g of metrics.illegibleGivens) {
     errors.push({ code: 'given-illegible', message: `puzzle ${g.slot}: the given ${g.size} cannot be printed at ${t.minimums.digitPt} pt or more in its box` });
   }
-  // common practice: squares under about 3 mm are hard to see and to cut out
+  // Floors are errors (a proof must not go out below them); common practice: squares under
+  // about 3 mm are hard to see and to cut out
   if (metrics.smallestSquareMm !== null && metrics.smallestSquareMm < t.minimums.squareMm) {
-    warnings.push({ code: 'square-small', message: `smallest printed square is ${metrics.smallestSquareMm.toFixed(2)} mm, under the ${t.minimums.squareMm} mm minimum` });
+    errors.push({ code: 'square-small', message: `smallest printed square is ${metrics.smallestSquareMm.toFixed(2)} mm, under the ${t.minimums.squareMm} mm minimum` });
   }
   // common practice: digits under about 6 pt are not legible in print
   if (metrics.smallestDigitPt !== null && metrics.smallestDigitPt < t.minimums.digitPt) {
-    warnings.push({ code: 'digit-small', message: `smallest digit is ${metrics.smallestDigitPt.toFixed(1)} pt, under the ${t.minimums.digitPt} pt minimum` });
+    errors.push({ code: 'digit-small', message: `smallest digit is ${metrics.smallestDigitPt.toFixed(1)} pt, under the ${t.minimums.digitPt} pt minimum` });
   }
   const omitted = metrics.omittedLabels;
   if (omitted.length > 0) {

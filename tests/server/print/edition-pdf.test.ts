@@ -80,7 +80,9 @@ describe('preflight', () => {
     expect(preflight.fontsRegistered).toEqual(['Source Serif 4', 'IBM Plex Sans']);
     expect(preflight.trimMm).toEqual({ width: 210, height: 297 });
     expect(preflight.pages).toBe(pages);
-    expect(preflight.ok).toBe(true);
+    // the 2-square of the half-scale pieces is under the 3 mm floor: an error, not a warning
+    expect(preflight.ok).toBe(false);
+    expect(preflight.warnings.map((w) => w.code)).toContain('error:square-small');
     // The 2-square of the 69 x 61 in a half-scale piece row: side 2 * (column width / 69) / 2 mm.
     const colMm = (210 - t.marginsMm.left - t.marginsMm.right - t.gutterMm) / 2;
     const frameScale = Math.min(colMm / 69, t.drawing.maxHeightMm / 61);
@@ -88,10 +90,11 @@ describe('preflight', () => {
     expect(preflight.smallestDigitPt).toBeGreaterThanOrEqual(t.minimums.digitPt);
   });
 
-  it('warns under the common-practice minimum square and notes labels it left out', () => {
+  it('fails under the common-practice minimum square and notes labels it left out', () => {
     const { preflight } = rendered.get('newspaper-column')!.press;
     const codes = preflight.warnings.map((w) => w.code);
-    expect(codes).toContain('square-small');
+    expect(codes).toContain('error:square-small');
+    expect(preflight.ok).toBe(false);
     // the 1-square of the 33 x 32 cannot carry a 6 pt label in a 76 mm column
     expect(preflight.omittedLabels).toContainEqual({ slot: 2, where: 'solution', size: 1 });
     expect(codes).toContain('solution-labels-omitted');

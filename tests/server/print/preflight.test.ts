@@ -52,10 +52,10 @@ describe('preflight of PDF bytes', () => {
     expect(r.warnings.map((w) => w.code)).toContain('error:page-size');
   });
 
-  it('warns under the template floors (common practice: squares 3 mm, digits 6 pt)', () => {
+  it('fails under the template floors (common practice: squares 3 mm, digits 6 pt)', () => {
     const bytes = pdf({ mediaBox: [pageW, pageH], embedded: true });
     const r = preflightPdf({ template: a4, pdf: bytes, fontsRegistered: [], pageSizePt: { width: pageW, height: pageH }, metrics: { ...metrics, smallestSquareMm: 2.9, smallestDigitPt: 5.5 } });
-    expect(r.ok).toBe(true);
-    expect(r.warnings.map((w) => w.code)).toEqual(['square-small', 'digit-small']);
+    expect(r.ok).toBe(false);
+    expect(r.warnings.map((w) => w.code)).toEqual(['error:square-small', 'error:digit-small']);
   });
 });
