@@ -11,3 +11,4 @@ export * from './areas/foundry/schema';
 export * from './areas/editions/publication-schema';
 export * from './areas/editions/schema';
 export * from './areas/puzzles/schema';
+export * from './areas/reader/schema';
