@@ -198,6 +198,67 @@ export const slotSchema = z.object({
 });
 export type Slot = z.infer<typeof slotSchema>;
 
+// ---- Guards and their overrides -------------------------------------------------------------
+
+/** A reason given for going ahead although a guard refused (recorded with who and when). */
+export const overrideSchema = z
+  .object({ reason: z.string({ error: 'reason is required' }).trim().min(5, 'say why in a few words (at least 5 characters)').max(2000, 'reason may be at most 2000 characters') })
+  .strict();
+export type Override = z.infer<typeof overrideSchema>;
+
+/**
+ * POST /api/editions/:id/proofs. `updatedAt` is the edition's updatedAt as the composer
+ * last loaded or saved it: the server sends only that saved state (409 when it changed).
+ * `override` lets preflight errors through, with a reason.
+ */
+export const sendProofSchema = z
+  .object({
+    updatedAt: z.string().max(40).optional(),
+    override: overrideSchema.optional(),
+  })
+  .strict();
+export type SendProof = z.infer<typeof sendProofSchema>;
+
+/** POST /api/editions/:id/publish. `override` (admins only) publishes before the date or ahead of an earlier edition. */
+export const publishSchema = z.object({ override: overrideSchema.optional() }).strict();
+export type PublishRequest = z.infer<typeof publishSchema>;
+
+export const overrideKindSchema = z.enum(['preflight', 'publish-early', 'publish-out-of-order']);
+export type OverrideKind = z.infer<typeof overrideKindSchema>;
+export const overrideKindLabels: Record<OverrideKind, string> = {
+  preflight: 'Sent to proof despite preflight errors',
+  'publish-early': 'Published before its date',
+  'publish-out-of-order': 'Published ahead of an earlier edition',
+};
+
+export const editionOverrideSchema = z.object({
+  kind: overrideKindSchema,
+  reason: z.string(),
+  /** what the guard said when it refused */
+  refused: z.string(),
+  proofVersion: z.number().int().nullable(),
+  byName: z.string().nullable(),
+  at: z.string(),
+});
+export type EditionOverride = z.infer<typeof editionOverrideSchema>;
+
+/** Why publishing is refused now (an admin may override each with a reason). */
+export const publishBlockerSchema = z.object({ code: z.enum(['early', 'out-of-order']), message: z.string() });
+export type PublishBlocker = z.infer<typeof publishBlockerSchema>;
+
+/** GET /api/editions/:id/publish-check: what publishing would do, and what stands in its way. */
+export const publishCheckSchema = z.object({
+  date: z.string(),
+  today: z.string(),
+  blockers: z.array(publishBlockerSchema),
+  fees: z.object({
+    currency: z.string(),
+    totalMinor: z.number().int(),
+    entries: z.array(z.object({ slot: z.number().int(), title: z.string(), kind: z.enum(['assembly', 'deduction']), setterName: z.string().nullable(), amountMinor: z.number().int() })),
+  }),
+});
+export type PublishCheck = z.infer<typeof publishCheckSchema>;
+
 /** An edition as the desk (editor, admin) sees it. */
 export const editionSchema = z.object({
   id: z.string(),
@@ -213,6 +274,8 @@ export const editionSchema = z.object({
   proofs: z.array(proofSchema),
   pressFile: pressFileSchema.nullable(),
   publishedAt: z.string().nullable(),
+  /** guards an editor or admin went past, with their reasons */
+  overrides: z.array(editionOverrideSchema),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -258,6 +321,8 @@ export const editionCheckSchema = z.object({
   ok: z.boolean(),
   message: z.string(),
   slot: z.number().int().optional(),
+  /** a failed check the editor may override with a reason when sending to proof (the preflight's errors) */
+  overridable: z.boolean().optional(),
 });
 export type EditionCheck = z.infer<typeof editionCheckSchema>;
 

@@ -27,9 +27,18 @@ export function saturdayOnOrAfter(d: Date): Date {
   return out;
 }
 
+/** The Saturday on or before a date (UTC): this week's edition of a Saturday column. */
+export function saturdayOnOrBefore(d: Date): Date {
+  const out = new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate()));
+  out.setUTCDate(out.getUTCDate() - ((out.getUTCDay() + 1) % 7));
+  return out;
+}
+
 /**
- * Demo editions of Larkspur & Quill Press: The Saturday Quadrant No. 40 (published),
- * No. 41 (in proof), No. 42 (draft) and Squared Away Monthly No. 12 (draft). The round is
+ * Demo editions of Larkspur & Quill Press: The Saturday Quadrant No. 40 (last week's,
+ * published), No. 41 (this week's, dated the Saturday on or before today, in proof: it may
+ * be published once approved), No. 42 (next week's, draft, due within 7 days) and Squared
+ * Away Monthly No. 12 (draft). The round is
  * driven through the real services when the puzzle store offers printable puzzles;
  * otherwise the editions stay empty drafts.
  */
@@ -40,7 +49,7 @@ export async function seedDemoEditions(deps: EditionsDeps): Promise<void> {
   const editorUser = demoUser(deps.db, 'editor@demo.squarewright.test');
   const printerUser = demoUser(deps.db, 'printer@demo.squarewright.test');
   if (!quadrant || !monthly || !editorUser || !printerUser) return;
-  const next = saturdayOnOrAfter(deps.clock.now());
+  const next = saturdayOnOrBefore(deps.clock.now());
   const day = (offset: number) => isoDay(new Date(next.getTime() + offset * 86_400_000));
   const intro = (n: number) =>
     plainRichText(`Welcome to No. ${n} of The Saturday Quadrant from Larkspur & Quill Press.`, 'Every rectangle below is cut into squares of whole-number sides. Solutions appear in next week\u2019s column.');

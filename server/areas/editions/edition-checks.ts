@@ -35,9 +35,12 @@ export function checkEdition(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, r: Edit
   const checks: EditionCheck[] = [];
   const slotCount = built.puzzles.length + built.missing.length;
 
-  // An edition without puzzles may still go out (an introduction, or the previous
-  // edition's solutions); the check says so rather than blocking.
-  checks.push({ code: 'has-slots', ok: true, message: slotCount > 0 ? `${slotCount} slot(s) filled.` : 'No puzzles yet: the proof will carry only the introduction and any solutions.' });
+  // A proof carries at least one puzzle (issue 16: an empty proof once went to the printer).
+  checks.push(
+    slotCount > 0
+      ? { code: 'has-slots', ok: true, message: `${slotCount} slot(s) filled.` }
+      : { code: 'has-slots', ok: false, message: 'No puzzles yet: add at least one puzzle (and save) before sending to proof.' },
+  );
   for (const m of built.missing) checks.push({ code: 'puzzle-found', ok: false, slot: m.slot, message: `Slot ${m.slot}: puzzle ${m.puzzleId} cannot be found.` });
 
   for (const { slot, puzzle } of built.puzzles) {
@@ -91,15 +94,38 @@ export function checkEdition(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, r: Edit
       : { code: 'fits-template', ok: false, message: `${slotCount} puzzles, but the ${built.doc.template.name} template holds at most ${max}.` },
   );
 
-  if (preflight !== null) {
-    const errors = preflight.warnings.filter((w) => w.code.startsWith('error:'));
-    checks.push(
-      errors.length === 0
-        ? { code: 'legibility', ok: true, message: `Preflight passed (${preflight.pages} page(s), ${preflight.warnings.length} warning(s)).` }
-        : { code: 'legibility', ok: false, message: `Preflight: ${errors.map((e) => e.message).join('; ')}` },
-    );
-  }
+  if (preflight !== null) checks.push(...preflightChecks(preflight));
   return { ok: checks.every((c) => c.ok), checks, preflight };
+}
+
+/** The preflight errors the editor may send past with a reason: the template's floors (smallest square, smallest digit). */
+export const OVERRIDABLE_PREFLIGHT_ERRORS: ReadonlySet<string> = new Set(['error:square-small', 'error:digit-small']);
+/** A floor reported as a plain warning (a preflight from before floors were errors) still breaks the floor. */
+const FLOOR_WARNINGS: ReadonlySet<string> = new Set(['square-small', 'digit-small']);
+
+/**
+ * The preflight as checks: "passed" only when the report has no error at all; the
+ * template's floors (overridable with a reason) and the other errors (fonts, page size, a
+ * given that cannot be printed: never overridable) each make a failed check.
+ */
+export function preflightChecks(preflight: PreflightReport): EditionCheck[] {
+  const errors = preflight.warnings
+    .filter((w) => w.code.startsWith('error:') || FLOOR_WARNINGS.has(w.code))
+    .map((w) => (w.code.startsWith('error:') ? w : { ...w, code: `error:${w.code}` }));
+  const warnings = preflight.warnings.length - errors.length;
+  if (errors.length === 0 && preflight.ok) {
+    return [{ code: 'legibility', ok: true, message: `Preflight passed (${preflight.pages} page(s), ${warnings} warning(s)).` }];
+  }
+  const floors = errors.filter((e) => OVERRIDABLE_PREFLIGHT_ERRORS.has(e.code));
+  const hard = errors.filter((e) => !OVERRIDABLE_PREFLIGHT_ERRORS.has(e.code));
+  const out: EditionCheck[] = [];
+  if (hard.length > 0 || (!preflight.ok && errors.length === 0)) {
+    out.push({ code: 'legibility', ok: false, message: `Preflight failed: ${hard.length > 0 ? hard.map((e) => e.message).join('; ') : 'the report is not ok'}.` });
+  }
+  if (floors.length > 0) {
+    out.push({ code: 'legibility', ok: false, overridable: true, message: `Preflight failed the template's minimums: ${floors.map((e) => e.message).join('; ')}.` });
+  }
+  return out;
 }
 
 /** The checks as the editor asks for them (GET /api/editions/:id/checks): renders an unstamped preview for the preflight when there is something to print. */

@@ -7,13 +7,14 @@ import {
   type EditionCreate,
   type EditionListQuery,
   type EditionPatch,
+  type EditionOverride,
   type EditionSummary,
   type PrinterEdition,
   type Proof,
 } from '../../../shared/contracts/editions';
 import type { DbOrTx } from '../../platform/db/client';
 import { user as userTable } from '../../platform/auth/schema';
-import { edition, editionProof, editionSlot } from './schema';
+import { edition, editionOverride, editionProof, editionSlot } from './schema';
 import { publication } from './publication-schema';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import type { EditionUsage } from '../puzzles/ports';
@@ -63,6 +64,19 @@ export function proofsOf(db: DbOrTx, editionId: string): Proof[] {
   }));
 }
 
+export function overridesOf(db: DbOrTx, editionId: string): EditionOverride[] {
+  const rows = db.select().from(editionOverride).where(eq(editionOverride.editionId, editionId)).orderBy(asc(editionOverride.createdAt), asc(editionOverride.id)).all();
+  const who = names(db, rows.map((r) => r.createdBy));
+  return rows.map((r) => ({
+    kind: r.kind,
+    reason: r.reason,
+    refused: r.refused,
+    proofVersion: r.proofVersion,
+    byName: r.createdBy ? (who.get(r.createdBy) ?? null) : null,
+    at: r.createdAt.toISOString(),
+  }));
+}
+
 function pressFileOf(r: EditionRow) {
   if (r.pressVersion === null || r.pressSha256 === null || r.pressBytes === null || r.pressPages === null || r.pressCreatedAt === null) return null;
   return { version: r.pressVersion, sha256: r.pressSha256, bytes: r.pressBytes, pages: r.pressPages, createdAt: r.pressCreatedAt.toISOString() };
@@ -99,6 +113,7 @@ export function toEdition(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, r: Edition
     proofs: proofsOf(db, r.id),
     pressFile: pressFileOf(r),
     publishedAt: r.publishedAt ? r.publishedAt.toISOString() : null,
+    overrides: overridesOf(db, r.id),
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
   };

@@ -1,20 +1,20 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, resolve } from 'node:path';
-import { and, eq, isNull, or } from 'drizzle-orm';
+import { and, eq, inArray, isNull, or } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
-import type { Edition } from '../../../shared/contracts/editions';
+import type { Edition, PublishCheck, PublishRequest, SendProof } from '../../../shared/contracts/editions';
 import { appRoot } from '../../platform/app-root';
 import type { DbOrTx } from '../../platform/db/client';
 import { user as userTable } from '../../platform/auth/schema';
 import { editionProof } from './schema';
-import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
+import { Conflict, NotFound } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
 import { renderEditionPdf } from '../print/index';
 import type { EditionsDeps } from './ports';
 import { checkEdition, printsPuzzlesOrSolutions } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
-import { moveEdition, requireMove } from './edition-states';
+import { moveEdition, publishBlockers, publishGuard, recordOverride, requireMove, requireSavedState, sendGuard } from './edition-states';
 import { getEditionRow, toEdition, visibleToPrinter } from './editions';
 import { feeFor, getPublicationRow } from './publications';
 import { slotPuzzle, slotsOf } from './slots';
@@ -87,23 +87,29 @@ function nextVersion(db: DbOrTx, editionId: string): number {
   return rows.reduce((m, r) => Math.max(m, r.v), 0) + 1;
 }
 
+/** The preflight's verdict in words, for mails and lists: never "passed" beside an error. */
+export function preflightWords(p: { ok: boolean; warnings: { code: string }[] }, overridden: boolean): string {
+  const errors = p.warnings.filter((w) => w.code.startsWith('error:') || w.code === 'square-small' || w.code === 'digit-small').length;
+  const warnings = p.warnings.length - errors;
+  if (errors === 0 && p.ok) return `passed${warnings > 0 ? ` with ${warnings} warning(s)` : ''}`;
+  return `FAILED with ${errors || 1} error(s)${overridden ? ' (sent anyway by the editor, with a reason)' : ''}`;
+}
+
 /**
  * Draft -> in proof: renders proof n with the PROOF stamp (once), runs the checks on that
- * very file's preflight, then stores it and mails the printers.
+ * very file's preflight, then stores it and mails the printers. Only the saved state the
+ * editor saw goes out (`updatedAt`), with at least one puzzle and every check passed; the
+ * preflight's floor errors go through only with the editor's reason, which is recorded.
  */
-export async function sendToProof(deps: Deps, who: SessionUser, editionId: string): Promise<Edition> {
+export async function sendToProof(deps: Deps, who: SessionUser, editionId: string, request: SendProof = {}): Promise<Edition> {
   const r = getEditionRow(deps.db, editionId);
   requireMove(r, 'sendToProof');
+  requireSavedState(r, request.updatedAt);
   const version = nextVersion(deps.db, editionId);
   const built = loadEditionDocument(deps, editionId);
   const rendered = await renderEditionPdf(built.doc, { stamp: 'PROOF', proofVersion: version });
   const checks = checkEdition(deps, r, built, printsPuzzlesOrSolutions(built) ? rendered.preflight : null);
-  if (!checks.ok) {
-    throw new Unprocessable(
-      'The edition does not pass its checks before proof.',
-      checks.checks.filter((c) => !c.ok).map((c) => ({ path: c.slot ? `slots.${c.slot}` : c.code, message: c.message })),
-    );
-  }
+  const overridden = sendGuard(checks, request.override);
   const rel = proofRel(editionId, version);
   const pub = getPublicationRow(deps.db, r.publicationId);
   storeThenRecord(deps, rel, rendered.pdf, (hash) =>
@@ -111,12 +117,13 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
       const now = deps.clock.now();
       const fresh = getEditionRow(tx, editionId);
       requireMove(fresh, 'sendToProof');
+      requireSavedState(fresh, r.updatedAt.toISOString());
+      if (overridden && request.override) recordOverride(tx, editionId, { kind: 'preflight', reason: request.override.reason, refused: overridden.refused, proofVersion: version, by: who.id, at: now });
       tx.update(editionProof).set({ status: 'superseded' }).where(and(eq(editionProof.editionId, editionId), eq(editionProof.status, 'pending'))).run();
       tx.insert(editionProof)
         .values({ editionId, version, sha256: hash, path: rel, bytes: rendered.pdf.length, pages: rendered.pages, preflightJson: JSON.stringify(rendered.preflight), documentJson: JSON.stringify(built.doc), status: 'pending', createdBy: who.id, createdAt: now })
         .run();
       moveEdition(tx, fresh, 'sendToProof', { returnNotes: null, updatedAt: now });
-      const warnings = rendered.preflight.warnings.length;
       for (const p of activeUsersWithRole(tx, 'printer')) {
         queueMail(
           tx,
@@ -130,7 +137,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
               date: r.editionDate,
               version: String(version),
               pages: String(rendered.pages),
-              preflight: rendered.preflight.ok ? `passed${warnings > 0 ? ` with ${warnings} warning(s)` : ''}` : 'FAILED',
+              preflight: preflightWords(rendered.preflight, overridden !== null),
               sha256: hash,
               link: editionLink(deps, `/proofs/${editionId}`),
             },
@@ -226,24 +233,57 @@ export function returnProof(deps: Deps, who: SessionUser, editionId: string, ver
   deps.mail.kick();
 }
 
+function todayOf(deps: Pick<EditionsDeps, 'clock'>): string {
+  return deps.clock.now().toISOString().slice(0, 10);
+}
+
+/** What publishing would do now (fees it makes payable) and what stands in its way (GET /api/editions/:id/publish-check). */
+export function publishCheck(deps: Pick<EditionsDeps, 'db' | 'clock' | 'puzzles'>, editionId: string): PublishCheck {
+  const r = getEditionRow(deps.db, editionId);
+  const pub = getPublicationRow(deps.db, r.publicationId);
+  const entries = feeEntries(deps, deps.db, editionId, pub);
+  const setterIds = [...new Set(entries.map((e) => e.setterId))];
+  const setters = new Map(setterIds.length === 0 ? [] : deps.db.select({ id: userTable.id, name: userTable.name }).from(userTable).where(inArray(userTable.id, setterIds)).all().map((u) => [u.id, u.name]));
+  const today = todayOf(deps);
+  return {
+    date: r.editionDate,
+    today,
+    blockers: publishBlockers(deps.db, r, today),
+    fees: {
+      currency: pub.currency,
+      totalMinor: entries.reduce((sum, e) => sum + e.amountMinor, 0),
+      entries: entries.map((e) => ({ slot: e.slot, title: e.title, kind: e.kind, setterName: setters.get(e.setterId) ?? null, amountMinor: e.amountMinor })),
+    },
+  };
+}
+
+/** One fee per printed puzzle with a setter, at the publication's rate for its kind. */
+function feeEntries(deps: Pick<EditionsDeps, 'puzzles'>, db: DbOrTx, editionId: string, pub: ReturnType<typeof getPublicationRow>) {
+  const out = [];
+  for (const s of slotsOf(db, editionId)) {
+    const p = slotPuzzle(deps.puzzles, db, s);
+    if (!p || !p.setterId) continue;
+    out.push({ slot: s.position, title: p.title, puzzleId: p.id, setterId: p.setterId, kind: p.kind, ...feeFor(pub, p.kind) });
+  }
+  return out;
+}
+
 /**
  * Approved -> published. Records, per printed puzzle with a setter, the setter and the
- * publication's fee for its kind in the ledger, in the same transaction.
+ * publication's fee for its kind in the ledger, in the same transaction. Refused before
+ * the edition's date and ahead of an earlier unpublished edition of the publication,
+ * unless an admin overrides with a reason (recorded in the same transaction).
  */
-export function publishEdition(deps: Deps, who: SessionUser, editionId: string): Edition {
-  const source = deps.puzzles;
+export function publishEdition(deps: Deps, who: SessionUser, editionId: string, request: PublishRequest = {}): Edition {
   deps.db.transaction((tx) => {
     const r = getEditionRow(tx, editionId);
     requireMove(r, 'publish');
-    const pub = getPublicationRow(tx, r.publicationId);
-    const entries = [];
-    for (const s of slotsOf(tx, editionId)) {
-      const p = slotPuzzle(source, tx, s);
-      if (!p || !p.setterId) continue;
-      entries.push({ puzzleId: p.id, setterId: p.setterId, kind: p.kind, ...feeFor(pub, p.kind) });
-    }
-    if (entries.length > 0) deps.fees.recordPublicationFees(tx, { editionId, publicationId: pub.id, date: r.editionDate, entries });
     const now = deps.clock.now();
+    const passed = publishGuard(publishBlockers(tx, r, todayOf(deps)), who, request.override);
+    for (const b of passed) recordOverride(tx, editionId, { kind: b.code, reason: request.override!.reason, refused: b.message, by: who.id, at: now });
+    const pub = getPublicationRow(tx, r.publicationId);
+    const entries = feeEntries(deps, tx, editionId, pub).map(({ puzzleId, setterId, kind, amountMinor, currency }) => ({ puzzleId, setterId, kind, amountMinor, currency }));
+    if (entries.length > 0) deps.fees.recordPublicationFees(tx, { editionId, publicationId: pub.id, date: r.editionDate, entries });
     moveEdition(tx, r, 'publish', { publishedAt: now, publishedBy: who.id, updatedAt: now });
   });
   return toEdition(deps, getEditionRow(deps.db, editionId));

@@ -9,7 +9,10 @@ import {
   editionSchema,
   printerEditionSchema,
   proofParamsSchema,
+  publishCheckSchema,
+  publishSchema,
   returnProofSchema,
+  sendProofSchema,
 } from '../../../shared/contracts/editions';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderEditionPdf } from '../print/index';
@@ -17,7 +20,7 @@ import type { EditionsDeps } from './ports';
 import { runEditionChecks } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
 import { createEdition, getEditionFor, getEditionRow, listEditions, updateEdition } from './editions';
-import { approveProof, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
+import { approveProof, publishCheck, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
 
 function sendPdf(res: import('express').Response, file: { pdf: Buffer; sha256: string; name: string }, disposition: 'inline' | 'attachment') {
   res.status(200).type('application/pdf');
@@ -75,8 +78,17 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
 
   route(
     router,
-    { method: 'POST', path: '/api/editions/:id/proofs', summary: 'Send to proof: render version n, store it hashed, mail the printers', tags, params: editionIdParamsSchema, response: editionSchema, status: 201 },
-    ({ user, params }) => sendToProof(deps, user, params.id),
+    {
+      method: 'POST',
+      path: '/api/editions/:id/proofs',
+      summary: 'Send to proof: render version n from the saved state (updatedAt as seen), check it, store it hashed, mail the printers; preflight floor errors need override.reason',
+      tags,
+      params: editionIdParamsSchema,
+      body: sendProofSchema,
+      response: editionSchema,
+      status: 201,
+    },
+    ({ user, params, body }) => sendToProof(deps, user, params.id, body),
   );
 
   route(
@@ -111,8 +123,22 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
 
   route(
     router,
-    { method: 'POST', path: '/api/editions/:id/publish', summary: 'Mark an approved edition published; fees per printed puzzle go into the ledger', tags, params: editionIdParamsSchema, response: editionSchema },
-    ({ user, params }) => publishEdition(deps, user, params.id),
+    {
+      method: 'POST',
+      path: '/api/editions/:id/publish',
+      summary: 'Mark an approved edition published; fees per printed puzzle go into the ledger. Refused (409) before its date or ahead of an earlier unpublished edition unless an admin gives override.reason',
+      tags,
+      params: editionIdParamsSchema,
+      body: publishSchema,
+      response: editionSchema,
+    },
+    ({ user, params, body }) => publishEdition(deps, user, params.id, body),
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/editions/:id/publish-check', summary: 'What publishing would do now: the fees it makes payable, and what refuses it (before the date, an earlier edition unpublished)', tags, params: editionIdParamsSchema, response: publishCheckSchema },
+    ({ params }) => publishCheck(deps, params.id),
   );
 
 }

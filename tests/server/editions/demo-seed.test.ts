@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { user } from '../../../server/platform/auth/schema';
-import { saturdayOnOrAfter, seedDemoEditions } from '../../../server/areas/editions/demo-seed';
+import { saturdayOnOrAfter, saturdayOnOrBefore, seedDemoEditions } from '../../../server/areas/editions/demo-seed';
 import { listEditions } from '../../../server/areas/editions/editions';
 import { listPublications, seedDemoPublications } from '../../../server/areas/editions/publications';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -48,5 +48,10 @@ describe('print demo data', () => {
     // editions of a weekly column fall a week apart, on Saturdays (getUTCDay() 6)
     expect(new Date(`${n41.date}T00:00:00Z`).getUTCDay()).toBe(6);
     expect(saturdayOnOrAfter(new Date('2026-12-02T10:00:00Z')).toISOString().slice(0, 10)).toBe('2026-12-05');
+    // No. 41 is this week's: dated on or before today, so once approved it may be published (issue 16's date guard)
+    expect(n41.date <= t.clock.now().toISOString().slice(0, 10)).toBe(true);
+    // 2026-12-02 was a Wednesday, 2026-11-28 the Saturday before it (calendar); a Saturday is its own
+    expect(saturdayOnOrBefore(new Date('2026-12-02T10:00:00Z')).toISOString().slice(0, 10)).toBe('2026-11-28');
+    expect(saturdayOnOrBefore(new Date('2026-12-05T23:00:00Z')).toISOString().slice(0, 10)).toBe('2026-12-05');
   });
 });
