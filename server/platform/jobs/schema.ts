@@ -1,10 +1,10 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { user } from '../auth/schema';
 
-// Background jobs run by the worker-thread pool (server/platform/jobs). A job never disappears:
+// Background jobs (server/platform/jobs, decision 032). A job never disappears:
 // queued -> running -> done | cancelled | failed; a job found queued or running when the
-// server starts becomes interrupted.
+// server starts (thread mode) becomes interrupted, and may be resumed or restarted (queued again).
 
 const nowMs = sql`(cast(unixepoch('subsecond') * 1000 as integer))`;
 
@@ -31,4 +31,29 @@ export const job = sqliteTable(
     finishedAt: integer('finished_at', { mode: 'timestamp_ms' }),
   },
   (t) => [index('job_kind_created_idx').on(t.kind, t.createdAt), index('job_state_idx').on(t.state)],
+);
+
+export const jobPartStates = ['queued', 'running', 'done', 'failed', 'cancelled', 'interrupted'] as const;
+
+/**
+ * The parts of a job split into parts (a foundry run's shards; every job has at least part 0).
+ * A resumed job runs only its parts that are not done.
+ */
+export const jobPart = sqliteTable(
+  'job_part',
+  {
+    jobId: text('job_id')
+      .notNull()
+      .references(() => job.id, { onDelete: 'cascade' }),
+    idx: integer('idx').notNull(),
+    state: text('state', { enum: jobPartStates }).notNull().default('queued'),
+    /** the part's summary when it finished, JSON */
+    summary: text('summary'),
+    error: text('error'),
+    /** how many times a worker started it */
+    attempts: integer('attempts').notNull().default(0),
+    startedAt: integer('started_at', { mode: 'timestamp_ms' }),
+    finishedAt: integer('finished_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [primaryKey({ columns: [t.jobId, t.idx] })],
 );
