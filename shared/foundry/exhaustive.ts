@@ -4,8 +4,9 @@
 // result is re-verified, classified and deduplicated by its canonical key (never by
 // dividing counts). (G, e) and (G*, e*) give the same rectangle turned a quarter turn, so of
 // a dual pair only the graph whose canonical code is not larger is solved [common practice].
-import { classifyTiling, facesOf, solvePlaneNetwork, type PlaneGraph } from '../tiling/index';
-import { edgeOrbits } from './canonical-graph';
+import { classifyTiling, dualOf, facesOf, solvePlaneNetwork, type PlaneGraph, type Tiling } from '../tiling/index';
+import { canonicalGraphKey, edgeOrbits } from './canonical-graph';
+import { cNetsOf, crossPoints } from './tiling-networks';
 import { graphFromKey, planeGraphsWithEdges } from './generate-graphs';
 import { describeTiling, type FoundryRunControl } from './found-tiling';
 import { FoundryInputError } from './errors';
@@ -18,6 +19,13 @@ export interface ExhaustiveOptions extends FoundryRunControl {
   order: number;
   /** only squared squares, with Gambini's filter on the pole edges */
   squaresOnly?: boolean;
+  /**
+   * Run only part `index` (0-based) of `count` disjoint parts. Each part is deterministic, the
+   * parts together do exactly the whole run, and every tiling is reported by exactly one part
+   * (a tiling with a cross, met from two c-nets, only by the part holding its owner c-net), so
+   * the parts' counts add up to the whole run's and their tilings are the run's.
+   */
+  shard?: { index: number; count: number };
   /** 'levels': graph levels built; 'last-level': graphs with m - 1 edges extended; 'solving': graphs solved */
   onProgress?: (p: { phase: 'levels' | 'last-level' | 'solving'; done: number; total: number; found: number }) => void;
 }
@@ -61,11 +69,43 @@ function dartFaceSizes(g: PlaneGraph): Map<string, number> {
   return m;
 }
 
+/** The canonical key of the graph a run solves for g: of a dual pair only the one with the smaller key. */
+function solvedKey(g: PlaneGraph): string {
+  const k = canonicalGraphKey(g);
+  const d = canonicalGraphKey(dualOf(g));
+  return k <= d ? k : d;
+}
+
+/**
+ * Whether the run reports tiling t when it meets it from the graph with key `key`: always for
+ * a tiling without crosses (it has one c-net); for one with crosses only from its owner, the
+ * 3-connected c-net with the smallest solved key.
+ */
+function ownedBy(t: Tiling, key: string): boolean {
+  if (crossPoints(t).length === 0) return true;
+  let owner: string | null = null;
+  for (const g of cNetsOf(t)) {
+    const k = solvedKey(g);
+    if (owner === null || k < owner) owner = k;
+  }
+  return owner === null || owner === key;
+}
+
+function checkShard(shard: ExhaustiveOptions['shard']): { index: number; count: number } {
+  if (shard === undefined) return { index: 0, count: 1 };
+  const { index, count } = shard;
+  if (!Number.isInteger(count) || count < 1 || !Number.isInteger(index) || index < 0 || index >= count) {
+    throw new FoundryInputError('bad-shard', `exhaustiveTilings: shard must be { index, count } with 0 <= index < count, got ${JSON.stringify(shard)}`);
+  }
+  return { index, count };
+}
+
 export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
   const { order } = opts;
   if (!Number.isInteger(order) || order < MIN_ORDER || order > MAX_EXHAUSTIVE_ORDER) {
     throw new FoundryInputError('bad-order', `exhaustiveTilings: order must be an integer in ${MIN_ORDER}..${MAX_EXHAUSTIVE_ORDER}, got ${order}`);
   }
+  const shard = checkShard(opts.shard);
   const squaresOnly = opts.squaresOnly === true;
   const t0 = Date.now();
   const m = order + 1;
@@ -84,7 +124,6 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
     onLevel: (e) => opts.onProgress?.({ phase: 'levels', done: e - 6, total: levels, found: 0 }),
     onParents: (e, done, total) => { if (e === m) opts.onProgress?.({ phase: 'last-level', done, total, found: 0 }); },
   })) graphs.push(g);
-  summary.graphs = graphs.length;
   if (shouldStop()) {
     summary.stopped = true;
     summary.ms = Date.now() - t0;
@@ -96,7 +135,8 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
       if (shouldStop()) break;
       opts.onProgress?.({ phase: 'solving', done, total: graphs.length, found: found.size });
     }
-    done++;
+    if (done++ % shard.count !== shard.index) continue;
+    summary.graphs++;
     if (key > dualKey) continue;
     const g = graphFromKey(key);
     const faceSizes = squaresOnly ? dartFaceSizes(g) : null;
@@ -111,6 +151,7 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
         continue;
       }
       if (squaresOnly && r.tiling.W !== r.tiling.H) continue;
+      if (!ownedBy(r.tiling, key)) continue;
       const cls = classifyTiling(r.tiling);
       if (!cls.simple) {
         // count each compound tiling once as well

@@ -132,6 +132,29 @@ export function canonicalTiling(t: Tiling): Tiling {
   return build(t, best!);
 }
 
+/** The canonical orientation with its code and stock key, from one canonicalisation. */
+export interface CanonicalTilingForm {
+  /** the canonical orientation (W >= H, squares in reading order) */
+  tiling: Tiling;
+  /** canonical Bouwkamp code with header, e.g. "9 33 32 (18,15)(7,8)(14,4)(10,1)(9)" */
+  code: string;
+  /** stock key, e.g. "33x32:18,15,7,8,14,4,10,1,9" */
+  key: string;
+}
+
+/** The canonical orientation, code and key at the cost of one canonicalisation. */
+export function canonicalForm(t: Tiling): CanonicalTilingForm {
+  const c = canonicalTiling(t);
+  return { tiling: c, code: toBouwkamp(c, { header: true }), key: keyOf(c) };
+}
+
+function keyOf(c: Tiling): string {
+  const sq = c.squares;
+  let s = `${c.W}x${c.H}:`;
+  for (let i = 0; i < sq.length; i++) s += i === 0 ? `${sq[i]!.s}` : `,${sq[i]!.s}`;
+  return s;
+}
+
 /** Canonical Bouwkamp code with header, e.g. "9 33 32 (18,15)(7,8)(14,4)(10,1)(9)". */
 export function canonicalCode(t: Tiling): string {
   return toBouwkamp(canonicalTiling(t), { header: true });
@@ -139,6 +162,5 @@ export function canonicalCode(t: Tiling): string {
 
 /** Stock key, e.g. "33x32:18,15,7,8,14,4,10,1,9". */
 export function canonicalKey(t: Tiling): string {
-  const c = canonicalTiling(t);
-  return `${c.W}x${c.H}:${c.squares.map((q) => q.s).join(',')}`;
+  return keyOf(canonicalTiling(t));
 }

@@ -1,7 +1,5 @@
 import {
-  canonicalCode,
-  canonicalKey,
-  canonicalTiling,
+  canonicalForm,
   classifyTiling,
   parseTiling,
   smithDiagram,
@@ -54,14 +52,12 @@ export function classificationOf(tiling: Tiling): ClassificationData {
 }
 
 /**
- * The canonical orientation with the engine's canonical code and key. The tiling is
- * canonicalised once; code and key are then taken of the canonical orientation, which is its
- * own canonical form (the engine's canonicalCode/canonicalKey of the canonical orientation cost
- * less than of another one).
+ * The canonical orientation with the engine's canonical code and key, from the engine's one
+ * canonicalisation (canonicalForm).
  */
 export function canonicalFormOf(tiling: Tiling): { canonical: Tiling; canonicalCode: string; canonicalKey: string } {
-  const canonical = canonicalTiling(tiling);
-  return { canonical, canonicalCode: canonicalCode(canonical), canonicalKey: canonicalKey(canonical) };
+  const { tiling: canonical, code, key } = canonicalForm(tiling);
+  return { canonical, canonicalCode: code, canonicalKey: key };
 }
 
 /** Analyse a tiling that the engine already decoded and verified. */

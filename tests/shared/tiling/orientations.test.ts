@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { canonicalCode, canonicalKey, canonicalTiling, orientations, parseTiling, toBouwkamp, verifyTiling } from '../../../shared/tiling/index';
+import { canonicalCode, canonicalForm, canonicalKey, canonicalTiling, orientations, parseTiling, toBouwkamp, verifyTiling } from '../../../shared/tiling/index';
 import { O21_112, O9_33x32, catalogue, withoutCaption, greedyTiling } from './helpers';
 
 describe('orientations and the canonical code', () => {
@@ -60,6 +60,21 @@ describe('orientations and the canonical code', () => {
       }),
       { seed: 11, numRuns: 300 },
     );
+  });
+
+  it('canonicalForm gives the canonical orientation, code and key of one canonicalisation (facts.md worked example)', () => {
+    // facts.md: the canonical code of every orientation of the 33 x 32 is (18,15)(7,8)(14,4)(10,1)(9)
+    for (const o of orientations(parseTiling(O9_33x32), { all: true })) {
+      const f = canonicalForm(o);
+      expect(f.code).toBe('9 33 32 (18,15)(7,8)(14,4)(10,1)(9)');
+      expect(f.key).toBe('33x32:18,15,7,8,14,4,10,1,9');
+      expect(f.tiling).toEqual(canonicalTiling(o));
+    }
+    for (const { code } of catalogue()) {
+      const f = canonicalForm(parseTiling(code));
+      expect(f.code).toBe(withoutCaption(code));
+      expect(f.key).toBe(canonicalKey(parseTiling(code)));
+    }
   });
 
   it('keys the 33 x 32 as documented in the API contract', () => {
