@@ -12,3 +12,4 @@ export * from './areas/editions/publication-schema';
 export * from './areas/editions/schema';
 export * from './areas/puzzles/schema';
 export * from './areas/reader/schema';
+export * from './areas/integrations/schema';

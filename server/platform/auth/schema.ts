@@ -80,3 +80,37 @@ export const verification = sqliteTable(
   },
   (t) => [index('verification_identifier_idx').on(t.identifier)],
 );
+
+// API keys (better-auth's @better-auth/api-key plugin; server/platform/auth/api-keys.ts):
+// the key itself is stored only as its SHA-256 hash; `start` keeps its first characters to
+// recognise it; `permissions` holds the scopes as JSON ({ "stock": ["read"] }).
+export const apikey = sqliteTable(
+  'apikey',
+  {
+    id: text('id').primaryKey(),
+    configId: text('config_id').notNull().default('default'),
+    name: text('name'),
+    start: text('start'),
+    referenceId: text('reference_id')
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    prefix: text('prefix'),
+    key: text('key').notNull(),
+    refillInterval: integer('refill_interval'),
+    refillAmount: integer('refill_amount'),
+    lastRefillAt: integer('last_refill_at', { mode: 'timestamp_ms' }),
+    enabled: integer('enabled', { mode: 'boolean' }).default(true),
+    rateLimitEnabled: integer('rate_limit_enabled', { mode: 'boolean' }).default(true),
+    rateLimitTimeWindow: integer('rate_limit_time_window'),
+    rateLimitMax: integer('rate_limit_max'),
+    requestCount: integer('request_count').default(0),
+    remaining: integer('remaining'),
+    lastRequest: integer('last_request', { mode: 'timestamp_ms' }),
+    expiresAt: integer('expires_at', { mode: 'timestamp_ms' }),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+    updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull(),
+    permissions: text('permissions'),
+    metadata: text('metadata'),
+  },
+  (t) => [index('apikey_key_idx').on(t.key), index('apikey_reference_idx').on(t.referenceId), index('apikey_config_idx').on(t.configId)],
+);
