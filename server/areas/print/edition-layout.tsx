@@ -5,17 +5,22 @@
 import { Document, Font, G, Line, Page, Rect, Svg, Text, View } from '@react-pdf/renderer';
 import type { ReactElement, ReactNode } from 'react';
 import type { RichTextDoc, RichTextNode } from '../../../shared/contracts/editions';
+import { HAIRLINE_PT } from '../../../shared/contracts/press';
 import { templateGeometry, type PageTemplate } from '../../../shared/contracts/templates';
-import { squareLabel } from '../../../shared/puzzle/index';
+import { notToScaleRects, squareLabel } from '../../../shared/puzzle/index';
 import { PRINT_FONTS, registerPrintFonts } from '../../platform/pdf/fonts';
+import { PALETTE } from './palette';
 import type { EditionDocument, Preflight, PuzzlePrint, SolutionPrint, SolvedTiling } from './types';
 
 export const PT_PER_MM = 72 / 25.4;
-const INK = '#1c1b19';
-const PIECE_FILL = '#e9e2d3';
-const STARTER_FILL = '#c9b48a';
-const GIVEN_FILL = '#f3efe6';
-const STAMP = '#b4462b';
+// Colours only from the print palette: each has its press colour (CMYK) there, and the
+// press post-processing (pdfx.ts) refuses any other.
+const INK = PALETTE.ink.rgb;
+const PAPER = PALETTE.paper.rgb;
+const PIECE_FILL = PALETTE.pieceFill.rgb;
+const STARTER_FILL = PALETTE.starterFill.rgb;
+const GIVEN_FILL = PALETTE.givenFill.rgb;
+const PROOF_TINT = PALETTE.proofTint.rgb;
 
 export { Font, registerPrintFonts };
 
@@ -113,24 +118,114 @@ function fitScale(W: number, H: number, box: Box) {
   return Math.min(box.widthPt / W, box.maxHeightPt / H);
 }
 
-/** A solved tiling drawn to scale, every square labelled where it can be read. */
-function tilingDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, slot: number, letters = false): ReactElement {
+// ---- the solution drawing -----------------------------------------------------------------
+// A solution is drawn to scale when every square can then be printed at the template's
+// floor with its size inside. Otherwise, and always for a Deduction (whose step list names
+// the squares by letter), it is drawn not to scale: the same monotone remapping of the
+// coordinates as the Deduction puzzle (notToScaleRects), every square labelled with its
+// letter (Deduction) and its size. A square too small for its label even so gets a callout:
+// a leader line from the square to the label in a column beside the drawing.
+
+type SolutionCell = { x: number; y: number; w: number; h: number; size: number; letter: string | null };
+type InsideLabel = { lines: string[]; fontPt: number };
+
+/** The label inside a cell of w x h pt: letter over size on two lines, or "C 11" on one, at the largest size the cell allows; null when neither fits at the floor. */
+function insideLabel(t: PageTemplate, cell: Pick<SolutionCell, 'w' | 'h' | 'size' | 'letter'>): InsideLabel | null {
+  const size = String(cell.size);
+  if (cell.letter === null) {
+    const f = labelFontPt(size, cell.w, cell.h, t);
+    return f === null ? null : { lines: [size], fontPt: f };
+  }
+  const longest = Math.max(size.length, cell.letter.length);
+  const two = Math.min(t.type.digitsPt, (0.82 * cell.w) / (0.6 * longest), (0.8 * cell.h) / 2.3);
+  if (two >= t.minimums.digitPt) return { lines: [cell.letter, size], fontPt: Math.round(two * 10) / 10 };
+  const one = labelFontPt(`${cell.letter} ${size}`, cell.w, cell.h, t);
+  return one === null ? null : { lines: [`${cell.letter} ${size}`], fontPt: one };
+}
+
+function solutionCells(tiling: SolvedTiling, k: number, notToScale: boolean, letters: boolean): SolutionCell[] {
+  const letterOf = (i: number) => (letters ? squareLabel(i) : null);
+  if (!notToScale) return tiling.squares.map((q, i) => ({ x: q.x * k, y: q.y * k, w: q.s * k, h: q.s * k, size: q.s, letter: letterOf(i) }));
+  const layout = notToScaleRects({ W: tiling.W, H: tiling.H, squares: tiling.squares });
+  return layout.rects.map((r, i) => ({ x: r.x * k, y: r.y * k, w: r.w * k, h: r.h * k, size: tiling.squares[i]!.s, letter: letterOf(i) }));
+}
+
+/** Whether a to-scale drawing of the tiling in the box keeps every square at the floor with its size inside. */
+function fitsToScale(t: PageTemplate, tiling: SolvedTiling, box: Box): boolean {
   const k = fitScale(tiling.W, tiling.H, box);
-  const stroke = ctx.t.drawing.strokePt;
+  return tiling.squares.every((q) => q.s * k >= t.minimums.squareMm * PT_PER_MM && labelFontPt(String(q.s), q.s * k, q.s * k, t) !== null);
+}
+
+/** The solution drawing of one puzzle (see above); `letters` for a Deduction. */
+function solutionDrawing(ctx: Ctx, tiling: SolvedTiling, box: Box, letters: boolean): { element: ReactElement; notToScale: boolean } {
+  const t = ctx.t;
+  const stroke = t.drawing.strokePt;
+  const notToScale = letters || !fitsToScale(t, tiling, box);
+  const digitPt = Math.max(t.minimums.digitPt, Math.min(t.type.digitsPt, t.type.captionPt));
+  const box0 = notToScale ? notToScaleRects({ W: tiling.W, H: tiling.H, squares: tiling.squares }) : { W: tiling.W, H: tiling.H };
+  // First pass on the whole width; when some cells need callouts, make room for their column and lay out again.
+  let calloutW = 0;
+  let k = 0;
+  let cells: SolutionCell[] = [];
+  let labels: (InsideLabel | null)[] = [];
+  for (let pass = 0; pass < 3; pass++) {
+    k = fitScale(box0.W, box0.H, { widthPt: box.widthPt - calloutW, maxHeightPt: box.maxHeightPt });
+    cells = solutionCells(tiling, k, notToScale, letters);
+    labels = cells.map((c) => insideLabel(t, c));
+    const out = cells.filter((_, i) => labels[i] === null);
+    const need = out.length === 0 ? 0 : Math.max(...out.map((c) => (c.letter ? `${c.letter} = ${c.size}` : String(c.size)).length)) * 0.6 * digitPt + 4 * PT_PER_MM;
+    if (need <= calloutW) break;
+    calloutW = Math.min(need, box.widthPt * 0.45);
+  }
   const children: ReactNode[] = [];
-  tiling.squares.forEach((sq, i) => {
-    const side = sq.s * k;
-    children.push(...labelledSquare(ctx, { x: sq.x * k, y: sq.y * k, side, size: sq.s, fill: PIECE_FILL, key: `t${i}` }, { slot, where: 'solution' }));
-    const letter = letters ? cornerLetter(ctx, i, sq.x * k, sq.y * k, side, side, `c${i}`) : null;
-    if (letter) children.push(letter);
+  const w = box0.W * k;
+  const h = box0.H * k;
+  cells.forEach((c, i) => {
+    noteSquare(ctx, Math.min(c.w, c.h));
+    children.push(<Rect key={`sr${i}`} x={c.x} y={c.y} width={c.w} height={c.h} fill={PIECE_FILL} stroke={INK} strokeWidth={stroke} />);
+    const l = labels[i];
+    if (!l) return;
+    noteDigit(ctx, l.fontPt);
+    const lineH = l.fontPt * 1.15;
+    const top = c.y + c.h / 2 - (lineH * l.lines.length) / 2 + l.fontPt * 0.85;
+    l.lines.forEach((line, j) => {
+      const props = { ...svgTextProps(c.x + c.w / 2, top + j * lineH, l.fontPt), fontWeight: j === l.lines.length - 1 ? 600 : 400 } as unknown as { x: number; y: number };
+      children.push(
+        <Text key={`sl${i}-${j}`} {...props}>
+          {line}
+        </Text>,
+      );
+    });
   });
-  const w = tiling.W * k;
-  const h = tiling.H * k;
-  return (
-    <Svg width={w + stroke} height={h + stroke} viewBox={`${-stroke / 2} ${-stroke / 2} ${w + stroke} ${h + stroke}`}>
+  // Callouts: labels in a column right of the drawing, each at its cell's height where
+  // there is room (pushed down past the one above), joined to the cell by a leader line.
+  const callouts = cells.map((c, i) => ({ c, i })).filter(({ i }) => labels[i] === null).sort((a, b) => a.c.y + a.c.h / 2 - (b.c.y + b.c.h / 2));
+  const lineH = digitPt * 1.25;
+  let nextY = digitPt;
+  let bottom = h;
+  const labelX = w + 3 * PT_PER_MM;
+  for (const { c, i } of callouts) {
+    const cy = c.y + c.h / 2;
+    const y = Math.max(cy + digitPt * 0.35, nextY);
+    nextY = y + lineH;
+    bottom = Math.max(bottom, y + digitPt * 0.4);
+    noteDigit(ctx, digitPt);
+    children.push(<Line key={`sc${i}`} x1={c.x + c.w / 2} y1={cy} x2={labelX - 0.8 * PT_PER_MM} y2={y - digitPt * 0.35} stroke={INK} strokeWidth={Math.max(0.3, stroke * 0.6)} />);
+    const props = { x: labelX, y, textAnchor: 'start', fill: INK, fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: digitPt } as unknown as { x: number; y: number };
+    children.push(
+      <Text key={`st${i}`} {...props}>
+        {c.letter ? `${c.letter} = ${c.size}` : String(c.size)}
+      </Text>,
+    );
+  }
+  const width = callouts.length > 0 ? box.widthPt : w + stroke;
+  const height = bottom + stroke;
+  const element = (
+    <Svg width={width} height={height} viewBox={`${-stroke / 2} ${-stroke / 2} ${width} ${height}`}>
       <G>{children}</G>
     </Svg>
   );
+  return { element, notToScale };
 }
 
 function assemblyDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>, box: Box): ReactElement {
@@ -138,7 +233,7 @@ function assemblyDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'assembly' }>
   const stroke = ctx.t.drawing.strokePt;
   const w = p.frame.W * k;
   const h = p.frame.H * k;
-  const children: ReactNode[] = [<Rect key="frame" x={0} y={0} width={w} height={h} fill="#ffffff" stroke={INK} strokeWidth={stroke * 1.6} />];
+  const children: ReactNode[] = [<Rect key="frame" x={0} y={0} width={w} height={h} fill={PAPER} stroke={INK} strokeWidth={stroke * 1.6} />];
   p.starters.forEach((st, i) => {
     children.push(...labelledSquare(ctx, { x: st.x * k, y: st.y * k, side: st.size * k, size: st.size, fill: STARTER_FILL, key: `s${i}` }, { slot: p.slot, where: 'puzzle' }));
   });
@@ -195,7 +290,7 @@ function deductionDrawing(ctx: Ctx, p: Extract<PuzzlePrint, { kind: 'deduction' 
     const wPt = r.w * k;
     const hPt = r.h * k;
     noteSquare(ctx, Math.min(wPt, hPt));
-    children.push(<Rect key={`d${i}`} x={r.x * k} y={r.y * k} width={wPt} height={hPt} fill={given === undefined ? '#ffffff' : GIVEN_FILL} stroke={INK} strokeWidth={stroke} />);
+    children.push(<Rect key={`d${i}`} x={r.x * k} y={r.y * k} width={wPt} height={hPt} fill={given === undefined ? PAPER : GIVEN_FILL} stroke={INK} strokeWidth={stroke} />);
     const letter = cornerLetter(ctx, i, r.x * k, r.y * k, wPt, hPt, `dc${i}`);
     if (letter) children.push(letter);
     if (given !== undefined) {
@@ -278,7 +373,13 @@ function richText(ctx: Ctx, doc: RichTextDoc, key: string, sizePt: number): Reac
 
 // ---- page furniture --------------------------------------------------------------------
 
-function cropMarks(t: PageTemplate, pageW: number, pageH: number): ReactElement {
+/**
+ * Crop marks, on proofs only: the press file's MediaBox is its BleedBox, and marks inside the
+ * bleed are the plant's business (its imposition sets its own). Left out when the bleed of
+ * the press spec is too narrow for them.
+ */
+function cropMarks(t: PageTemplate, pageW: number, pageH: number): ReactElement | null {
+  if (t.cropMarks.offsetMm + t.cropMarks.lengthMm > t.bleedMm) return null;
   const b = t.bleedMm * PT_PER_MM;
   const off = t.cropMarks.offsetMm * PT_PER_MM;
   const len = t.cropMarks.lengthMm * PT_PER_MM;
@@ -289,8 +390,8 @@ function cropMarks(t: PageTemplate, pageW: number, pageH: number): ReactElement 
     for (const [yi, y] of ys.entries()) {
       const dx = xi === 0 ? -1 : 1;
       const dy = yi === 0 ? -1 : 1;
-      lines.push(<Line key={`h${xi}${yi}`} x1={x + dx * off} y1={y} x2={x + dx * (off + len)} y2={y} stroke="#000000" strokeWidth={0.25} />);
-      lines.push(<Line key={`v${xi}${yi}`} x1={x} y1={y + dy * off} x2={x} y2={y + dy * (off + len)} stroke="#000000" strokeWidth={0.25} />);
+      lines.push(<Line key={`h${xi}${yi}`} x1={x + dx * off} y1={y} x2={x + dx * (off + len)} y2={y} stroke={INK} strokeWidth={HAIRLINE_PT} />);
+      lines.push(<Line key={`v${xi}${yi}`} x1={x} y1={y + dy * off} x2={x} y2={y + dy * (off + len)} stroke={INK} strokeWidth={HAIRLINE_PT} />);
     }
   }
   return (
@@ -302,6 +403,10 @@ function cropMarks(t: PageTemplate, pageW: number, pageH: number): ReactElement 
   );
 }
 
+/**
+ * The PROOF watermark (a light tint of black, drawn first so the page prints over it: no
+ * transparency, which PDF/X-1a forbids) and the slug line in the top margin. Proofs only.
+ */
 function proofStamp(t: PageTemplate, pageW: number, pageH: number, version: number | undefined): ReactElement[] {
   const size = Math.min(96, (pageW - 2 * t.bleedMm * PT_PER_MM) / 4);
   const b = t.bleedMm * PT_PER_MM;
@@ -318,8 +423,7 @@ function proofStamp(t: PageTemplate, pageW: number, pageH: number, version: numb
         fontFamily: PRINT_FONTS.sans,
         fontWeight: 700,
         fontSize: size,
-        color: STAMP,
-        opacity: 0.22,
+        color: PROOF_TINT,
         transform: 'rotate(-30deg)',
         letterSpacing: size * 0.08,
       }}
@@ -337,7 +441,7 @@ function proofStamp(t: PageTemplate, pageW: number, pageH: number, version: numb
         fontFamily: PRINT_FONTS.sans,
         fontWeight: 600,
         fontSize: Math.max(t.minimums.bodyPt, 6),
-        color: STAMP,
+        color: INK,
       }}
     >
       {`PROOF${version ? ` v${version}` : ''} \u2013 check every proof before it goes to press`}
@@ -377,11 +481,12 @@ function solutionBlock(ctx: Ctx, s: SolutionPrint, colW: number): ReactElement {
   const t = ctx.t;
   const box = { widthPt: colW, maxHeightPt: t.drawing.maxHeightMm * PT_PER_MM * 0.75 };
   const sizes = [...s.tiling.squares].map((q) => q.s).sort((a, b) => b - a);
+  const drawing = solutionDrawing(ctx, s.tiling, box, s.kind === 'deduction');
   return (
     <View key={`s${s.slot}`} style={{ width: colW, marginBottom: 5 * PT_PER_MM }} wrap={false}>
       <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 600, fontSize: t.type.headingPt * 0.9 }}>{s.caption ?? `Puzzle ${s.slot}`}</Text>
-      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{tilingDrawing(ctx, s.tiling, box, s.slot, s.kind === 'deduction')}</View>
-      <Text style={{ fontSize: t.type.captionPt }}>{`${s.tiling.W} \u00d7 ${s.tiling.H}: ${sizes.join(', ')}.`}</Text>
+      <View style={{ marginTop: 1.5 * PT_PER_MM, marginBottom: 1.5 * PT_PER_MM }}>{drawing.element}</View>
+      <Text style={{ fontSize: t.type.captionPt }}>{`${s.tiling.W} \u00d7 ${s.tiling.H}: ${sizes.join(', ')}.${drawing.notToScale ? ' Drawing not to scale.' : ''}`}</Text>
       {s.steps && s.steps.length > 0 ? (
         <View style={{ marginTop: 1 * PT_PER_MM }}>
           {s.steps.map((step, i) => (
@@ -423,9 +528,12 @@ export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): {
     lineHeight: t.type.lineHeight,
     color: INK,
   };
+  const proof = opts.stamp === 'PROOF';
+  // the watermark goes first (under everything); the crop marks and the slug on top
+  const watermark = proof ? proofStamp(t, pageW, pageH, opts.proofVersion)[0] : null;
   const furniture = (
     <>
-      {cropMarks(t, pageW, pageH)}
+      {proof ? cropMarks(t, pageW, pageH) : null}
       <Text
         fixed
         style={{
@@ -439,7 +547,7 @@ export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): {
         }}
         render={({ pageNumber, totalPages }) => `${doc.publicationTitle} No. ${doc.editionNumber} \u00b7 Page ${pageNumber} of ${totalPages}`}
       />
-      {opts.stamp === 'PROOF' ? proofStamp(t, pageW, pageH, opts.proofVersion) : null}
+      {proof ? proofStamp(t, pageW, pageH, opts.proofVersion)[1] : null}
     </>
   );
   // Blocks go into rows of `columns`, each row kept whole on one page (react-pdf's own
@@ -459,6 +567,7 @@ export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): {
   const element = (
     <Document title={`${doc.publicationTitle} No. ${doc.editionNumber}`} author="Squarewright" creator="Squarewright" producer="Squarewright" language="en">
       <Page size={[pageW, pageH]} style={pageStyle} wrap>
+        {watermark}
         <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 700, fontSize: t.type.titlePt, lineHeight: 1.1 }}>{doc.publicationTitle}</Text>
         <Text style={{ fontFamily: PRINT_FONTS.sans, fontSize: t.type.captionPt + 1, marginBottom: 4 * PT_PER_MM }}>{heading.slice(doc.publicationTitle.length + 3)}</Text>
         {richText(ctx, doc.introduction, 'intro', t.type.bodyPt)}
@@ -467,6 +576,7 @@ export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): {
       </Page>
       {doc.solutions.length > 0 ? (
         <Page size={[pageW, pageH]} style={pageStyle} wrap>
+          {watermark}
           <Text style={{ fontFamily: PRINT_FONTS.sans, fontWeight: 700, fontSize: t.type.headingPt * 1.3, marginBottom: 3 * PT_PER_MM }}>Solutions</Text>
           <View>{rows(doc.solutions.map((s) => solutionBlock(ctx, s, colW)), 'sr')}</View>
           {furniture}
