@@ -16,8 +16,9 @@ import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 // reason, recorded with the edition.
 
 // Published tiling: order 12, 112 x 99, from the catalogue of simple perfect squared
-// rectangles (tests/fixtures/puzzle/o12spsr.bkp, see its SOURCE). Its 2-square printed in
-// the 76 mm newspaper column is 2 * 76 / 112 = 1.36 mm, under the template's 3 mm floor.
+// rectangles (tests/fixtures/puzzle/o12spsr.bkp, see its SOURCE). As an Assembly, its
+// 2-piece in the half-scale piece row of the 76 mm newspaper column is 2 * 76 / 112 / 2 =
+// 0.68 mm, under the template's 3 mm floor. (Deduction puzzles are drawn not to scale.)
 const TILING_112x99 = parseTiling('12 112 99 (56,27,29)(25,2)(31)(17,8)(43,13)(39)(30)');
 
 let t: TestApp;
@@ -42,7 +43,7 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 let nextTilingKey = 0;
-function printable(tiling = TILING_33x32, kind: 'assembly' | 'deduction' = 'assembly'): string {
+function printable(tiling = TILING_33x32, kind: 'assembly' | 'deduction' = 'deduction'): string {
   const p = puzzles.add({ tiling, kind, setterId });
   // each its own tiling key, so the reuse guard stays out of these tests
   puzzles.replace({ ...p, tilingKey: `guards-${nextTilingKey++}` });
@@ -88,7 +89,7 @@ describe('sending to proof', () => {
     const ed = await draft(3, '2027-03-20', [printable(TILING_112x99, 'assembly')]);
     const checks = (await editor.get(`/api/editions/${ed.id}/checks`).expect(200)).body;
     const floor = checks.checks.find((c: { code: string; ok: boolean }) => c.code === 'legibility' && !c.ok);
-    expect(floor).toMatchObject({ overridable: true, message: expect.stringMatching(/minimums: .*smallest printed square is 1\.\d+ mm, under the 3 mm minimum/) });
+    expect(floor).toMatchObject({ overridable: true, message: expect.stringMatching(/minimums: .*smallest printed square is 0\.68 mm, under the 3 mm minimum/) });
     // never "passed" beside a broken floor
     expect(checks.checks.some((c: { message: string }) => /passed/i.test(c.message) && /minimum/.test(c.message))).toBe(false);
     const refused = await editor.post(`/api/editions/${ed.id}/proofs`).send({ updatedAt: ed.updatedAt }).expect(422);

@@ -63,7 +63,8 @@ describe('sending a proof', () => {
     const id = await draftWith(1, [a.id, d.id]);
     renders.calls.length = 0;
 
-    const sent = await editor.post(`/api/editions/${id}/proofs`).expect(201);
+    // the Assembly's half-scale 2-piece is under A4's 3 mm floor: sent past it with a reason (issue 16)
+    const sent = await editor.post(`/api/editions/${id}/proofs`).send({ override: { reason: 'Small pieces agreed with the printer.' } }).expect(201);
 
     expect(renders.calls.map((c) => c.opts)).toEqual([{ stamp: 'PROOF', proofVersion: 1 }]);
     const only = await renders.calls[0]!.result;
@@ -72,7 +73,9 @@ describe('sending a proof', () => {
     expect(proof.sha256).toBe(createHash('sha256').update(only.pdf).digest('hex'));
     // ... and the preflight stored with it is the one the legibility check read
     expect(proof.preflight).toEqual(only.preflight);
-    expect(only.preflight.ok).toBe(true);
+    const floor = only.preflight.warnings.find((w) => w.code === 'error:square-small');
+    expect(floor).toBeDefined();
+    expect(sent.body.overrides).toEqual([expect.objectContaining({ kind: 'preflight', refused: expect.stringContaining(floor!.message) })]);
   });
 
   it('renders once when the checks refuse the proof, and stores nothing', async () => {
@@ -83,7 +86,7 @@ describe('sending a proof', () => {
 
     const refused = await editor.post(`/api/editions/${id}/proofs`).expect(422);
 
-    expect(refused.body.error.details).toContainEqual({ path: 'slots.1', message: expect.stringMatching(/certificate .* is out of date/) });
+    expect(refused.body.error.details).toContainEqual({ path: 'slots.1', message: expect.stringMatching(/certificate .* is out of date/), overridable: false });
     expect(renders.calls).toHaveLength(1);
     expect((await editor.get(`/api/editions/${id}`).expect(200)).body).toMatchObject({ state: 'draft', proofs: [] });
   });
