@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { HAIRLINE_PT, templatePressSchema, type PressSettings } from './press';
 
 // Page templates are data (templates/pages/*.json). One schema serves the start-up
 // loader on the server and the admin Templates screen in the client.
@@ -57,6 +58,9 @@ export const pageTemplateSchema = z
       })
       .strict(),
     maxSlots: z.number().int('maxSlots must be a whole number').min(1).max(60),
+    // The press defaults a publication on this template starts from (its press spec may
+    // override each): PDF/X standard, output condition, smallest type and thinnest line.
+    press: templatePressSchema.optional(),
   })
   .strict()
   .superRefine((t, ctx) => {
@@ -79,6 +83,17 @@ export const pageTemplateSchema = z
   });
 
 export type PageTemplate = z.infer<typeof pageTemplateSchema>;
+
+/** The press spec a template gives a publication that sets none of its own. */
+export function templatePressDefaults(t: PageTemplate): Omit<PressSettings, 'profileSha256'> {
+  return {
+    standard: t.press?.standard ?? 'pdfx-1a',
+    condition: t.press?.condition ?? 'FOGRA39',
+    bleedMm: t.bleedMm,
+    minTypePt: t.press?.minTypePt ?? Math.min(t.minimums.digitPt, t.minimums.bodyPt),
+    minLinePt: t.press?.minLinePt ?? HAIRLINE_PT,
+  };
+}
 
 /** Derived measurements of a template, in millimetres. */
 export function templateGeometry(t: PageTemplate) {

@@ -1,5 +1,7 @@
 import { z } from 'zod';
-import { richTextDocSchema, type PreflightReport } from '../../../shared/contracts/editions';
+import { richTextDocSchema } from '../../../shared/contracts/editions';
+import type { PreflightReport } from '../../../shared/contracts/preflight';
+import { pressSettingsSchema } from '../../../shared/contracts/press';
 import { pageTemplateSchema } from '../../../shared/contracts/templates';
 
 // Plain data handed to the print layout. The editions service builds it from the
@@ -63,6 +65,8 @@ export const editionDocumentSchema = z.object({
   /** ISO date, yyyy-mm-dd. */
   editionDate: z.string(),
   template: pageTemplateSchema,
+  /** the publication's press spec in force when the proof was made (documents stored before PDF/X have none: the template's defaults apply) */
+  press: pressSettingsSchema.optional(),
   introduction: richTextDocSchema,
   puzzles: z.array(puzzlePrintSchema),
   solutions: z.array(solutionPrintSchema),
@@ -71,7 +75,7 @@ export type EditionDocument = z.infer<typeof editionDocumentSchema>;
 
 export type PreflightWarning = PreflightReport['warnings'][number];
 
-/** The preflight report of one PDF (the API's PreflightReport, shared/contracts/editions.ts). */
+/** The preflight report of one PDF (the API's PreflightReport, shared/contracts/preflight.ts). */
 export type Preflight = PreflightReport;
 
 export type RenderResult = { pdf: Buffer; pages: number; preflight: Preflight };
