@@ -8,7 +8,8 @@ import { puzzleKeys } from './puzzles';
 
 /**
  * Keys: ['editions'] (all), ['editions', 'list', filters], ['editions', 'detail', id],
- * ['editions', 'detail', id, 'printer'], ['editions', 'checks', id].
+ * ['editions', 'detail', id, 'printer'], ['editions', 'checks', id], ['editions', 'publish-check', id],
+ * ['editions', 'due'].
  */
 export const editionKeys = {
   all: ['editions'] as const,
@@ -17,6 +18,8 @@ export const editionKeys = {
   detail: (id: string) => [...editionKeys.all, 'detail', id] as const,
   printerDetail: (id: string) => [...editionKeys.detail(id), 'printer'] as const,
   checks: (id: string) => [...editionKeys.all, 'checks', id] as const,
+  publishCheck: (id: string) => [...editionKeys.all, 'publish-check', id] as const,
+  due: () => [...editionKeys.all, 'due'] as const,
 };
 
 /**
