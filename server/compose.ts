@@ -5,11 +5,13 @@ import type { AppDeps } from './app-deps';
 import { editionUsage } from './areas/editions/index';
 import { submissionHistory } from './areas/intake/index';
 import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
-import { createPuzzleSource, createStockUsage } from './areas/puzzles/index';
+import { foundryRunSink } from './areas/foundry/index';
+import { createPuzzleSource, createStockUsage, puzzleProofSink } from './areas/puzzles/index';
 import { stockPort } from './areas/stock/index';
 import { jobKindNames } from './job-kinds';
-import { startJobRunner } from './platform/jobs/runtime';
+import { createJobs } from './platform/jobs/runtime';
 import type { Env } from './platform/env';
+import type { Jobs } from './platform/jobs/port';
 import { createLogger, type Logger } from './platform/log';
 import { createMailSender, type MailSenderOptions } from './platform/mail/outbox';
 import { createSmtpTransport } from './platform/mail/transport';
@@ -24,7 +26,15 @@ export type BuildDepsInput = {
   log?: Logger;
   signInLimit?: { window: number; max: number };
   mail?: Pick<MailSenderOptions, 'baseDelayMs' | 'maxDelayMs' | 'maxAttempts' | 'intervalMs'>;
+  /** the job system (tests pass their own); default: createJobs from the environment */
+  jobs?: Jobs;
 };
+
+/** The app's job system: every job kind's server half (where its results go) with the kinds the workers run. */
+export function createAppJobs(o: { db: Db; env: Env; log?: Logger; graceMs?: number; sliceMs?: number }): Jobs {
+  const sinks = [foundryRunSink(stockPort), puzzleProofSink];
+  return createJobs({ db: o.db, kinds: jobKindNames, sinks, env: o.env, ...(o.log ? { log: o.log } : {}), ...(o.graceMs ? { graceMs: o.graceMs } : {}), ...(o.sliceMs ? { sliceMs: o.sliceMs } : {}) });
+}
 
 /** Wire the dependencies createApp needs (used by server/index.ts, server/dev.ts and the test harness). */
 export function buildDeps(input: BuildDepsInput): AppDeps {
@@ -47,8 +57,9 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     onMailQueued: () => mail.kick(),
     ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
   });
-  startJobRunner(input.db, jobKindNames);
-  const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log };
+  // every job kind's server half: where its results go (server/platform/jobs/port.ts)
+  const jobs = input.jobs ?? createAppJobs({ db: input.db, env: input.env, log });
+  const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, jobs };
   // The areas' ports, wired here and nowhere else: each area gets what it needs from the
   // others as typed interfaces (see server/areas/<area>/ports.ts).
   return {

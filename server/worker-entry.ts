@@ -1,14 +1,31 @@
-// Worker-thread entry of the job pool: runs one job at a time on request.
-import { parentPort } from 'node:worker_threads';
+// Worker-thread entry of the job thread pool (server/platform/jobs/thread-pool.ts): runs one job
+// (or one part of a job) at a time on request. Used by the server's threads and by the worker
+// process (`npm run worker`). No database here: results go back as messages.
+import { setPriority } from 'node:os';
+import { parentPort, workerData } from 'node:worker_threads';
 import { jobKinds } from './job-kinds';
 import type { FromWorker, JobHandler, JobProgress, StopReason, ToWorker } from './platform/jobs/types';
 
 const port = parentPort;
 if (!port) throw new Error('worker-entry must run in a worker thread');
 
+// On Linux the nice value belongs to the thread: a job thread yields the cores to the thread
+// that answers requests (decision 032). Elsewhere this may set the whole process; harmless.
+const nice = (workerData as { nice?: number } | null)?.nice ?? 0;
+if (nice > 0) {
+  try {
+    setPriority(nice);
+  } catch {
+    // not permitted here: run at normal priority
+  }
+}
+
 function send(m: FromWorker): void {
   port!.postMessage(m);
 }
+
+/** Results are sent in batches of at most this many items (or every 250 ms). */
+const BATCH_ITEMS = 200;
 
 async function run(msg: ToWorker): Promise<void> {
   const flag = new Int32Array(msg.flag);
@@ -24,10 +41,10 @@ async function run(msg: ToWorker): Promise<void> {
     if (!force && now - lastSent < 250) return;
     lastSent = now;
     if (pending.length > 0) {
-      send({ type: 'results', jobId: msg.jobId, items: pending });
+      send({ type: 'results', taskId: msg.taskId, items: pending });
       pending = [];
     }
-    if (lastProgress) send({ type: 'progress', jobId: msg.jobId, progress: lastProgress });
+    if (lastProgress) send({ type: 'progress', taskId: msg.taskId, progress: lastProgress });
   };
   const shouldStop = () => {
     if (reason) return true;
@@ -41,10 +58,11 @@ async function run(msg: ToWorker): Promise<void> {
     const { handler } = await loader();
     const h = handler as unknown as JobHandler<unknown, unknown>;
     const params = h.parseParams(msg.params);
-    send({ type: 'started', jobId: msg.jobId });
+    send({ type: 'started', taskId: msg.taskId });
     const summary = await h.run({
       params,
       input: msg.input,
+      part: msg.part,
       shouldStop,
       stopReason: () => reason,
       progress(p) {
@@ -53,14 +71,15 @@ async function run(msg: ToWorker): Promise<void> {
       },
       emit(item) {
         pending.push(item);
-        if (pending.length >= 500) flush(true);
+        if (pending.length >= BATCH_ITEMS) flush(true);
+        else if ((pending.length & 15) === 0) flush(false);
       },
     });
     flush(true);
-    send({ type: 'done', jobId: msg.jobId, summary: summary ?? null, stopped: reason });
+    send({ type: 'done', taskId: msg.taskId, summary: summary ?? null, stopped: reason });
   } catch (e) {
     flush(true);
-    send({ type: 'failed', jobId: msg.jobId, error: e instanceof Error ? e.message : String(e) });
+    send({ type: 'failed', taskId: msg.taskId, error: e instanceof Error ? e.message : String(e) });
   }
 }
 

@@ -2,6 +2,7 @@ import type { Auth } from './auth/auth';
 import type { Clock } from './clock';
 import type { Db } from './db/client';
 import type { Env } from './env';
+import type { Jobs } from './jobs/port';
 import type { Logger } from './log';
 import type { MailSender } from './mail/outbox';
 
@@ -19,4 +20,6 @@ export type PlatformDeps = {
   mail: MailSender & { transport: 'smtp' | 'local-fake' };
   clock: Clock;
   log: Logger;
+  /** THE way to run heavy work off the request thread (server/platform/jobs/port.ts) */
+  jobs: Jobs;
 };

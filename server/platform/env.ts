@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { jobEnvSchema } from './jobs/runtime';
 
 // The environment, validated once at start-up. Every bad variable is reported at once.
 // Feature areas add their variables to `envSchema` with a small edit (one line each).
@@ -43,6 +44,8 @@ export const envSchema = z.object({
   PAYMENTS_WEBHOOK_SECRET: z.preprocess(emptyToUndefined, z.string().min(16, 'must be the webhook signing secret (whsec_...)').optional()),
   /** payments: API base URL of a local fake provider (set by the fake itself; not for the real provider) */
   PAYMENTS_API_URL: z.preprocess(emptyToUndefined, z.url({ error: 'must be an http URL like http://127.0.0.1:41234' }).optional()),
+  /** jobs: REDIS_URL, JOB_WORKERS, JOB_QUEUE_PREFIX, JOB_LOCK_MS (server/platform/jobs/runtime.ts) */
+  ...jobEnvSchema.shape,
 });
 
 export type EnvInput = z.input<typeof envSchema>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { jobProgressSchema, jobRetrySchema, jobStateSchema } from './jobs';
 import { tilingFactsSchema } from './tilings';
 
 // Contracts for the foundry's runs (POST/GET /api/foundry/runs ...). One schema per contract:
@@ -50,20 +51,11 @@ export type RunRequest = z.infer<typeof runRequestSchema>;
 export type RunRequestInput = z.input<typeof runRequestSchema>;
 export type RunMode = RunRequest['mode'];
 
-export const runStateSchema = z.enum(['queued', 'running', 'done', 'cancelled', 'failed', 'interrupted']);
+export const runStateSchema = jobStateSchema;
 export type RunState = z.infer<typeof runStateSchema>;
 
-export const runProgressSchema = z.object({
-  phase: z.string().optional(),
-  done: z.number(),
-  total: z.number().optional(),
-  found: z.number().optional(),
-  /** units of the phase per second */
-  rate: z.number().optional(),
-  /** estimated time left in the phase, ms */
-  etaMs: z.number().optional(),
-  elapsedMs: z.number().optional(),
-});
+/** A run's progress: the job system's (search phases over all shards, then storing). */
+export const runProgressSchema = jobProgressSchema;
 
 /** A run's closing summary as its job returned it (counts, what stopped it): shown as is. */
 export const runSummarySchema = z.record(z.string(), z.unknown());
@@ -79,6 +71,8 @@ export const runSchema = z.object({
   found: z.number().int().nonnegative(),
   /** of those, how many were new to the stock */
   addedToStock: z.number().int().nonnegative(),
+  /** an interrupted, failed or cancelled run may run again (resume: its finished shards are kept) */
+  retry: jobRetrySchema,
   createdAt: z.string(),
   startedAt: z.string().nullable(),
   finishedAt: z.string().nullable(),
@@ -101,6 +95,9 @@ export const runResultsSchema = z.object({ items: z.array(runResultSchema), tota
 export type RunResults = z.infer<typeof runResultsSchema>;
 
 export const runIdParamsSchema = z.object({ id: z.uuid({ error: 'run id must be a UUID' }) });
+export const runRetrySchema = z.object({ how: z.enum(['resume', 'restart']).default('resume') }).strict();
+export type RunRetry = z.infer<typeof runRetrySchema>;
+
 export const runResultsQuerySchema = z.object({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(100),

@@ -5,9 +5,10 @@ import { tilingSchema } from '../../../shared/contracts/tilings';
 import type { Tiling } from '../../../shared/tiling/index';
 import { defineJob } from '../../platform/jobs/types';
 
-// A foundry run in the worker pool: exhaustive by order, random with filters, or joining.
-// Input from the main thread: `knownKeys` (random mode: the stock's canonical keys) and
-// `parts` (joining: the stock's perfect rectangles).
+// A foundry run on a job worker (a thread, or `npm run worker`): exhaustive by order (one shard
+// of it when the job is split: ctx.part), random with filters, or joining. Input from the
+// server: `knownKeys` (random mode: the stock's canonical keys) and `parts` (joining: the
+// stock's perfect rectangles).
 
 /** One result of a run, as the engine describes it (verified and classified); parsed when it reaches the main thread. */
 export const foundryItemSchema = z.object({
@@ -53,6 +54,7 @@ export const handler = defineJob({
       return exhaustiveTilings({
         order: p.order,
         squaresOnly: p.squaresOnly,
+        ...(ctx.part ? { shard: ctx.part } : {}),
         shouldStop: () => ctx.shouldStop(),
         onProgress: (q) => ctx.progress({ phase: phaseLabel[q.phase], done: q.done, total: q.total, found: q.found }),
         onFound,

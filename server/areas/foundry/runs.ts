@@ -4,16 +4,20 @@ import { runRequestSchema, runSummarySchema } from '../../../shared/contracts/fo
 import type { Db } from '../../platform/db/client';
 import type { DbOrTx } from '../../platform/db/client';
 import { Conflict, NotFound } from '../../platform/http/errors';
-import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
+import { defineJobSink, type JobRecord, type Jobs, type JobSink } from '../../platform/jobs/port';
 import type { StockPort } from '../stock/ports';
 import { foundryItemSchema, type FoundryInput } from './run-job';
 import { foundryResult } from './schema';
 
-// Foundry runs: a run is a job of kind 'foundry-run'. Results stream back from the worker and
-// go, in one transaction per batch, into the stock (provenance 'foundry', with the run's
-// parameters) and into foundry_result (what this run found).
+// Foundry runs: a run is a job of kind 'foundry-run' (an exhaustive run of order 16 or more in
+// SHARDS parts that workers take at once). Results stream back from the workers and the sink
+// stores them, in small transactions, into the stock (provenance 'foundry', with the run's
+// parameters) and into foundry_result (what this run found; idempotent by run and key).
 
 export const FOUNDRY_KIND = 'foundry-run';
+/** Parts of an exhaustive run of order SHARD_FROM or more (each builds the graphs, ~6% of the run, and solves a quarter). */
+export const SHARDS = 4;
+const SHARD_FROM = 16;
 /** Time budgets per run [common practice: bound every background job]. */
 const BUDGET_MS = { exhaustive: 30 * 60_000, random: 10 * 60_000, joining: 5 * 60_000 } as const;
 
@@ -54,19 +58,39 @@ function inputFor(stock: StockPort, db: Db, params: RunRequest): FoundryInput {
   return {};
 }
 
-export function startRun(deps: { db: Db; stock: StockPort }, runner: JobRunner, request: RunRequest, userId: string | null): Run {
-  const { db } = deps;
-  const params = runRequestSchema.parse(request);
-  const id = runner.submit({
+const SUMMED = ['graphs', 'pairs', 'zeroCurrent', 'simplePerfect', 'simpleImperfect', 'compound', 'squares'] as const;
+
+/** An exhaustive run's summary from its shards' (their counts add up; ms is the longest shard's). */
+export function mergeShardSummaries(parts: unknown[]): unknown {
+  const rows = parts.filter((p): p is Record<string, unknown> => p !== null && typeof p === 'object');
+  if (rows.length <= 1) return rows[0] ?? null;
+  const out: Record<string, unknown> = { ...rows[0], shards: rows.length };
+  for (const k of SUMMED) out[k] = rows.reduce((a, r) => a + (typeof r[k] === 'number' ? (r[k] as number) : 0), 0);
+  out.ms = Math.max(...rows.map((r) => (typeof r.ms === 'number' ? r.ms : 0)));
+  out.stopped = rows.some((r) => r.stopped === true);
+  return out;
+}
+
+/** The server half of a foundry run (wired in server/compose.ts): its input, its shards, where its results go. */
+export function foundryRunSink(stock: StockPort): JobSink {
+  const paramsOf = (raw: unknown) => runRequestSchema.parse(raw);
+  return defineJobSink({
     kind: FOUNDRY_KIND,
-    params,
-    input: inputFor(deps.stock, db, params),
-    createdBy: userId,
-    budgetMs: BUDGET_MS[params.mode],
     lane: 'bulk',
-    sink: { onResults: (items, tx) => storeItems(deps.stock, tx, id, params, items) },
+    parts: (raw) => {
+      const p = paramsOf(raw);
+      return p.mode === 'exhaustive' && p.order >= SHARD_FROM ? SHARDS : 1;
+    },
+    input: (raw, db) => inputFor(stock, db, paramsOf(raw)),
+    onResults: (items, tx, job) => storeItems(stock, tx, job.id, paramsOf(job.params), items),
+    summarize: mergeShardSummaries,
   });
-  return getRun(db, runner, id);
+}
+
+export function startRun(deps: { db: Db; jobs: Jobs }, request: RunRequest, userId: string | null): Run {
+  const params = runRequestSchema.parse(request);
+  const id = deps.jobs.submit({ kind: FOUNDRY_KIND, params, createdBy: userId, budgetMs: BUDGET_MS[params.mode] });
+  return getRun(deps, id);
 }
 
 function counts(db: Db, id: string): { found: number; added: number } {
@@ -93,31 +117,44 @@ function toRun(db: Db, r: JobRecord): Run {
     error: r.error,
     found: c.found,
     addedToStock: c.added,
+    retry: r.retry,
     createdAt: r.createdAt.toISOString(),
     startedAt: r.startedAt?.toISOString() ?? null,
     finishedAt: r.finishedAt?.toISOString() ?? null,
   };
 }
 
-export function getRun(db: Db, runner: JobRunner, id: string): Run {
-  const r = runner.get(id);
+type RunDeps = { db: Db; jobs: Jobs };
+
+export function getRun(deps: RunDeps, id: string): Run {
+  const r = deps.jobs.get(id);
   if (!r || r.kind !== FOUNDRY_KIND) throw new NotFound(`foundry run ${id} does not exist`);
-  return toRun(db, r);
+  return toRun(deps.db, r);
 }
 
-export function listRuns(db: Db, runner: JobRunner): RunList {
-  return { items: runner.list(FOUNDRY_KIND, 100).map((r) => toRun(db, r)) };
+export function listRuns(deps: RunDeps): RunList {
+  return { items: deps.jobs.list(FOUNDRY_KIND, 100).map((r) => toRun(deps.db, r)) };
 }
 
-export function cancelRun(db: Db, runner: JobRunner, id: string): Run {
-  const r = getRun(db, runner, id);
+/** Cancel: the search stops within 2 s and nothing more is stored; the run says how much it stored. */
+export function cancelRun(deps: RunDeps, id: string): Run {
+  const r = getRun(deps, id);
   if (r.state !== 'queued' && r.state !== 'running') throw new Conflict(`foundry run ${id} is ${r.state}, not queued or running`);
-  runner.cancel(id);
-  return getRun(db, runner, id);
+  deps.jobs.cancel(id);
+  return getRun(deps, id);
 }
 
-export function runResults(db: Db, runner: JobRunner, id: string, page: number, pageSize: number): RunResults {
-  getRun(db, runner, id);
+/** An interrupted, failed or cancelled run again: 'resume' keeps its finished shards, 'restart' starts over. */
+export function retryRun(deps: RunDeps, id: string, how: 'resume' | 'restart'): Run {
+  const r = getRun(deps, id);
+  if (r.state !== 'interrupted' && r.state !== 'failed' && r.state !== 'cancelled') throw new Conflict(`foundry run ${id} is ${r.state}; only an interrupted, failed or cancelled run can run again`);
+  deps.jobs.retry(id, how);
+  return getRun(deps, id);
+}
+
+export function runResults(deps: RunDeps, id: string, page: number, pageSize: number): RunResults {
+  const { db } = deps;
+  getRun(deps, id);
   const rows = db
     .select()
     .from(foundryResult)

@@ -2,4 +2,4 @@
 // (print's PuzzleSource and the stock's StockUsage), wired in server/compose.ts.
 export { registerPuzzleRoutes } from './routes';
 export { seedDemoPuzzles } from './demo-seed';
-export { createPuzzleSource, createStockUsage } from './puzzles';
+export { createPuzzleSource, createStockUsage, puzzleProofSink } from './puzzles';

@@ -20,9 +20,9 @@ import { puzzle } from './schema';
 import { stock } from '../stock/index';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { issuesText } from '../../platform/db/stored-json';
-import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, puzzleJobSummarySchema, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
+import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, puzzleJobParamsSchema, puzzleJobSummarySchema, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
 import { certificateOf, givensOf, lastRecheckOf, levelOf, levelText, notesOf, secondOf, startersOf, stepsOf } from './stored';
-import type { JobRecord, JobRunner } from '../../platform/jobs/runner';
+import { defineJobSink, type JobRecord, type Jobs } from '../../platform/jobs/port';
 import type { PuzzleForPrint, PuzzleSource } from '../editions/ports';
 import type { StockPort, StockUsage } from '../stock/ports';
 import type { EditionUsage } from './ports';
@@ -124,15 +124,26 @@ export function storeResult(tx: DbOrTx, puzzleId: number, s: PuzzleJobSummary, a
   tx.update(puzzle).set(set).where(eq(puzzle.id, puzzleId)).run();
 }
 
-function submitJob(db: Db, runner: JobRunner, puzzleId: number, revision: number, task: PuzzleJobParams['task'], input: PuzzleJobInput, userId: string | null): string {
+/**
+ * The server half of the proof job (wired in server/compose.ts): its final state is stored on
+ * the puzzle in the job's final transaction; a failed or interrupted job leaves no result and
+ * says so on the puzzle. A proof is not run again as such (its input is the puzzle as it was):
+ * the editor proves again.
+ */
+export const puzzleProofSink = defineJobSink({
+  kind: PUZZLE_JOB_KIND,
+  retryable: false,
+  onFinish(summary, tx, state, job) {
+    const p = puzzleJobParamsSchema.parse(job.params);
+    if (state === 'done' || state === 'cancelled') finishProof(tx, p.puzzleId, p.revision, summary, state);
+    else endProof(tx, p.puzzleId, p.revision, 'failed');
+  },
+});
+
+function submitJob(db: Db, runner: Jobs, puzzleId: number, revision: number, task: PuzzleJobParams['task'], input: PuzzleJobInput, userId: string | null): string {
   const params: PuzzleJobParams = { puzzleId, revision, task };
-  const sink = { onFinish: (summary: unknown, tx: Db, state: 'done' | 'cancelled') => finishProof(tx, puzzleId, revision, summary, state) };
-  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS, sink });
+  const jobId = runner.submit({ kind: PUZZLE_JOB_KIND, params, input, createdBy: userId, budgetMs: JOB_BUDGET_MS });
   db.update(puzzle).set({ jobId }).where(eq(puzzle.id, puzzleId)).run();
-  // a failed or interrupted job leaves no result: say so on the puzzle
-  void runner.wait(jobId).then((r) => {
-    if ((r.state === 'failed' || r.state === 'interrupted') && db.$client.open) endProof(db, puzzleId, revision, 'failed');
-  }, () => undefined);
   return jobId;
 }
 
@@ -143,7 +154,7 @@ function jobInputOf(r: PuzzleRow, tiling: Tiling, overrides: Partial<PuzzleJobIn
 
 // ---- commands ---------------------------------------------------------------------------
 
-export function createPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, body: PuzzleCreate): PuzzleStarted {
+export function createPuzzle(deps: PuzzlesStore, runner: Jobs, who: SessionUser, body: PuzzleCreate): PuzzleStarted {
   const { db } = deps;
   const found = db.select({ id: stock.id }).from(stock).where(eq(stock.id, body.stockId)).get();
   if (!found) throw new Unprocessable(`There is no stock tiling ${body.stockId}.`, [{ path: 'body.stockId', message: `no stock tiling ${body.stockId}` }]);
@@ -184,7 +195,7 @@ function lockedBy(deps: PuzzlesStore, id: number): string | null {
   return r ? `${r.publicationTitle} No. ${r.number} (${r.state.replace('_', ' ')})` : null;
 }
 
-export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, id: number, body: PuzzlePatch): PuzzleStarted {
+export function patchPuzzle(deps: PuzzlesStore, runner: Jobs, who: SessionUser, id: number, body: PuzzlePatch): PuzzleStarted {
   const { db } = deps;
   const r = getRow(db, id);
   const locked = lockedBy(deps, id);
@@ -214,7 +225,7 @@ export function patchPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionU
   return { id, jobId: submitJob(db, runner, id, revision, propose ? 'make' : 'prove', input, who.id) };
 }
 
-export function recheckPuzzle(deps: PuzzlesStore, runner: JobRunner, who: SessionUser, id: number): PuzzleStarted {
+export function recheckPuzzle(deps: PuzzlesStore, runner: Jobs, who: SessionUser, id: number): PuzzleStarted {
   const { db } = deps;
   const r = getRow(db, id);
   if (r.status === 'proving') throw new Conflict(`Puzzle ${id} is being proved; re-check it when the proof is done.`);
@@ -225,7 +236,7 @@ export function recheckPuzzle(deps: PuzzlesStore, runner: JobRunner, who: Sessio
   return { id, jobId: submitJob(db, runner, id, r.revision, 'recheck', jobInputOf(r, tiling, { certificate: cert }), who.id) };
 }
 
-export function cancelPuzzleJob(db: Db, runner: JobRunner, id: number): void {
+export function cancelPuzzleJob(db: Db, runner: Jobs, id: number): void {
   const r = getRow(db, id);
   if (r.status !== 'proving' || !r.jobId) throw new Conflict(`Puzzle ${id} has no proof running.`);
   runner.cancel(r.jobId);
@@ -303,7 +314,7 @@ function rowWithStock(db: DbOrTx, id: number) {
     .get();
 }
 
-export function getPuzzle(deps: PuzzlesStore, runner: JobRunner, id: number): PuzzleDetail {
+export function getPuzzle(deps: PuzzlesStore, runner: Jobs, id: number): PuzzleDetail {
   const { db } = deps;
   const found = rowWithStock(db, id);
   if (!found) throw new NotFound(`No puzzle ${id}.`);
@@ -330,7 +341,7 @@ const printableWhere = (): SQL => and(eq(puzzle.status, 'unique'), eq(puzzle.cer
 
 const sortColumns = { createdAt: puzzle.createdAt, updatedAt: puzzle.updatedAt, grade: puzzle.grade, order: stock.order, id: puzzle.id } as const;
 
-export function listPuzzles(deps: PuzzlesStore, runner: JobRunner, q: PuzzleListQuery): PuzzleList {
+export function listPuzzles(deps: PuzzlesStore, runner: Jobs, q: PuzzleListQuery): PuzzleList {
   const { db } = deps;
   const w: SQL[] = [];
   if (q.kind) w.push(eq(puzzle.kind, q.kind));

@@ -59,6 +59,7 @@ export const permissions: Record<string, Access> = {
   'POST /api/foundry/runs': ['editor'],
   'GET /api/foundry/runs/:id': ['editor'],
   'POST /api/foundry/runs/:id/cancel': ['editor'],
+  'POST /api/foundry/runs/:id/retry': ['editor'],
   'GET /api/foundry/runs/:id/results': ['editor'],
   // print: publications, page templates, editions and the proof round
   'GET /api/editions': ['editor', 'printer'],

@@ -1,8 +1,9 @@
-// The contract between the job runner and a job kind. A job kind is one module exporting
-// `handler` (made with defineJob) plus one line in ./registry.ts. The handler runs inside a
-// worker thread: it must not touch the database; it reports progress, emits result items
-// (streamed back to the main thread, where the submitter's sink stores them) and returns a
-// JSON summary.
+// The contract between the job system and a job kind's worker half. A job kind's worker half is
+// one module exporting `handler` (made with defineJob) plus one line in server/job-kinds.ts. The
+// handler runs in a worker thread, in the server process or in `npm run worker` on another
+// machine: it must not touch the database or DATA_DIR. It reports progress, emits result items
+// (sent back to the server, where the kind's sink stores them) and returns a JSON summary (for a
+// compute kind: the value the awaiting request gets).
 
 export interface JobProgress {
   /** units done in the current phase */
@@ -11,23 +12,31 @@ export interface JobProgress {
   total?: number;
   /** results found so far */
   found?: number;
-  /** short phase name, e.g. 'graphs', 'solving' */
+  /** short phase name, e.g. 'graphs solved' */
   phase?: string;
 }
 
 export type StopReason = 'cancel' | 'budget';
 
+/** One part of a job split into parts (e.g. a foundry run's shards): index 0..count-1. */
+export interface JobPart {
+  index: number;
+  count: number;
+}
+
 export interface JobContext<P> {
   params: P;
-  /** extra input the submitter passed (not persisted), e.g. data read from the database */
+  /** extra input the server passed (recomputed from the database when a job is resumed) */
   input: unknown;
+  /** the part of the job this worker runs; null for a job that is not split */
+  part: JobPart | null;
   /** true once the job was cancelled or its time budget ran out: return soon. */
   shouldStop(): boolean;
   /** why shouldStop() is true (null while running normally) */
   stopReason(): StopReason | null;
   /** cheap to call often; forwarded at most every 250 ms */
   progress(p: JobProgress): void;
-  /** one result item (JSON-serialisable), batched and streamed to the main thread */
+  /** one result item (JSON-serialisable), batched and streamed to the server */
   emit(item: unknown): void;
 }
 
@@ -42,21 +51,22 @@ export function defineJob<P, S>(h: JobHandler<P, S>): JobHandler<P, S> {
   return h;
 }
 
-// Messages between the runner and a worker.
+// Messages between a thread pool and one of its worker threads.
 export type ToWorker = {
   type: 'run';
-  jobId: string;
+  taskId: string;
   kind: string;
   params: unknown;
   input: unknown;
+  part: JobPart | null;
   budgetMs: number | null;
   /** Int32Array view: [0] = 1 when cancelled */
   flag: SharedArrayBuffer;
 };
 
 export type FromWorker =
-  | { type: 'started'; jobId: string }
-  | { type: 'progress'; jobId: string; progress: JobProgress }
-  | { type: 'results'; jobId: string; items: unknown[] }
-  | { type: 'done'; jobId: string; summary: unknown; stopped: StopReason | null }
-  | { type: 'failed'; jobId: string; error: string };
+  | { type: 'started'; taskId: string }
+  | { type: 'progress'; taskId: string; progress: JobProgress }
+  | { type: 'results'; taskId: string; items: unknown[] }
+  | { type: 'done'; taskId: string; summary: unknown; stopped: StopReason | null }
+  | { type: 'failed'; taskId: string; error: string };

@@ -1,4 +1,3 @@
-import { jobKindNames } from '../../../server/job-kinds';
 import { eq } from 'drizzle-orm';
 import { join } from 'node:path';
 import request from 'supertest';
@@ -6,8 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runListSchema, runResultsSchema, runSchema, type Run } from '../../../shared/contracts/foundry';
 import { closeDatabase, openDatabase } from '../../../server/platform/db/client';
 import { stock } from '../../../server/areas/stock/schema';
-import { JobRunner } from '../../../server/platform/jobs/runner';
-import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
+import { createAppJobs } from '../../../server/compose';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 let t: TestApp;
@@ -15,7 +13,6 @@ beforeAll(async () => {
   t = await createTestApp();
 });
 afterAll(async () => {
-  await closeJobRunner(t.db);
   await t.close();
 });
 
@@ -132,20 +129,22 @@ describe('foundry runs API', () => {
     const editor = await t.signInAs('editor');
     const started = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 18 }).expect(201)).body);
     await waitRunning(editor, started.id);
-    // the next server process opens the same database file and starts its own runner
+    // the next server process opens the same database file and starts its own job system
     const db2 = openDatabase(join(t.deps.env.DATA_DIR, 'squarewright.db'));
+    const next = createAppJobs({ db: db2, env: t.deps.env });
     try {
-      expect(new JobRunner(db2, { kinds: jobKindNames }).recoverInterrupted()).toBe(1);
+      expect(next.get(started.id)?.state).toBe('interrupted');
     } finally {
+      await next.close();
       closeDatabase(db2);
     }
     const r = runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body);
     expect(r.state).toBe('interrupted');
     expect(r.error).toMatch(/server stopped/);
     // stop the old process's worker; its late answer must not overwrite the state
-    expect(jobRunnerFor(t.db).cancel(started.id)).toBe(true);
-    for (let i = 0; i < 200 && jobRunnerFor(t.db).active().includes(started.id); i++) await new Promise((res) => setTimeout(res, 50));
-    expect(jobRunnerFor(t.db).active()).not.toContain(started.id);
+    expect(t.deps.jobs.cancel(started.id)).toBe(true);
+    for (let i = 0; i < 200 && t.deps.jobs.active().includes(started.id); i++) await new Promise((res) => setTimeout(res, 50));
+    expect(t.deps.jobs.active()).not.toContain(started.id);
     expect(runSchema.parse((await editor.get(`/api/foundry/runs/${started.id}`).expect(200)).body).state).toBe('interrupted');
   });
 });

@@ -3,7 +3,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runListSchema } from '../../../shared/contracts/foundry';
 import { classifyTiling } from '../../../shared/tiling/index';
 import { stock } from '../../../server/areas/stock/schema';
-import { closeJobRunner } from '../../../server/platform/jobs/runtime';
 import { seedDemoFoundry } from '../../../server/areas/foundry/demo-seed';
 import { stockTiling } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -13,7 +12,6 @@ beforeAll(async () => {
   t = await createTestApp({ demo: { seeders: [{ name: 'foundry', seed: seedDemoFoundry }] } });
 });
 afterAll(async () => {
-  await closeJobRunner(t.db);
   await t.close();
 });
 

@@ -3,7 +3,6 @@ import type { PuzzleListQuery } from '../../../shared/contracts/puzzles';
 import { verifyTiling } from '../../../shared/tiling/index';
 import { seedDemoStock } from '../../../server/areas/intake/demo-seed';
 import { seedDemoPuzzles } from '../../../server/areas/puzzles/demo-seed';
-import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
 import { listEditions } from '../../../server/areas/editions/editions';
 import { seedDemoEditions } from '../../../server/areas/editions/demo-seed';
 import { seedDemoPublications } from '../../../server/areas/editions/publications';
@@ -20,7 +19,6 @@ beforeAll(async () => {
   seedMs = performance.now() - t0;
 });
 afterAll(async () => {
-  await closeJobRunner(t.db);
   await t.close();
 });
 
@@ -28,11 +26,11 @@ const admin = { id: 'x', email: 'a@x', name: 'A', role: 'admin' as const };
 /** Every demo puzzle (there are six), oldest first. */
 const byId: PuzzleListQuery = { page: 1, pageSize: 50, sort: { key: 'id', desc: false } };
 /** The demo puzzles that went into an edition. */
-const usedInEditions = () => listPuzzles(t.deps, jobRunnerFor(t.db), byId).items.filter((p) => p.usedIn.length > 0);
+const usedInEditions = () => listPuzzles(t.deps, t.deps.jobs, byId).items.filter((p) => p.usedIn.length > 0);
 
 describe('demo puzzles', () => {
   it('are made from the demo stock, of both kinds, proved unique at seed time, quickly', () => {
-    const runner = jobRunnerFor(t.db);
+    const runner = t.deps.jobs;
     const list = listPuzzles(t.deps, runner, byId);
     expect(list.total).toBe(6);
     expect(new Set(list.items.map((p) => p.kind))).toEqual(new Set(['assembly', 'deduction']));
@@ -61,7 +59,7 @@ describe('demo puzzles', () => {
   });
 
   it("show on each stock tiling's history the editions its puzzles went into", () => {
-    const runner = jobRunnerFor(t.db);
+    const runner = t.deps.jobs;
     for (const p of usedInEditions()) {
       const detail = getStockDetail(t.deps, getPuzzle(t.deps, runner, p.id).stockId);
       const expected = p.usedIn.map((u) => `${u.publicationTitle} No. ${u.number}`);

@@ -2,7 +2,6 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { puzzleDetailSchema, puzzleListSchema, puzzleStartedSchema, type PuzzleCreate, type PuzzleDetail, type PuzzlePatch } from '../../../shared/contracts/puzzles';
 import { parseTiling, verifyTiling } from '../../../shared/tiling/index';
-import { closeJobRunner } from '../../../server/platform/jobs/runtime';
 import { listPrintablePuzzleIds } from '../../../server/areas/puzzles/puzzles';
 import { addToStock } from '../../../server/areas/stock/stock';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -19,7 +18,6 @@ beforeAll(async () => {
   twin13 = addToStock(t.db, { tiling: parseTiling(TWIN_13), provenance: 'demo' }).id;
 });
 afterAll(async () => {
-  await closeJobRunner(t.db);
   await t.close();
 });
 

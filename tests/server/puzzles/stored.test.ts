@@ -1,7 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { parseTiling } from '../../../shared/tiling/index';
-import { closeJobRunner, jobRunnerFor } from '../../../server/platform/jobs/runtime';
 import { finishProof, getPuzzle, listPuzzles } from '../../../server/areas/puzzles/puzzles';
 import { provePuzzle, PUZZLE_JOB_KIND, type PuzzleJobSummary } from '../../../server/areas/puzzles/rules';
 import { puzzle } from '../../../server/areas/puzzles/schema';
@@ -24,7 +23,6 @@ beforeAll(async () => {
   made = provePuzzle({ kind: 'deduction', tiling: parseTiling(ORDER_9), level: 2, showFrame: false, starters: null, givens: null, grade: null, seed: 1 }, 'make', 1);
 });
 afterAll(async () => {
-  await closeJobRunner(t.db);
   await t.close();
 });
 
@@ -51,7 +49,7 @@ describe('a corrupt JSON column', () => {
   it.each(corrupt)('%s: reading the puzzle raises an error naming the table, the column and the row', (column, text, says) => {
     const id = provingPuzzle();
     finishProof(t.db, id, 1, made, 'done');
-    const runner = jobRunnerFor(t.db);
+    const runner = t.deps.jobs;
     expect(getPuzzle(t.deps, runner, id).status).toBe('unique');
     const setColumn = t.db.$client.prepare(`update puzzle set ${column} = ? where id = ?`);
     const kept = t.db.$client.prepare(`select ${column} as v from puzzle where id = ?`).get(id) as { v: string | null };
@@ -83,7 +81,7 @@ describe('a corrupt JSON column', () => {
     await editor.get('/api/puzzles?pageSize=200').expect(500);
     expect(logged.mock.calls.map((c) => c.map(String).join(' ')).join('\n')).toMatch(new RegExp(`StoredRowError: puzzle ${id}: column certificate_json is not JSON`));
     logged.mockRestore();
-    expect(() => listPuzzles(t.deps, jobRunnerFor(t.db), { page: 1, pageSize: 200, sort: { key: 'id', desc: false } })).toThrow(`puzzle ${id}: column certificate_json is not JSON`);
+    expect(() => listPuzzles(t.deps, t.deps.jobs, { page: 1, pageSize: 200, sort: { key: 'id', desc: false } })).toThrow(`puzzle ${id}: column certificate_json is not JSON`);
     expect(() => t.deps.puzzles.getPuzzleForPrint(t.db, String(id))).toThrow(StoredRowError);
     // mended, it reads again
     t.db.$client.prepare('update puzzle set certificate_json = ? where id = ?').run(JSON.stringify(made.certificate), id);
@@ -95,7 +93,7 @@ describe("the proof job's summary", () => {
   it('a good one is stored: verdict, givens, steps, level and grade', () => {
     const id = provingPuzzle();
     finishProof(t.db, id, 1, made, 'done');
-    const p = getPuzzle(t.deps, jobRunnerFor(t.db), id);
+    const p = getPuzzle(t.deps, t.deps.jobs, id);
     expect(p.status).toBe('unique');
     expect(p.certificate).toEqual(made.certificate);
     expect(p.givens).toEqual(made.givens);
@@ -109,7 +107,7 @@ describe("the proof job's summary", () => {
     const before = rowOf(id);
     const bad = { ...made, certificate: { ...made.certificate, verdict: 'probably' }, givens: [{ x: 0, y: 0 }] };
     finishProof(t.db, id, 1, bad, 'done');
-    const p = getPuzzle(t.deps, jobRunnerFor(t.db), id);
+    const p = getPuzzle(t.deps, t.deps.jobs, id);
     expect(p).toMatchObject({ status: 'failed', certificate: null, certificateCurrent: false, givens: [], steps: [], grade: null });
     expect(p.notes).toHaveLength(1);
     expect(p.notes[0]).toMatch(/result was refused/);
@@ -131,20 +129,20 @@ describe("the proof job's summary", () => {
     expect(after.certificateJson).toBe(before.certificateJson);
     expect(after.givensJson).toBe(before.givensJson);
     expect(after.recheckJson).toBeNull();
-    expect(getPuzzle(t.deps, jobRunnerFor(t.db), id).notes.join(' ')).toMatch(/recheck\.holds/);
+    expect(getPuzzle(t.deps, t.deps.jobs, id).notes.join(' ')).toMatch(/recheck\.holds/);
   });
 
   it('a summary that is not an object at all is refused too', () => {
     const id = provingPuzzle();
     finishProof(t.db, id, 1, 'done', 'done');
     expect(rowOf(id).status).toBe('failed');
-    expect(getPuzzle(t.deps, jobRunnerFor(t.db), id).notes[0]).toMatch(/\(root\)/);
+    expect(getPuzzle(t.deps, t.deps.jobs, id).notes[0]).toMatch(/\(root\)/);
   });
 });
 
 describe("the proof job's input", () => {
   it('is parsed in the worker: a malformed one fails the job with an error naming the puzzle and the place', async () => {
-    const runner = jobRunnerFor(t.db);
+    const runner = t.deps.jobs;
     const jobId = runner.submit({
       kind: PUZZLE_JOB_KIND,
       params: { puzzleId: 4242, revision: 1, task: 'make' },

@@ -13,6 +13,7 @@ const running: Run = {
   error: null,
   found: 2700,
   addedToStock: 2650,
+  retry: { resume: false, restart: false },
   createdAt: '2026-12-02T01:00:00.000Z',
   startedAt: '2026-12-02T01:00:01.000Z',
   finishedAt: null,
