@@ -21,6 +21,8 @@ export const submission = sqliteTable(
     code: text('code').notNull(),
     canonicalCode: text('canonical_code').notNull(),
     canonicalKey: text('canonical_key').notNull(),
+    /** canonical key of the tiling divided by the gcd of its sizes (scaled copies share it); null until filled for rows older than migration 0017 */
+    reducedKey: text('reduced_key'),
     /** the tiling as sent (not turned to the canonical orientation) */
     ...tilingColumns(),
     status: text('status', { enum: ['pending', 'accepted', 'rejected'] }).notNull().default('pending'),
@@ -36,5 +38,6 @@ export const submission = sqliteTable(
     index('submission_setter_idx').on(t.setterId, t.createdAt),
     index('submission_status_idx').on(t.status, t.createdAt),
     index('submission_key_idx').on(t.canonicalKey),
+    index('submission_reduced_key_idx').on(t.reducedKey, t.status),
   ],
 );

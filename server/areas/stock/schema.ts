@@ -29,6 +29,8 @@ export const stock = sqliteTable(
     canonicalKey: text('canonical_key').notNull().unique(),
     /** canonical Bouwkamp code with header. */
     canonicalCode: text('canonical_code').notNull(),
+    /** canonical key of the tiling divided by the gcd of its sizes (scaled copies share it); null until filled for rows older than migration 0017 */
+    reducedKey: text('reduced_key'),
     /** the canonical orientation */
     ...tilingColumns(),
     provenance: text('provenance', { enum: ['setter', 'foundry', 'demo'] }).notNull(),
@@ -42,6 +44,7 @@ export const stock = sqliteTable(
   },
   (t) => [
     index('stock_order_idx').on(t.order, t.id),
+    index('stock_reduced_key_idx').on(t.reducedKey),
     index('stock_setter_idx').on(t.setterId),
     // newest-first lists (the default) walk this one and stop after a page, filtering in the index
     index('stock_recent_idx').on(t.createdAt, t.id, t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId),
