@@ -1,15 +1,21 @@
-import { toNodeHandler } from 'better-auth/node';
 import express, { type Express } from 'express';
 import { clientIpHeader } from './platform/auth/auth';
 import type { AppDeps } from './app-deps';
+import { authEndpoint } from './platform/http/auth-endpoint';
 import { apiNotFound, errorHandler } from './platform/http/error-handler';
-import { createApiRouter, type ApiRouter } from './platform/http/route';
+import { jsonDepthGuard } from './platform/http/json-depth';
+import { createApiRouter, JSON_BODY_LIMIT_BYTES, type ApiRouter } from './platform/http/route';
+import { allowedOrigins, sameOriginGuard } from './platform/http/same-origin';
+import { securityHeaders } from './platform/http/security-headers';
 import { areaRoutes } from './area-routes';
+
+/** Paths exempt from the same-origin check: checked by their own signature instead. */
+export const signatureCheckedPaths = ['/api/payments/webhook'];
 
 export type CreateAppOptions = {
   /** serve the client (Vite middleware in dev, dist/client in production); after the API 404 */
   mountClient?: (app: Express) => void;
-  /** JSON body limit (default 1mb) */
+  /** JSON body limit (default 1 MB, JSON_BODY_LIMIT_BYTES) */
   jsonLimit?: string;
 };
 
@@ -18,6 +24,10 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', false);
+
+  // Security (SECURITY.md): headers on every answer, then no state change from another site.
+  app.use(securityHeaders({ mode: deps.env.NODE_ENV === 'development' ? 'vite' : 'built', https: deps.env.PUBLIC_URL.startsWith('https://') }));
+  app.use(sameOriginGuard({ origins: allowedOrigins(deps.env), exemptPaths: signatureCheckedPaths }));
 
   // better-auth's rate limiter keys on this header; any client-sent value is overwritten.
   app.use((req, _res, next) => {
@@ -34,12 +44,13 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
     next();
   });
 
-  // better-auth reads its own body: mount it BEFORE express.json().
-  app.all('/api/auth/*splat', toNodeHandler(deps.auth));
+  // better-auth behind our door (body limit, our error words): BEFORE express.json().
+  app.all('/api/auth/*splat', ...authEndpoint(deps.auth, deps.env.PUBLIC_URL));
 
   // The payments webhook is verified over its raw bytes: keep them (express.json then skips it).
   app.use('/api/payments/webhook', express.raw({ type: '*/*', limit: '512kb' }));
-  app.use(express.json({ limit: options.jsonLimit ?? '1mb' }));
+  app.use(express.json({ limit: options.jsonLimit ?? JSON_BODY_LIMIT_BYTES }));
+  app.use(jsonDepthGuard());
 
   const api = createApiRouter(deps);
   for (const register of areaRoutes) register(api, deps);

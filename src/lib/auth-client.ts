@@ -1,3 +1,4 @@
+import { ApiError } from './api-client';
 import { createAuthClient } from 'better-auth/react';
 
 /**
@@ -10,3 +11,18 @@ export const authClient = createAuthClient({
   // tests can stub it.
   fetchOptions: { customFetchImpl: (input, init) => fetch(input, init) },
 });
+
+/**
+ * The server answers /api/auth/* errors in the API's own shape, `{ error: { code, message } }`,
+ * in our words (server/platform/http/auth-endpoint.ts); better-auth's client hands that body
+ * back as its `error` (with `status`). This turns it into the ApiError every call throws.
+ */
+export function authError(error: { status?: number; error?: unknown }, fallbackCode: string, fallbackMessage: string): ApiError {
+  const inner = error.error;
+  const body = inner !== null && typeof inner === 'object' ? (inner as { code?: unknown; message?: unknown }) : {};
+  return new ApiError(
+    error.status ?? 400,
+    typeof body.code === 'string' ? body.code : fallbackCode,
+    typeof body.message === 'string' ? body.message : fallbackMessage,
+  );
+}

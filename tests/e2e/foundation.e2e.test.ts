@@ -2,7 +2,7 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { seriousAxeViolations } from './helpers/axe';
 import { linkIn, waitForMail } from './helpers/mailbox';
-import { demoAccount, navLabels, screenshot, signIn, submitSignInForAnswer, useBrowser, type DemoRole } from './helpers/browser';
+import { baseUrl, demoAccount, navLabels, screenshot, signIn, submitSignInForAnswer, useBrowser, type DemoRole } from './helpers/browser';
 
 // The foundation in a real browser: each demo role signs in and sees its own navigation,
 // a wrong password is refused with a message, and an invited person completes sign-up
@@ -156,11 +156,11 @@ describe('foundation in the browser', () => {
     const admin = harness.page();
     await signIn(admin, 'admin');
     const email = `reset-${Date.now()}@larkspur-quill.test`;
-    const invited = await admin.request.post('/api/invitations', { data: { email, role: 'printer' } });
+    const invited = await admin.request.post('/api/invitations', { data: { email, role: 'printer' }, headers: { origin: baseUrl() } });
     expect(invited.status()).toBe(201);
     const token = new URL(linkIn(await waitForMail(admin.request, { to: email, subject: /invited/i }), '/invite/')).pathname.split('/').pop();
     const person = await harness.newContext();
-    const accepted = await person.request.post(`/api/invitations/${token}/accept`, { data: { name: 'Ossian Reed', password: 'first-password-here' } });
+    const accepted = await person.request.post(`/api/invitations/${token}/accept`, { data: { name: 'Ossian Reed', password: 'first-password-here' }, headers: { origin: baseUrl() } });
     expect(accepted.status()).toBe(201);
 
     const page = await (await harness.newContext()).newPage();

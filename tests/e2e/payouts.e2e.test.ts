@@ -8,7 +8,7 @@ import { puzzleDetailSchema, puzzleStartedSchema } from '../../shared/contracts/
 import { stockDetailSchema } from '../../shared/contracts/stock';
 import { submissionListSchema } from '../../shared/contracts/submissions';
 import { waitForMail } from './helpers/mailbox';
-import { demoAccount, screenshot, signIn, useBrowser } from './helpers/browser';
+import { baseUrl, demoAccount, screenshot, signIn, useBrowser } from './helpers/browser';
 
 // Money in a real browser, from a publish to a paid statement (issue 8 item 5), against the
 // local fake payments provider the server starts itself. The demo has The Saturday Quadrant
@@ -32,7 +32,8 @@ function card(page: Page, title: string) {
 }
 
 async function json(request: APIRequestContext, method: 'GET' | 'POST' | 'PATCH', path: string, data?: unknown): Promise<unknown> {
-  const res = await request.fetch(path, { method, data });
+  // a browser sends Origin with every state change; the app refuses one without it
+  const res = await request.fetch(path, { method, data, headers: method === 'GET' ? {} : { origin: baseUrl() } });
   if (!res.ok()) throw new Error(`${method} ${path} answered ${res.status()}: ${await res.text()}`);
   return res.json();
 }

@@ -45,6 +45,8 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
       summary: 'Upload a .txt or .bkp file of codes (field "file", one code a line, at most 5 MB and 20,000 lines); per-line report; one transaction',
       tags,
       bodyType: 'multipart',
+      // the file and the multipart framing around it
+      maxBodyBytes: MAX_UPLOAD_BYTES + 64 * 1024,
       middleware: [upload.single('file')],
       response: uploadReportSchema,
       status: 201,

@@ -4,6 +4,8 @@ import multer from 'multer';
 import { z } from 'zod';
 import type { ErrorBody, ErrorIssue } from '../../../shared/contracts/common';
 import type { Logger } from '../log';
+import { authErrorWords } from './auth-words';
+import { clipDetails, clipText } from './clip';
 import { HttpError } from './errors';
 
 // The ONE error handler: every failure leaves the API as { error: { code, message, details? } }.
@@ -12,8 +14,15 @@ export function zodIssues(error: z.ZodError): ErrorIssue[] {
   return error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(root)', message: i.message }));
 }
 
+/** The error body; messages and issue lists are clipped (an answer never echoes a long input). */
 function body(code: string, message: string, details?: unknown): ErrorBody {
-  return { error: details === undefined ? { code, message } : { code, message, details } };
+  const m = clipText(message);
+  return { error: details === undefined ? { code, message: m } : { code, message: m, details: clipDetails(details) } };
+}
+
+/** A zod issue a schema marks as "well-formed but wrong" (rich text the editor cannot hold, too deep): 422, not 400. */
+function isUnprocessableIssue(issue: z.core.$ZodIssue): boolean {
+  return issue.code === 'custom' && (issue.params as { status?: unknown } | undefined)?.status === 422;
 }
 
 export function apiNotFound(): RequestHandler {
@@ -31,9 +40,10 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
     if (err instanceof z.ZodError) {
       const issues = zodIssues(err);
       const first = issues[0];
+      const unprocessable = err.issues.length > 0 && err.issues.every(isUnprocessableIssue);
       res
-        .status(400)
-        .json(body('bad_request', first ? `Invalid input at ${first.path}: ${first.message}` : 'Invalid input.', issues));
+        .status(unprocessable ? 422 : 400)
+        .json(body(unprocessable ? 'unprocessable' : 'bad_request', first ? `Invalid input at ${first.path}: ${first.message}` : 'Invalid input.', issues));
       return;
     }
     if (err instanceof HttpError) {
@@ -42,8 +52,9 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
     }
     // better-auth's server API (createUser, signInEmail...) called from our handlers
     if (isAPIError(err) && err.statusCode >= 400 && err.statusCode < 500) {
-      const code = ({ 401: 'unauthorized', 403: 'forbidden', 404: 'not_found', 409: 'conflict', 422: 'unprocessable', 429: 'rate_limited' } as Record<number, string>)[err.statusCode] ?? 'bad_request';
-      res.status(err.statusCode).json(body(code, err.body?.message ?? err.message));
+      // in our words, never the library's (server/platform/http/auth-words.ts)
+      const words = authErrorWords(err.statusCode, typeof err.body?.code === 'string' ? err.body.code : undefined);
+      res.status(err.statusCode).json(body(words.code, words.message));
       return;
     }
     if (err instanceof multer.MulterError) {
@@ -52,6 +63,11 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
       } else {
         res.status(400).json(body('bad_request', `Upload rejected: ${err.message}${err.field ? ` (field "${err.field}")` : ''}.`));
       }
+      return;
+    }
+    // a path parameter that is not valid percent-encoding (Express's decodeURIComponent)
+    if (err instanceof URIError) {
+      res.status(400).json(body('bad_request', 'The address is not valid percent-encoding (a % must be followed by two hex digits).', [{ path: 'params', message: 'not valid percent-encoding' }]));
       return;
     }
     // express.json() failures (body-parser errors carry status + type)
@@ -63,6 +79,10 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
       }
       if (e.type === 'entity.parse.failed') {
         res.status(400).json(body('bad_request', 'The request body is not valid JSON.'));
+        return;
+      }
+      if (e.type === 'encoding.unsupported' || e.type === 'charset.unsupported') {
+        res.status(415).json(body('bad_request', 'The request body must be UTF-8 JSON without a content encoding.'));
         return;
       }
       if (e.status >= 400 && e.status < 500) {

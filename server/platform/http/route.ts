@@ -6,8 +6,10 @@ import { roleSchema, type Role } from '../../../shared/contracts/common';
 import { isAllowed, permissions, type Access } from '../auth/permissions';
 import { readSessionFast } from '../auth/session-reader';
 import type { PlatformDeps } from '../deps';
-import { Forbidden, Unauthorized } from './errors';
+import multer from 'multer';
+import { BadRequest, Forbidden, HttpError, PayloadTooLarge, Unauthorized } from './errors';
 import { OpenApiCollector } from './openapi';
+import { allowFraming } from './security-headers';
 
 // THE way to add an API route. It reads the session, enforces the permission table,
 // parses params/query/body with zod (bad input -> 400 with details), calls the handler,
@@ -48,7 +50,15 @@ export type RouteSpec<
   middleware?: RequestHandler[];
   /** documentation: body is multipart (set by upload routes) */
   bodyType?: 'json' | 'multipart';
+  /**
+   * largest request body accepted, in bytes (default JSON_BODY_LIMIT_BYTES): a larger
+   * Content-Length is refused with 413 before anything is read. Upload routes set theirs.
+   */
+  maxBodyBytes?: number;
 };
+
+/** The JSON body limit of every route (express.json in server/app.ts reads no more). */
+export const JSON_BODY_LIMIT_BYTES = 1024 * 1024;
 
 type Infer<T> = T extends z.ZodType ? z.output<T> : undefined;
 /** what a handler returns: the response schema's input, or anything JSON when there is none */
@@ -144,8 +154,17 @@ export function route<
   const { deps } = router;
   const checkResponses = deps.env.NODE_ENV !== 'production';
 
+  const maxBody = spec.maxBodyBytes ?? JSON_BODY_LIMIT_BYTES;
+  const isPdf = spec.produces === 'application/pdf';
+
   const guard: RequestHandler = async (req, res, next) => {
     try {
+      const length = Number(req.headers['content-length']);
+      if (Number.isFinite(length) && length > maxBody) {
+        throw new PayloadTooLarge(`The request body is too large: ${key} takes at most ${maxBody} bytes.`, [{ path: 'body', message: `more than ${maxBody} bytes` }]);
+      }
+      // our pages show our PDFs in an <iframe>: those (only) may be framed by our own origin
+      if (isPdf) allowFraming(res, ["'self'"]);
       const user = access === 'public' ? await readSessionUser(deps, req, res).catch(() => null) : await readSessionUser(deps, req, res);
       if (user) req.user = user;
       if (!isAllowed(access, (user?.role ?? null) as Role | null)) {
@@ -193,6 +212,19 @@ export function route<
     }
   };
 
+  // a multipart body that cannot be read (truncated, no boundary, a bad part header) is the
+  // caller's mistake: 400 with busboy's reason, never a 500
+  const middleware = (spec.middleware ?? []).map((m): RequestHandler =>
+    spec.bodyType === 'multipart'
+      ? (req, res, next) =>
+          m(req, res, (err?: unknown) => {
+            if (err === undefined || err === null || err === 'route' || err === 'router') next(err as undefined);
+            else if (err instanceof HttpError || err instanceof multer.MulterError) next(err);
+            else next(new BadRequest(`The upload could not be read: ${err instanceof Error ? err.message : String(err)}. Send multipart/form-data with its boundary and complete parts.`, [{ path: 'body', message: 'not readable as multipart/form-data' }]));
+          })
+      : m,
+  );
+
   const method = spec.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
-  router.express[method](spec.path, guard, ...(spec.middleware ?? []), main);
+  router.express[method](spec.path, guard, ...middleware, main);
 }

@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm';
 import type { Express } from 'express';
 import { mkdtempSync, rmSync } from 'node:fs';
+import type { IncomingMessage, ServerResponse } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
@@ -8,7 +9,7 @@ import type TestAgent from 'supertest/lib/agent';
 import type { Role } from '../../../shared/contracts/common';
 import { createApp } from '../../../server/app';
 import type { Clock } from '../../../server/platform/clock';
-import { buildDeps, createAppJobs } from '../../../server/compose';
+import { buildDeps } from '../../../server/compose';
 import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
 import { user } from '../../../server/platform/auth/schema';
 import { mailboxMessage } from '../../../server/platform/mail/schema';
@@ -58,8 +59,14 @@ export type TestMailbox = {
 };
 
 export type TestApp = {
-  /** the Express app; `app.api.registered` lists every registered `METHOD /path` */
+  /**
+   * the Express app as our own pages call it: like a browser, a state-changing request
+   * without Origin or Referer gets `Origin: PUBLIC_URL` (set either header yourself to send
+   * another); `app.api.registered` lists every registered `METHOD /path`
+   */
   app: Express & { api: ApiRouter };
+  /** the same app with nothing added: what a non-browser client or a forged request sends */
+  rawApp: Express & { api: ApiRouter };
   db: Db;
   deps: AppDeps;
   clock: TestClock;
@@ -69,8 +76,6 @@ export type TestApp = {
   signInAs(role: Role, options?: { email?: string; name?: string }): Promise<TestAgent>;
   /** create a user directly (no sign-in); returns its id */
   createUser(role: Role, options?: { email?: string; name?: string; password?: string }): Promise<string>;
-  /** stop the job system as a server stop would, and start a new one on the same database (t.deps.jobs is the new one) */
-  restartJobs(): Promise<void>;
   close(): Promise<void>;
 };
 
@@ -84,6 +89,21 @@ export type CreateTestAppOptions = {
   /** outbox retry settings */
   mail?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number };
 };
+
+/**
+ * Browsers send `Origin` with every POST, PUT, PATCH and DELETE, and the app refuses such a
+ * request without it (server/platform/http/same-origin.ts). Tests act as our own pages: this
+ * adds the app's origin when a test set neither Origin nor Referer.
+ */
+function asBrowserPage(app: Express & { api: ApiRouter }, publicUrl: string): Express & { api: ApiRouter } {
+  const origin = new URL(publicUrl).origin;
+  const handler = (req: IncomingMessage, res: ServerResponse) => {
+    const safe = req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS';
+    if (!safe && req.headers.origin === undefined && req.headers.referer === undefined) req.headers.origin = origin;
+    app(req, res);
+  };
+  return Object.assign(handler, { api: app.api }) as unknown as Express & { api: ApiRouter };
+}
 
 export async function createTestApp(options: CreateTestAppOptions = {}): Promise<TestApp> {
   const dir = mkdtempSync(join(tmpdir(), 'sw-test-'));
@@ -112,7 +132,8 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
   // The sender loop is not started: waitFor() delivers the outbox itself.
   deps.mail.kick = () => undefined;
   if (demo) await seedDemo(deps, typeof options.demo === 'object' ? options.demo.seeders : []);
-  const app = createApp(deps);
+  const rawApp = createApp(deps);
+  const app = asBrowserPage(rawApp, env.PUBLIC_URL);
 
   const mailbox: TestMailbox = {
     all: () =>
@@ -169,6 +190,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
 
   return {
     app,
+    rawApp,
     db,
     deps,
     clock,
@@ -176,12 +198,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     smtp,
     signInAs,
     createUser,
-    async restartJobs() {
-      await deps.jobs.close();
-      deps.jobs = createAppJobs({ db, env });
-    },
     async close() {
-      await deps.jobs.close();
       await deps.mail.stop();
       await smtp.close();
       closeDatabase(db);

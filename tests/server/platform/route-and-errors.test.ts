@@ -156,9 +156,11 @@ describe('errors from better-auth calls inside our handlers', () => {
     });
     app2.use(errorHandler(t.deps.log));
     const x = await request(app2).get('/api/x').expect(400);
-    expect(errorBodySchema.parse(x.body).error).toEqual({ code: 'bad_request', message: 'Password too long' });
+    // in our words (server/platform/http/auth-words.ts), never the library's
+    expect(errorBodySchema.parse(x.body).error).toEqual({ code: 'bad_request', message: 'The password is too long: use at most 128 characters.' });
     const y = await request(app2).get('/api/y').expect(403);
     expect(y.body.error.code).toBe('forbidden');
+    expect(y.body.error.message).not.toMatch(/banned/i);
   });
 
   it('an existing account makes an invitation unusable with 409, and the claim is released', async () => {

@@ -3,9 +3,9 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { meAs, noSession, renderApp, stubFetch } from '../app/render-app';
 
-// better-auth answers a wrong password with 401 and { code, message } (its own error
-// body, not our envelope); the page must show the server's message as it came.
-const wrongPassword = { status: 401, body: { code: 'INVALID_EMAIL_OR_PASSWORD', message: 'Invalid email or password' } };
+// The server answers /api/auth/* errors in our envelope and words (server/platform/http/
+// auth-endpoint.ts); the page must show the server's message as it came.
+const wrongPassword = { status: 401, body: { error: { code: 'unauthorized', message: 'The e-mail address or the password is not right.' } } };
 
 describe('the sign-in page', () => {
   it('shows the server’s error when the password is wrong, and stays on sign-in', async () => {
@@ -21,7 +21,7 @@ describe('the sign-in page', () => {
     await user.click(screen.getByRole('button', { name: 'Sign in' }));
     const alert = await screen.findByRole('alert');
     expect(alert.textContent).toContain('Sign-in failed');
-    expect(alert.textContent).toContain('Invalid email or password');
+    expect(alert.textContent).toContain('The e-mail address or the password is not right.');
     expect(router.state.location.pathname).toBe('/sign-in');
     const sent = calls.find((c) => c.path === '/api/auth/sign-in/email');
     expect(sent?.body).toMatchObject({ email: 'editor@demo.squarewright.test', password: 'not-it' });

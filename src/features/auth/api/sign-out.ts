@@ -1,11 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { ApiError } from '../../../lib/api-client';
-import { authClient } from '../../../lib/auth-client';
+import { authClient, authError } from '../../../lib/auth-client';
 
 /** POST /api/auth/sign-out through better-auth. */
 export async function signOut(): Promise<void> {
   const { error } = await authClient.signOut();
-  if (error) throw new ApiError(error.status ?? 500, error.code ?? 'sign_out_failed', error.message ?? 'Sign-out failed.');
+  if (error) throw authError(error, 'sign_out_failed', 'Sign-out failed.');
 }
 
 /** Signs out and drops every cached query (nothing of the last user stays in memory). */
