@@ -1,15 +1,20 @@
 // Exhaustive squared rectangles of order n from the c-nets with m = n + 1 edges
 // (Brooks, Smith, Stone & Tutte, Duke Math. J. 7 (1940)): every 3-connected planar graph
-// with every pole edge up to symmetry is solved exactly; zero currents are skipped; every
-// result is re-verified, classified and deduplicated by its canonical key (never by
-// dividing counts). (G, e) and (G*, e*) give the same rectangle turned a quarter turn, so of
-// a dual pair only the graph whose canonical code is not larger is solved [common practice].
-import { classifyTiling, dualOf, facesOf, solvePlaneNetwork, type PlaneGraph, type Tiling } from '../tiling/index';
-import { canonicalGraphKey, edgeOrbits } from './canonical-graph';
-import { cNetsOf, crossPoints } from './tiling-networks';
-import { graphFromKey, planeGraphsWithEdges } from './generate-graphs';
-import { describeTiling, type FoundryRunControl } from './found-tiling';
+// (generate-maps.ts: each once, as a tree walk that splits into shards) with every edge as
+// the pole edge is solved exactly (map-solver.ts: one adjugate per graph gives every pole);
+// zero currents are skipped; every result is verified as an exact cover, classified and
+// reported once. (G, e) and (G*, e*) give the same rectangle turned a quarter turn, so of a
+// dual pair only the graph with fewer vertices is solved, and of a pair with as many vertices
+// as faces the one whose canonical code is not larger [common practice]. Squares only: the
+// square test 2 tau(G / e) = tau(G) and Gambini's filter come before any layout.
+import { classifyTiling, solvePlaneNetwork, verifyTiling, type PlaneGraph, type Tiling } from '../tiling/index';
 import { FoundryInputError } from './errors';
+import { describeTiling, type FoundryRunControl } from './found-tiling';
+import { forEachPlaneMap } from './generate-maps';
+import { MapCanonizer } from './map-canonical';
+import { MapSolver } from './map-solver';
+import { PlaneMap, mapFromPlaneGraph } from './plane-map';
+import { cNetsOf, crossPoints } from './tiling-networks';
 
 export const MIN_ORDER = 5;
 export const MAX_EXHAUSTIVE_ORDER = 25;
@@ -26,17 +31,21 @@ export interface ExhaustiveOptions extends FoundryRunControl {
    * the parts' counts add up to the whole run's and their tilings are the run's.
    */
   shard?: { index: number; count: number };
-  /** 'levels': graph levels built; 'last-level': graphs with m - 1 edges extended; 'solving': graphs solved */
+  /**
+   * Progress of the walk over the graphs: `done` of `total` parts of this run's search
+   * finished ('solving'; the other phases are no longer reported).
+   */
   onProgress?: (p: { phase: 'levels' | 'last-level' | 'solving'; done: number; total: number; found: number }) => void;
 }
 
 export interface ExhaustiveSummary {
   order: number;
   squaresOnly: boolean;
-  /** 3-connected planar graphs with order + 1 edges */
+  /** 3-connected planar graphs with order + 1 edges (in this shard) */
   graphs: number;
-  /** (graph, pole-edge orbit) pairs solved */
+  /** (graph, pole edge) pairs tested: every edge of every solved graph */
   pairs: number;
+  /** pairs laid out whose network has an edge without current */
   zeroCurrent: number;
   simplePerfect: number;
   simpleImperfect: number;
@@ -61,34 +70,60 @@ export function passesGambini(g: PlaneGraph, p: number, q: number, faceSizes: Ma
   return threes <= 1;
 }
 
-function dartFaceSizes(g: PlaneGraph): Map<string, number> {
-  const m = new Map<string, number>();
-  for (const f of facesOf(g)) {
-    for (let i = 0; i < f.length; i++) m.set(`${f[i]},${f[(i + 1) % f.length]}`, f.length);
-  }
-  return m;
+/** passesGambini on a map, for the pole dart d. */
+function gambini(h: PlaneMap, d: number): boolean {
+  let threes = 0;
+  if (h.deg[h.tail[d]!] === 3) threes++;
+  if (h.deg[h.head[d]!] === 3) threes++;
+  if (h.fsize[h.face[d]!] === 3) threes++;
+  if (h.fsize[h.face[h.rev[d]!]!] === 3) threes++;
+  return threes <= 1;
 }
 
-/** The canonical key of the graph a run solves for g: of a dual pair only the one with the smaller key. */
-function solvedKey(g: PlaneGraph): string {
-  const k = canonicalGraphKey(g);
-  const d = canonicalGraphKey(dualOf(g));
-  return k <= d ? k : d;
-}
+/** Picks and keys the graph of each dual pair a run solves. */
+class Representatives {
+  private readonly canon = new MapCanonizer();
+  private readonly dual = new PlaneMap();
 
-/**
- * Whether the run reports tiling t when it meets it from the graph with key `key`: always for
- * a tiling without crosses (it has one c-net); for one with crosses only from its owner, the
- * 3-connected c-net with the smallest solved key.
- */
-function ownedBy(t: Tiling, key: string): boolean {
-  if (crossPoints(t).length === 0) return true;
-  let owner: string | null = null;
-  for (const g of cNetsOf(t)) {
-    const k = solvedKey(g);
-    if (owner === null || k < owner) owner = k;
+  /** The canonical key of h (faces computed). */
+  key(h: PlaneMap): string {
+    this.canon.run(h, false);
+    return this.canon.key();
   }
-  return owner === null || owner === key;
+
+  /** True when the run solves h (not its dual): fewer vertices than faces, or as many and a code not larger. */
+  solves(h: PlaneMap): boolean {
+    if (h.n !== h.F) return h.n < h.F;
+    const k = this.key(h);
+    h.dualInto(this.dual);
+    return k <= this.key(this.dual);
+  }
+
+  /** The key of the graph a run solves for the dual pair of h. */
+  solvedKey(h: PlaneMap): string {
+    if (h.n < h.F) return this.key(h);
+    h.dualInto(this.dual);
+    const d = this.key(this.dual);
+    if (h.n > h.F) return d;
+    const k = this.key(h);
+    return k <= d ? k : d;
+  }
+
+  /**
+   * Whether the run reports tiling t from the graph with key `key`: always for a tiling
+   * without crosses (it has one c-net); for one with crosses only from its owner, the
+   * 3-connected c-net with the smallest solved key.
+   */
+  owns(t: Tiling, key: string): boolean {
+    if (crossPoints(t).length === 0) return true;
+    let owner: string | null = null;
+    const m = new PlaneMap();
+    for (const g of cNetsOf(t)) {
+      const k = this.solvedKey(mapFromPlaneGraph(g, m));
+      if (owner === null || k < owner) owner = k;
+    }
+    return owner === null || owner === key;
+  }
 }
 
 function checkShard(shard: ExhaustiveOptions['shard']): { index: number; count: number } {
@@ -108,70 +143,76 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
   const shard = checkShard(opts.shard);
   const squaresOnly = opts.squaresOnly === true;
   const t0 = Date.now();
-  const m = order + 1;
-  // keys only: the tilings themselves go to onFound (memory stays small at order 18+)
-  const found = new Set<string>();
   const summary: ExhaustiveSummary = {
     order, squaresOnly, graphs: 0, pairs: 0, zeroCurrent: 0, simplePerfect: 0, simpleImperfect: 0, compound: 0, squares: 0, ms: 0, stopped: false,
   };
-  const compoundKeys = new Set<string>();
+  const reps = new Representatives();
+  const solver = new MapSolver();
+  // one graph's tilings: its pole edges in one orbit (or a self-dual graph's dual poles) repeat them
+  const ofGraph = new Set<string>();
+  let found = 0;
   let stop = false;
   const shouldStop = () => (stop ||= opts.shouldStop?.() === true);
-  const levels = m - 6;
-  const graphs: { key: string; dualKey: string }[] = [];
-  for (const g of planeGraphsWithEdges(m, {
-    shouldStop,
-    onLevel: (e) => opts.onProgress?.({ phase: 'levels', done: e - 6, total: levels, found: 0 }),
-    onParents: (e, done, total) => { if (e === m) opts.onProgress?.({ phase: 'last-level', done, total, found: 0 }); },
-  })) graphs.push(g);
-  if (shouldStop()) {
-    summary.stopped = true;
-    summary.ms = Date.now() - t0;
-    return summary;
-  }
-  let done = 0;
-  for (const { key, dualKey } of graphs) {
-    if ((done & 31) === 0) {
-      if (shouldStop()) break;
-      opts.onProgress?.({ phase: 'solving', done, total: graphs.length, found: found.size });
-    }
-    if (done++ % shard.count !== shard.index) continue;
+
+  const visit = (h: PlaneMap) => {
     summary.graphs++;
-    if (key > dualKey) continue;
-    const g = graphFromKey(key);
-    const faceSizes = squaresOnly ? dartFaceSizes(g) : null;
-    for (const { edge } of edgeOrbits(g)) {
-      const [p, q] = edge;
-      if (faceSizes && !passesGambini(g, p, q, faceSizes)) continue;
+    if (!reps.solves(h)) return;
+    ofGraph.clear();
+    let key: string | null = null;
+    const exact = solver.adjugate(h);
+    const n = h.n;
+    const { tail, head, rev, D } = h;
+    for (let d = 0; d < D; d++) {
+      if (rev[d]! < d) continue;
       summary.pairs++;
-      const r = solvePlaneNetwork(g, { p, q });
-      if (!r.ok) {
-        if (r.code === 'zero-current') summary.zeroCurrent++;
-        else throw new Error(`solvePlaneNetwork failed on a generated graph: ${r.code}: ${r.message}`);
+      if (squaresOnly) {
+        if (exact && 2 * solver.height(tail[d]!, head[d]!, n) !== solver.tau) continue;
+        if (!gambini(h, d)) continue;
+      }
+      let t: Tiling | null;
+      if (exact) {
+        t = solver.tiling(h, d);
+      } else {
+        const r = solvePlaneNetwork(h.toPlaneGraph(), { p: tail[d]!, q: head[d]! });
+        if (!r.ok && r.code !== 'zero-current') throw new Error(`solvePlaneNetwork failed on a generated graph: ${r.code}: ${r.message}`);
+        t = r.ok ? r.tiling : null;
+      }
+      if (t === null) {
+        summary.zeroCurrent++;
         continue;
       }
-      if (squaresOnly && r.tiling.W !== r.tiling.H) continue;
-      if (!ownedBy(r.tiling, key)) continue;
-      const cls = classifyTiling(r.tiling);
-      if (!cls.simple) {
-        // count each compound tiling once as well
-        const ft = describeTiling(r.tiling, {}, cls);
-        if (ft) compoundKeys.add(ft.key);
-        continue;
-      }
-      const ft = describeTiling(r.tiling, { method: 'exhaustive', graph: Array.from(key, (ch) => ch.charCodeAt(0)), pole: [p, q] }, cls);
+      if (squaresOnly && t.W !== t.H) continue;
+      const v = verifyTiling(t);
+      if (!v.ok) throw new Error(`a solved network did not verify: ${v.message}`);
+      key ??= reps.key(h);
+      if (!reps.owns(t, key)) continue;
+      const cls = classifyTiling(t);
+      const ft = describeTiling(t, cls.simple ? { method: 'exhaustive', graph: Array.from(key, (ch) => ch.charCodeAt(0)), pole: [tail[d]!, head[d]!] } : {}, cls);
       if (!ft) throw new Error('a solved network did not verify');
-      if (found.has(ft.key)) continue;
-      found.add(ft.key);
+      if (ofGraph.has(ft.key)) continue;
+      ofGraph.add(ft.key);
+      if (!cls.simple) {
+        summary.compound++;
+        continue;
+      }
+      found++;
       if (ft.perfect) summary.simplePerfect++;
       else summary.simpleImperfect++;
       if (ft.perfect && ft.square) summary.squares++;
       opts.onFound?.(ft);
     }
-  }
-  summary.compound = compoundKeys.size;
-  summary.stopped = stop;
-  opts.onProgress?.({ phase: 'solving', done, total: graphs.length, found: found.size });
+  };
+  let lastTotal = 0;
+  const finished = forEachPlaneMap(order + 1, visit, {
+    shard,
+    shouldStop,
+    onProgress: (done, total) => {
+      lastTotal = total;
+      opts.onProgress?.({ phase: 'solving', done, total, found });
+    },
+  });
+  summary.stopped = !finished || stop;
+  if (!summary.stopped) opts.onProgress?.({ phase: 'solving', done: lastTotal, total: lastTotal, found });
   summary.ms = Date.now() - t0;
   return summary;
 }

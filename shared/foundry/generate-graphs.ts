@@ -1,11 +1,12 @@
-// All 3-connected planar graphs with m edges, by levels (Bondy & Murty, Graph Theory with
-// Applications, 12.2; Tutte's wheel theorem): L[6] = {K4}; L[m] = {wheel W_(m/2) if m is
-// even} + face splits of L[m-1] + their duals (vertex splits), deduplicated by the canonical
-// code of the embedding. A chord between two non-consecutive vertices of a face of a
-// 3-connected plane graph is never a multiple edge (they would form a 2-cut).
-import { canonicalForm, codeKey, graphFromCode, keyCode } from './canonical-graph';
-import { dualOf, facesOf, splitFace, wheel, type PlaneGraph } from '../tiling/index';
+// All 3-connected planar graphs with m edges as canonical keys: the tree walk of
+// generate-maps.ts (each map once, no table of seen maps), keyed by the canonical code of the
+// embedding (canonical-graph.ts; the same code as map-canonical.ts computes on a map).
+import { codeKey, graphFromCode, keyCode } from './canonical-graph';
+import { facesOf, splitFace, type PlaneGraph } from '../tiling/index';
 import { FoundryInputError } from './errors';
+import { forEachPlaneMap } from './generate-maps';
+import { MapCanonizer } from './map-canonical';
+import { PlaneMap } from './plane-map';
 
 export interface GeneratedGraph {
   /** Canonical code as a string (one char per code entry). */
@@ -15,20 +16,14 @@ export interface GeneratedGraph {
 }
 
 export interface GenerateOptions {
-  /** Polled between graphs; returning true ends the generator early. */
+  /** Polled between parts of the walk; returning true ends the generator early. */
   shouldStop?: () => boolean;
-  /** Called when a lower level is complete (m, number of graphs). */
-  onLevel?: (m: number, count: number) => void;
-  /** Progress inside a level: `done` of `total` graphs of level m - 1 extended (every 256). */
-  onParents?: (m: number, done: number, total: number) => void;
+  /** Only part index of count of the graphs (disjoint parts, together all of them). */
+  shard?: { index: number; count: number };
 }
 
 export const MIN_EDGES = 6;
 export const MAX_EDGES = 40;
-
-function canonKey(g: PlaneGraph): string {
-  return codeKey(canonicalForm(g).code);
-}
 
 export function graphFromKey(key: string): PlaneGraph {
   return graphFromCode(keyCode(key));
@@ -48,57 +43,36 @@ export function* faceSplits(g: PlaneGraph): Generator<PlaneGraph> {
   }
 }
 
-function* level(prev: readonly string[], m: number, seen: Set<string>, opts: GenerateOptions = {}): Generator<GeneratedGraph> {
-  const { shouldStop, onParents } = opts;
-  if (m % 2 === 0) {
-    const w = wheel(m / 2);
-    const k = canonKey(w);
-    seen.add(k);
-    yield { key: k, dualKey: canonKey(dualOf(w)) };
-  }
-  let tick = 0;
-  for (const gk of prev) {
-    if ((++tick & 63) === 0 && shouldStop?.()) return;
-    if ((tick & 255) === 0) onParents?.(m, tick, prev.length);
-    const g = graphFromKey(gk);
-    for (const h of faceSplits(g)) {
-      const k = canonKey(h);
-      if (seen.has(k)) continue;
-      seen.add(k);
-      const kd = canonKey(dualOf(h));
-      yield { key: k, dualKey: kd };
-      if (!seen.has(kd)) {
-        seen.add(kd);
-        yield { key: kd, dualKey: k };
-      }
-    }
+function checkEdges(m: number): void {
+  if (!Number.isInteger(m) || m < MIN_EDGES || m > MAX_EDGES) {
+    throw new FoundryInputError('bad-edges', `planeGraphsWithEdges: m must be an integer in ${MIN_EDGES}..${MAX_EDGES}, got ${m}`);
   }
 }
 
 /**
- * Yields every 3-connected planar graph with exactly m edges, once each, as soon as it is
- * found (lower levels are built first). Stop early with opts.shouldStop or by leaving the loop.
+ * Every 3-connected planar graph with exactly m edges, once each, with the key of its dual.
+ * The walk runs when the generator is first asked; stop early with opts.shouldStop.
  */
 export function* planeGraphsWithEdges(m: number, opts: GenerateOptions = {}): Generator<GeneratedGraph> {
-  if (!Number.isInteger(m) || m < MIN_EDGES || m > MAX_EDGES) {
-    throw new FoundryInputError('bad-edges', `planeGraphsWithEdges: m must be an integer in ${MIN_EDGES}..${MAX_EDGES}, got ${m}`);
-  }
-  const k4 = canonKey(wheel(3));
-  if (m === MIN_EDGES) {
-    yield { key: k4, dualKey: k4 };
-    return;
-  }
-  let prev: string[] = [k4];
-  opts.onLevel?.(MIN_EDGES, 1);
-  for (let e = MIN_EDGES + 1; e < m; e++) {
-    const seen = new Set<string>();
-    for (const _ of level(prev, e, seen, opts)) {
-      if (opts.shouldStop?.()) return;
-    }
-    prev = [...seen];
-    opts.onLevel?.(e, prev.length);
-  }
-  for (const g of level(prev, m, new Set<string>(), opts)) {
+  checkEdges(m);
+  const out: GeneratedGraph[] = [];
+  const canon = new MapCanonizer();
+  const dual = new PlaneMap();
+  let stopped = false;
+  const code = (h: PlaneMap) => {
+    canon.run(h, false);
+    return codeKey(canon.code.subarray(0, canon.length));
+  };
+  forEachPlaneMap(
+    m,
+    (h) => {
+      if (stopped) return;
+      h.dualInto(dual);
+      out.push({ key: code(h), dualKey: code(dual) });
+    },
+    { ...(opts.shard ? { shard: opts.shard } : {}), shouldStop: () => (stopped ||= opts.shouldStop?.() === true) },
+  );
+  for (const g of out) {
     if (opts.shouldStop?.()) return;
     yield g;
   }
@@ -106,15 +80,12 @@ export function* planeGraphsWithEdges(m: number, opts: GenerateOptions = {}): Ge
 
 /** Counts of 3-connected planar graphs for m = 6..mMax (index m). */
 export function countPlaneGraphs(mMax: number): number[] {
+  checkEdges(mMax);
   const counts: number[] = [];
-  const k4 = canonKey(wheel(3));
-  let prev: string[] = [k4];
-  counts[MIN_EDGES] = 1;
-  for (let e = MIN_EDGES + 1; e <= mMax; e++) {
-    const seen = new Set<string>();
-    for (const _ of level(prev, e, seen)) { /* drain */ }
-    prev = [...seen];
-    counts[e] = prev.length;
+  for (let m = MIN_EDGES; m <= mMax; m++) {
+    let c = 0;
+    forEachPlaneMap(m, () => { c++; });
+    counts[m] = c;
   }
   return counts;
 }

@@ -6,6 +6,7 @@ import { canonicalForm, edgeOrbits } from '../../../shared/foundry/canonical-gra
 import { exhaustiveTilings, passesGambini } from '../../../shared/foundry/exhaustive';
 import { graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
 import type { FoundTiling } from '../../../shared/foundry/found-tiling';
+import { referenceGraphKeys } from './reference-generator';
 
 // OEIS A002839: simple perfect squared rectangles of order n (squares included), n = 9..16.
 const A002839 = [2, 6, 22, 67, 213, 744, 2609, 9016];
@@ -35,6 +36,23 @@ describe('exhaustive squared rectangles', () => {
       const published = catalogue(n);
       expect(new Set(published).size).toBe(published.length);
       expect(found.sort()).toEqual([...published].sort());
+    }
+  });
+
+  it('gives exactly what the straightforward way gives: every graph of the level-by-level generator, every edge as pole, solvePlaneNetwork, classify (orders 9..14)', () => {
+    for (let n = 9; n <= 14; n++) {
+      const ours: string[] = [];
+      exhaustiveTilings({ order: n, onFound: (t) => ours.push(t.key) });
+      const theirs = new Set<string>();
+      for (const key of referenceGraphKeys(n + 1)) {
+        const g = graphFromKey(key);
+        for (const [p, q] of edgesOf(g)) {
+          const r = solvePlaneNetwork(g, { p, q });
+          if (r.ok && classifyTiling(r.tiling).simple) theirs.add(canonicalKey(r.tiling));
+        }
+      }
+      expect(new Set(ours).size).toBe(ours.length);
+      expect(ours.sort()).toEqual([...theirs].sort());
     }
   });
 

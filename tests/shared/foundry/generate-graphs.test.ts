@@ -3,6 +3,7 @@ import { canonicalForm, canonicalGraphKey, edgeOrbits } from '../../../shared/fo
 import { countPlaneGraphs, graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
 import { dualOf, edgeCount, facesOf, mulberry32, wheel, type PlaneGraph } from '../../../shared/tiling/index';
 import { isThreeConnected } from '../tiling/helpers';
+import { referenceGraphKeys } from './reference-generator';
 
 // OEIS A002840: number of 3-connected planar (polyhedral) graphs with n edges, n = 6..22.
 const A002840 = [1, 0, 1, 2, 2, 4, 12, 22, 58, 158, 448, 1342, 4199, 13384, 43708, 144810, 485704];
@@ -25,10 +26,29 @@ function relabel(g: PlaneGraph, seed: number, mirror: boolean): PlaneGraph {
 }
 
 describe('3-connected planar graph generation', () => {
-  it('counts equal OEIS A002840 for m = 6..18 edges', () => {
+  it('counts equal OEIS A002840 for m = 6..20 edges', () => {
     // Source: OEIS A002840 (polyhedral graphs with n edges).
-    const counts = countPlaneGraphs(18);
-    expect(counts.slice(6, 19)).toEqual(A002840.slice(0, 13));
+    const counts = countPlaneGraphs(20);
+    expect(counts.slice(6, 21)).toEqual(A002840.slice(0, 15));
+  });
+
+  it('gives exactly the graphs of the straightforward level-by-level generator (a table of every map seen), m = 6..17', () => {
+    for (let m = 6; m <= 17; m++) {
+      const keys = [...planeGraphsWithEdges(m)].map((g) => g.key);
+      expect(new Set(keys).size).toBe(keys.length);
+      expect(keys.sort()).toEqual([...referenceGraphKeys(m)].sort());
+    }
+  });
+
+  it('splits into shards that are disjoint and together give every graph once (m = 15, 17)', () => {
+    for (const [m, count] of [[15, 3], [17, 4]] as const) {
+      const all = [...planeGraphsWithEdges(m)].map((g) => g.key).sort();
+      const parts: string[] = [];
+      for (let index = 0; index < count; index++) parts.push(...[...planeGraphsWithEdges(m, { shard: { index, count } })].map((g) => g.key));
+      expect(parts.sort()).toEqual(all);
+      // Source: OEIS A002840.
+      expect(all.length).toBe(A002840[m - 6]);
+    }
   });
 
   it('every generated graph up to 14 edges is 3-connected by brute force, satisfies Euler and has distinct codes', () => {
