@@ -10,7 +10,7 @@ import { securityHeaders } from './platform/http/security-headers';
 import { areaRoutes } from './area-routes';
 
 /** Paths exempt from the same-origin check: checked by their own signature instead. */
-export const signatureCheckedPaths = ['/api/payments/webhook'];
+export const signatureCheckedPaths = ['/api/payments/webhook', '/api/webhooks/local-receiver'];
 
 export type CreateAppOptions = {
   /** serve the client (Vite middleware in dev, dist/client in production); after the API 404 */
@@ -49,6 +49,8 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
 
   // The payments webhook is verified over its raw bytes: keep them (express.json then skips it).
   app.use('/api/payments/webhook', express.raw({ type: '*/*', limit: '512kb' }));
+  // the local webhook receiver checks signatures over the raw bytes too
+  app.use('/api/webhooks/local-receiver', express.raw({ type: '*/*', limit: '512kb' }));
   app.use(express.json({ limit: options.jsonLimit ?? JSON_BODY_LIMIT_BYTES }));
   app.use(jsonDepthGuard());
 

@@ -2,6 +2,7 @@ import type { AppDeps } from './app-deps';
 import { registerAccountRoutes } from './areas/accounts/index';
 import { registerEditionRoutes, registerPublicationRoutes } from './areas/editions/index';
 import { registerFoundryRoutes } from './areas/foundry/index';
+import { registerIntegrationRoutes } from './areas/integrations/index';
 import { registerTilingRoutes, registerSubmissionRoutes } from './areas/intake/index';
 import { registerMailboxRoutes } from './areas/mailbox/index';
 import { registerMoneyRoutes } from './areas/payouts/index';
@@ -25,4 +26,5 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerTemplateRoutes,
   registerPublicationRoutes,
   registerEditionRoutes,
+  registerIntegrationRoutes,
 ];

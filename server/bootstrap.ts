@@ -95,6 +95,7 @@ export async function startServer(options: StartOptions = {}) {
     });
   } catch (err) {
     await deps.mail.stop();
+    await deps.webhooks.stop();
     for (const stop of stops.reverse()) await stop().catch(() => undefined);
     closeDatabase(db);
     const code = (err as { code?: unknown }).code;
@@ -102,6 +103,7 @@ export async function startServer(options: StartOptions = {}) {
     throw err;
   }
   deps.mail.start();
+  deps.webhooks.start();
 
   const lines = [
     `Squarewright ${isNew ? '(new database) ' : ''}is running at ${env.PUBLIC_URL}  (listening on ${env.HOST}:${env.PORT}, ${Date.now() - t0} ms)`,
@@ -123,6 +125,7 @@ export async function startServer(options: StartOptions = {}) {
         httpServer.closeAllConnections();
       });
       await deps.mail.stop();
+      await deps.webhooks.stop();
       for (const stop of stops.reverse()) await stop().catch(() => undefined);
       closeDatabase(db);
     })());

@@ -4,6 +4,7 @@ import type { Db } from './platform/db/client';
 import type { AppDeps } from './app-deps';
 import { editionUsage } from './areas/editions/index';
 import { submissionHistory } from './areas/intake/index';
+import { createWebhookSender, type WebhookSenderOptions } from './areas/integrations/index';
 import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
 import { foundryRunSink } from './areas/foundry/index';
 import { createPuzzleSource, createStockUsage, puzzleProofSink } from './areas/puzzles/index';
@@ -26,6 +27,8 @@ export type BuildDepsInput = {
   log?: Logger;
   signInLimit?: { window: number; max: number };
   mail?: Pick<MailSenderOptions, 'baseDelayMs' | 'maxDelayMs' | 'maxAttempts' | 'intervalMs'>;
+  /** webhook outbox settings (retry delays, timeout, HTTP client) */
+  webhooks?: Pick<WebhookSenderOptions, 'baseDelayMs' | 'maxDelayMs' | 'maxAttempts' | 'intervalMs' | 'timeoutMs' | 'fetch'>;
   /** the job system (tests pass their own); default: createJobs from the environment */
   jobs?: Jobs;
 };
@@ -59,7 +62,9 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
   });
   // every job kind's server half: where its results go (server/platform/jobs/port.ts)
   const jobs = input.jobs ?? createAppJobs({ db: input.db, env: input.env, log });
-  const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, jobs };
+  // outgoing events: the webhook outbox is the platform's event sink (server/platform/events.ts)
+  const webhooks = createWebhookSender({ db: input.db, clock, log, ...input.webhooks });
+  const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, jobs, events: webhooks };
   // The areas' ports, wired here and nowhere else: each area gets what it needs from the
   // others as typed interfaces (see server/areas/<area>/ports.ts).
   return {
@@ -70,6 +75,9 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     editionUsage,
     puzzles: createPuzzleSource(stockPort),
     fees: feeRecorder,
+    webhooks,
+    // the local webhook receiver answers in development, demo and tests
+    localReceiver: input.demo || input.env.NODE_ENV !== 'production',
     payments: paymentsProviderFromEnv(input.env),
   };
 }

@@ -2,6 +2,7 @@ import type { Auth } from './auth/auth';
 import type { Clock } from './clock';
 import type { Db } from './db/client';
 import type { Env } from './env';
+import type { EventSink } from './events';
 import type { Jobs } from './jobs/port';
 import type { Logger } from './log';
 import type { MailSender } from './mail/outbox';
@@ -22,4 +23,6 @@ export type PlatformDeps = {
   log: Logger;
   /** THE way to run heavy work off the request thread (server/platform/jobs/port.ts) */
   jobs: Jobs;
+  /** outgoing events (webhooks): emit inside the transaction of the change, kick after it */
+  events: EventSink;
 };

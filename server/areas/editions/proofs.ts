@@ -26,7 +26,7 @@ import { proofDocumentOf } from './stored-json';
 // (fees into the ledger in the same transaction). Every state change is a move of
 // ./edition-states.ts.
 
-type Deps = Pick<EditionsDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzles' | 'fees'>;
+type Deps = Pick<EditionsDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzles' | 'fees' | 'events'>;
 
 export function dataDir(deps: Pick<EditionsDeps, 'env'>): string {
   return isAbsolute(deps.env.DATA_DIR) ? deps.env.DATA_DIR : resolve(appRoot(), deps.env.DATA_DIR);
@@ -124,6 +124,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
         .values({ editionId, version, sha256: hash, path: rel, bytes: rendered.pdf.length, pages: rendered.pages, preflightJson: JSON.stringify(rendered.preflight), documentJson: JSON.stringify(built.doc), status: 'pending', createdBy: who.id, createdAt: now })
         .run();
       moveEdition(tx, fresh, 'sendToProof', { returnNotes: null, updatedAt: now });
+      deps.events.emit(tx, 'edition.proof_sent', { edition: eventEdition(fresh, pub.title, 'in_proof'), proofVersion: version });
       for (const p of activeUsersWithRole(tx, 'printer')) {
         queueMail(
           tx,
@@ -148,6 +149,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
     }),
   );
   deps.mail.kick();
+  deps.events.kick();
   return toEdition(deps, getEditionRow(deps.db, editionId));
 }
 
@@ -215,9 +217,11 @@ export async function approveProof(deps: Deps, who: SessionUser, editionId: stri
       tx.update(editionProof).set({ status: 'approved', decidedBy: who.id, decidedAt: now }).where(eq(editionProof.id, p.id)).run();
       moveEdition(tx, fresh, 'approveProof', { pressVersion: version, pressSha256: hash, pressPath: rel, pressBytes: press.pdf.length, pressPages: press.pages, pressCreatedAt: now, updatedAt: now });
       mailEditor(tx, deps, p.createdBy, 'proof-approved', { publication: pub.title, number: String(r.number), version: String(version), printer: who.name, sha256: hash, link: editionLink(deps, `/editions/${editionId}`) }, now);
+      deps.events.emit(tx, 'edition.approved', { edition: eventEdition(fresh, pub.title, 'approved'), proofVersion: version });
     }),
   );
   deps.mail.kick();
+  deps.events.kick();
 }
 
 /** In proof -> draft, with the printer's notes. */
@@ -229,8 +233,10 @@ export function returnProof(deps: Deps, who: SessionUser, editionId: string, ver
     tx.update(editionProof).set({ status: 'returned', notes, decidedBy: who.id, decidedAt: now }).where(eq(editionProof.id, p.id)).run();
     moveEdition(tx, r, 'returnProof', { returnNotes: notes, updatedAt: now });
     mailEditor(tx, deps, p.createdBy, 'proof-returned', { publication: pub.title, number: String(r.number), version: String(version), printer: who.name, notes, link: editionLink(deps, `/editions/${editionId}`) }, now);
+    deps.events.emit(tx, 'edition.proof_returned', { edition: eventEdition(r, pub.title, 'draft'), proofVersion: version, notes });
   });
   deps.mail.kick();
+  deps.events.kick();
 }
 
 function todayOf(deps: Pick<EditionsDeps, 'clock'>): string {
@@ -285,6 +291,13 @@ export function publishEdition(deps: Deps, who: SessionUser, editionId: string, 
     const entries = feeEntries(deps, tx, editionId, pub).map(({ puzzleId, setterId, kind, amountMinor, currency }) => ({ puzzleId, setterId, kind, amountMinor, currency }));
     if (entries.length > 0) deps.fees.recordPublicationFees(tx, { editionId, publicationId: pub.id, date: r.editionDate, entries });
     moveEdition(tx, r, 'publish', { publishedAt: now, publishedBy: who.id, updatedAt: now });
+    deps.events.emit(tx, 'edition.published', { edition: eventEdition(r, pub.title, 'published'), publishedAt: now.toISOString() });
   });
+  deps.events.kick();
   return toEdition(deps, getEditionRow(deps.db, editionId));
+}
+
+/** The edition as outgoing events name it (shared/contracts/integrations.ts). */
+function eventEdition(r: { id: string; publicationId: string; number: number; editionDate: string }, publicationTitle: string, state: 'draft' | 'in_proof' | 'approved' | 'published') {
+  return { id: r.id, publicationId: r.publicationId, publicationTitle, number: r.number, editionDate: r.editionDate, state };
 }

@@ -73,6 +73,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
   /** Review answers queue the setter's mail in the same transaction; the outbox sends it now. */
   const mailing = <T>(answer: T): T => {
     deps.mail.kick();
+    deps.events.kick();
     return answer;
   };
   const review =

@@ -15,6 +15,7 @@ import type { Db, DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
+import type { EventSink } from '../../platform/events';
 import { queueMail } from '../../platform/mail/outbox';
 import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, storedTiling, type TilingAnalysis } from '../stock/index';
 import type { StockPort, SubmissionHistory } from '../stock/ports';
@@ -275,7 +276,7 @@ export interface ReviewOptions {
  * transaction the setter's mail is queued in the outbox.
  */
 export function reviewSubmission(
-  deps: IntakeStore,
+  deps: IntakeStore & { events: EventSink },
   reviewer: Actor,
   id: number,
   action: 'accept' | 'reject',
@@ -335,11 +336,14 @@ export function reviewSubmission(
         link: `${opts.publicUrl.replace(/\/$/, '')}/submissions`,
       },
     });
+    deps.events.emit(tx, 'submission.reviewed', {
+      submission: { id: String(id), status: action === 'accept' ? 'accepted' : 'rejected', stockId: stockId === null ? null : String(stockId), order: r.order },
+    });
   });
   return getSubmission(db, reviewer, id);
 }
 
-export function bulkReview(deps: IntakeStore, reviewer: Actor, input: BulkReview, opts: ReviewOptions) {
+export function bulkReview(deps: IntakeStore & { events: EventSink }, reviewer: Actor, input: BulkReview, opts: ReviewOptions) {
   const results = input.ids.map((id) => {
     try {
       const s = reviewSubmission(deps, reviewer, id, input.action, input.note, opts);

@@ -16,6 +16,7 @@ import type { Db, DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { payout, payoutAccount, paymentEvent, payoutRun, statementMailing } from './schema';
 import type { Logger } from '../../platform/log';
+import type { EventSink } from '../../platform/events';
 import { queueMail } from '../../platform/mail/outbox';
 import { ProviderRefused, ProviderUnavailable, summariseAccount, type AccountSummary, type PaymentsProvider, type ProviderEvent, type ProviderPayout } from './provider';
 import { buildStatement, listEntries, listStatementMonths, owedBalances } from './ledger';
@@ -36,6 +37,8 @@ export type PayoutsDeps = {
   publicUrl: string;
   /** Wake the mail sender after a commit that queued mail. */
   kickMail?: () => void;
+  /** Outgoing events (payout.paid), emitted in the transaction that marks a payout paid. */
+  events?: EventSink;
   /** Test seam: runs right after each successful provider call, before its result is stored. */
   afterProviderCall?: (step: 'transfer' | 'payout', payoutId: string) => void;
 };
@@ -212,9 +215,10 @@ export async function createPayoutRun(deps: PayoutsDeps, createdBy: string, inpu
 const maxMessage = 500;
 
 /** Ends a pending payout, paid or failed; one that is no longer pending is left as it is. */
-function endPending(tx: DbOrTx, payoutId: string, now: Date, outcome: { state: 'paid' } | { state: 'failed'; message: string }): void {
+/** Ends a pending payout; true when this call ended it (false: it was no longer pending). */
+function endPending(tx: DbOrTx, payoutId: string, now: Date, outcome: { state: 'paid' } | { state: 'failed'; message: string }): boolean {
   const change = outcome.state === 'paid' ? { state: 'paid' as const, paidAt: now } : { state: 'failed' as const, failureMessage: outcome.message.slice(0, maxMessage) };
-  tx.update(payout).set({ ...change, lastError: null, updatedAt: now }).where(and(eq(payout.id, payoutId), eq(payout.state, 'pending'))).run();
+  return tx.update(payout).set({ ...change, lastError: null, updatedAt: now }).where(and(eq(payout.id, payoutId), eq(payout.state, 'pending'))).run().changes > 0;
 }
 
 function markFailed(deps: PayoutsDeps, payoutId: string, message: string): void {
@@ -229,8 +233,13 @@ function noteTransient(deps: PayoutsDeps, payoutId: string, message: string): vo
 
 /** Applies the provider's view of a payout (from an answer or a webhook) to ours. */
 function applyProviderPayout(deps: PayoutsDeps, tx: DbOrTx, payoutId: string, remote: ProviderPayout): void {
-  if (remote.status === 'paid') endPending(tx, payoutId, deps.clock.now(), { state: 'paid' });
-  else if (remote.status === 'failed' || remote.status === 'canceled') {
+  if (remote.status === 'paid') {
+    const now = deps.clock.now();
+    if (endPending(tx, payoutId, now, { state: 'paid' }) && deps.events) {
+      const p = tx.select({ amountMinor: payout.amountMinor, currency: payout.currency }).from(payout).where(eq(payout.id, payoutId)).get();
+      if (p) deps.events.emit(tx, 'payout.paid', { payout: { id: payoutId, amountMinor: p.amountMinor, currency: p.currency, paidAt: now.toISOString() } });
+    }
+  } else if (remote.status === 'failed' || remote.status === 'canceled') {
     endPending(tx, payoutId, deps.clock.now(), { state: 'failed', message: remote.failure_message ?? `the provider reports the payout ${remote.status}` });
   }
 }

@@ -61,5 +61,5 @@ export function statementDepsFrom(deps: MoneyDeps): StatementDeps {
 
 /** The payout service's dependencies from the app's. */
 export function payoutsDepsFrom(deps: MoneyDeps, provider: PaymentsProvider): PayoutsDeps {
-  return { ...statementDepsFrom(deps), provider, log: deps.log };
+  return { ...statementDepsFrom(deps), provider, log: deps.log, events: deps.events };
 }

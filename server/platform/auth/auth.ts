@@ -5,7 +5,8 @@ import { createAccessControl } from 'better-auth/plugins/access';
 import { adminAc, defaultStatements } from 'better-auth/plugins/admin/access';
 import type { Clock } from '../clock';
 import type { Db } from '../db/client';
-import { account, session, user, verification } from './schema';
+import { apiKeyPlugin, apiKeyPluginPaths } from './api-keys';
+import { account, apikey, session, user, verification } from './schema';
 import type { Env } from '../env';
 import { queueMail } from '../mail/outbox';
 
@@ -71,7 +72,9 @@ export function createAuth(options: AuthOptions) {
     // the public URL, and the same port on the loopback names (localhost vs 127.0.0.1)
     trustedOrigins: [...new Set([env.PUBLIC_URL, `http://localhost:${env.PORT}`, `http://127.0.0.1:${env.PORT}`])],
     telemetry: { enabled: false },
-    database: drizzleAdapter(db, { provider: 'sqlite', schema: { user, session, account, verification } }),
+    database: drizzleAdapter(db, { provider: 'sqlite', schema: { user, session, account, verification, apikey } }),
+    // the API-key plugin's own endpoints: keys are made through /api/api-keys (route() + the permission table)
+    disabledPaths: apiKeyPluginPaths,
     emailAndPassword: {
       enabled: true,
       // accounts come from invitations (and the demo seed), never from open sign-up
@@ -98,7 +101,7 @@ export function createAuth(options: AuthOptions) {
       },
     },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
-    plugins: [admin({ ac, roles: accessRoles, defaultRole: 'setter', adminRoles: ['admin'] })],
+    plugins: [admin({ ac, roles: accessRoles, defaultRole: 'setter', adminRoles: ['admin'] }), apiKeyPlugin(env.API_KEY_RATE_PER_MINUTE)],
     rateLimit: {
       enabled: true,
       window: 60,

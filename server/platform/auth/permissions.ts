@@ -80,6 +80,20 @@ export const permissions: Record<string, Access> = {
   'PATCH /api/publications/:id': ['admin'],
   'GET /api/templates': ['editor'],
   'GET /api/templates/:id/sample.pdf': ['editor'],
+  // integrations: API keys (editors their own, admins all), webhooks (admins), the feed
+  'GET /api/api-keys': ['editor'],
+  'POST /api/api-keys': ['editor'],
+  'POST /api/api-keys/:id/revoke': ['editor'],
+  'GET /api/webhooks/deliveries': ['admin'],
+  'GET /api/webhooks/deliveries/:id': ['admin'],
+  'POST /api/webhooks/deliveries/:id/resend': ['admin'],
+  'GET /api/webhooks/endpoints': ['admin'],
+  'POST /api/webhooks/endpoints': ['admin'],
+  'PATCH /api/webhooks/endpoints/:id': ['admin'],
+  'DELETE /api/webhooks/endpoints/:id': ['admin'],
+  'POST /api/webhooks/endpoints/:id/secret': ['admin'],
+  'GET /api/webhooks/local-receiver': ['admin'],
+  'POST /api/webhooks/local-receiver': 'public',
 };
 
 export function isAllowed(access: Access, role: Role | null): boolean {

@@ -1,8 +1,53 @@
 import { z } from 'zod';
-import { errorBodySchema } from '../../../shared/contracts/common';
+import * as authContracts from '../../../shared/contracts/auth';
+import * as commonContracts from '../../../shared/contracts/common';
+import * as editionsContracts from '../../../shared/contracts/editions';
+import * as foundryContracts from '../../../shared/contracts/foundry';
+import * as integrationsContracts from '../../../shared/contracts/integrations';
+import * as ledgerContracts from '../../../shared/contracts/ledger';
+import * as payoutsContracts from '../../../shared/contracts/payouts';
+import * as publicationsContracts from '../../../shared/contracts/publications';
+import * as puzzlesContracts from '../../../shared/contracts/puzzles';
+import * as stockContracts from '../../../shared/contracts/stock';
+import * as submissionsContracts from '../../../shared/contracts/submissions';
+import * as templatesContracts from '../../../shared/contracts/templates';
+import * as tilingsContracts from '../../../shared/contracts/tilings';
+import * as usersContracts from '../../../shared/contracts/users';
 
 // The OpenAPI 3.1 document, generated from the same zod schemas the routes parse with,
-// through zod 4's own z.toJSONSchema (see docs/decisions/003-openapi-from-zod.md).
+// through zod 4's own z.toJSONSchema (decisions 003 and 080).
+//
+// Every schema a route uses ends up in components/schemas under a name, and the routes refer
+// to it with $ref: the exported contract schemas by their export name (`editionSchema` ->
+// `Edition`), a route's own body or answer by its operation (`CreateEditionBody`). Recursive
+// schemas (the rich text) are therefore references between components, never to the
+// document's root. A schema whose request form (zod's input: defaults optional, coercions
+// open) differs from its answer form gets a second component `<Name>Input`.
+
+/** Every contract module: a new file in shared/contracts/ gets a line here (tests/server/platform/openapi-document.test.ts checks). */
+export const contractModules: Record<string, Record<string, unknown>> = {
+  auth: authContracts,
+  common: commonContracts,
+  editions: editionsContracts,
+  foundry: foundryContracts,
+  integrations: integrationsContracts,
+  ledger: ledgerContracts,
+  payouts: payoutsContracts,
+  publications: publicationsContracts,
+  puzzles: puzzlesContracts,
+  stock: stockContracts,
+  submissions: submissionsContracts,
+  templates: templatesContracts,
+  tilings: tilingsContracts,
+  users: usersContracts,
+};
+
+export type OpenApiExamples = {
+  /** an example request body (JSON routes) */
+  request?: unknown;
+  /** an example of the success answer */
+  response?: unknown;
+};
 
 export type OpenApiRoute = {
   method: string;
@@ -16,7 +61,13 @@ export type OpenApiRoute = {
   response?: z.ZodType;
   status?: number;
   produces?: string;
-  access: string;
+  /** 'public', 'signed-in' or the roles (from the permission table), or a free text for routes served elsewhere */
+  access: string | readonly string[];
+  /** the API-key scope that may call this route (none: sessions only) */
+  scope?: string;
+  examples?: OpenApiExamples;
+  /** answers 304 to If-None-Match (documents the ETag header) */
+  etag?: boolean;
 };
 
 /** `/api/stock/:id/image.png` -> `/api/stock/{id}/image.png` */
@@ -26,22 +77,154 @@ export function toOpenApiPath(path: string): string {
 
 type Json = Record<string, unknown>;
 
-function jsonSchema(schema: z.ZodType, io: 'input' | 'output'): Json {
-  const out = z.toJSONSchema(schema, { io, unrepresentable: 'any', target: 'draft-2020-12' }) as Json;
-  delete out.$schema;
+const pascal = (words: string[]) => words.map((w) => w.charAt(0).toUpperCase() + w.slice(1)).join('');
+
+/** `GET /api/stock/:id/image.png` -> `getStockByIdImagePng` */
+export function operationIdOf(method: string, path: string): string {
+  const words = path
+    .replace(/^\/api\//, '')
+    .split('/')
+    .flatMap((seg) => (seg.startsWith(':') ? ['by', seg.slice(1)] : seg.split(/[^A-Za-z0-9]+/)))
+    .filter((w) => w.length > 0);
+  return method.toLowerCase() + pascal(words);
+}
+
+/** Component names for the exported contract schemas: `editionSchema` -> `Edition`. */
+function contractNames(): Map<z.ZodType, string> {
+  const names = new Map<z.ZodType, string>();
+  const taken = new Map<string, string>();
+  for (const [module, exports] of Object.entries(contractModules)) {
+    for (const [exportName, value] of Object.entries(exports)) {
+      if (!(value instanceof z.ZodType) || names.has(value)) continue;
+      let name = pascal([exportName.replace(/Schema$/, '')]);
+      if (taken.has(name)) name = pascal([module, name]);
+      taken.set(name, module);
+      names.set(value, name);
+    }
+  }
+  return names;
+}
+
+const refPrefix = '#/components/schemas/';
+const inputMark = '__input';
+
+function walk(node: unknown, visit: (obj: Json) => void) {
+  if (Array.isArray(node)) for (const n of node) walk(n, visit);
+  else if (node && typeof node === 'object') {
+    visit(node as Json);
+    for (const v of Object.values(node)) walk(v, visit);
+  }
+}
+
+/** Convert every registered schema in one mode; references between them point at components. */
+function convert(registry: z.core.$ZodRegistry<{ id: string }>, io: 'input' | 'output'): Record<string, Json> {
+  const mark = io === 'input' ? inputMark : '';
+  const { schemas } = z.toJSONSchema(registry, {
+    io,
+    target: 'draft-2020-12',
+    unrepresentable: 'any',
+    cycles: 'ref',
+    reused: 'inline',
+    uri: (id) => `${refPrefix}${id}${mark}`,
+  }) as { schemas: Record<string, Json> };
+  // a cycle through an unnamed schema lands in __shared; give those names of their own
+  const shared = (schemas.__shared?.$defs ?? {}) as Record<string, Json>;
+  delete schemas.__shared;
+  for (const [id, def] of Object.entries(shared)) schemas[`Shared${id.replace(/\W/g, '')}`] = def;
+  const text = JSON.stringify(schemas).replace(
+    new RegExp(`${refPrefix.replace(/[/#]/g, '\\$&')}__shared${mark}#/\\$defs/(\\w+)`, 'g'),
+    (_m, id: string) => `${refPrefix}Shared${id.replace(/\W/g, '')}${mark}`,
+  );
+  const out = JSON.parse(text) as Record<string, Json>;
+  for (const s of Object.values(out)) {
+    delete s.$schema;
+    delete s.$id;
+  }
   return out;
 }
 
-function parameters(schema: z.ZodType, location: 'path' | 'query'): Json[] {
-  const js = jsonSchema(schema, 'input');
-  const props = (js.properties ?? {}) as Record<string, Json>;
-  const required = new Set((js.required as string[] | undefined) ?? []);
-  return Object.entries(props).map(([name, s]) => ({
-    name,
-    in: location,
-    required: location === 'path' || required.has(name),
-    schema: s,
-  }));
+/**
+ * Merge the answer and request forms: a component whose request form equals its answer form
+ * (after its references are merged the same way) is written once; the others get `<Name>Input`.
+ */
+function mergeForms(output: Record<string, Json>, input: Record<string, Json>) {
+  const refsOf = (s: Json) => {
+    const refs = new Set<string>();
+    walk(s, (o) => {
+      if (typeof o.$ref === 'string' && o.$ref.startsWith(refPrefix)) refs.add(o.$ref.slice(refPrefix.length).replace(inputMark, ''));
+    });
+    return refs;
+  };
+  const strip = (s: Json) => JSON.stringify(s).replaceAll(inputMark, '');
+  const differs = new Set(Object.keys(input).filter((id) => !output[id] || strip(input[id]!) !== JSON.stringify(output[id])));
+  for (let grew = true; grew; ) {
+    grew = false;
+    for (const id of Object.keys(input)) {
+      if (differs.has(id)) continue;
+      if ([...refsOf(input[id]!)].some((r) => differs.has(r))) {
+        differs.add(id);
+        grew = true;
+      }
+    }
+  }
+  const rename = (s: Json) =>
+    JSON.parse(
+      JSON.stringify(s).replace(new RegExp(`"${refPrefix.replace(/[/#]/g, '\\$&')}(\\w+?)${inputMark}"`, 'g'), (_m, id: string) =>
+        differs.has(id) ? `"${refPrefix}${id}Input"` : `"${refPrefix}${id}"`,
+      ),
+    ) as Json;
+  const components: Record<string, Json> = {};
+  for (const [id, s] of Object.entries(output)) components[id] = s;
+  for (const id of differs) components[`${id}Input`] = rename(input[id]!);
+  return { components, inputVariants: new Set([...differs].map((id) => `${id}Input`)), inputName: (id: string) => (differs.has(id) ? `${id}Input` : id) };
+}
+
+const errorStatuses = {
+  400: ['BadRequest', 'The request does not read: a parameter, the query or the body fails its schema', 'bad_request', 'Invalid request', [{ path: 'body.name', message: 'Too small: expected string to have >=1 characters' }]],
+  401: ['Unauthorized', 'No session, or an API key that is unknown, expired or revoked', 'unauthorized', 'Sign in first.', undefined],
+  403: ['Forbidden', "The user's role (or the API key's scopes) may not call this route", 'forbidden', 'The printer role may not call GET /api/stock.', undefined],
+  404: ['NotFound', 'No such thing (or not visible to this user)', 'not_found', 'No edition 42.', undefined],
+  409: ['Conflict', 'The thing is not in a state that allows this (or was changed meanwhile)', 'conflict', 'The edition is published; it cannot be changed.', undefined],
+  413: ['PayloadTooLarge', 'The body or the uploaded file is too large', 'payload_too_large', 'The request body is larger than 1 MB.', undefined],
+  422: ['Unprocessable', 'The request reads but its content is wrong; details say where', 'unprocessable', 'The tiling does not verify.', [{ path: 'body.code', message: 'Square 3 overlaps square 5.' }]],
+  429: ['TooManyRequests', 'Too many requests (per API key, or sign-in attempts per address); see Retry-After', 'rate_limited', 'Too many requests for this API key; try again in 30 s.', undefined],
+} as const;
+
+function errorResponses(): Record<string, Json> {
+  const out: Record<string, Json> = {};
+  for (const [, [name, description, code, message, details]] of Object.entries(errorStatuses)) {
+    out[name] = {
+      description,
+      ...(name === 'TooManyRequests' ? { headers: { 'Retry-After': { description: 'seconds to wait', schema: { type: 'integer' } } } } : {}),
+      content: {
+        'application/json': {
+          schema: { $ref: `${refPrefix}Error` },
+          example: { error: { code, message, ...(details ? { details } : {}) } },
+        },
+      },
+    };
+  }
+  return out;
+}
+
+function errorsFor(r: OpenApiRoute): number[] {
+  const codes: number[] = [];
+  const write = r.method !== 'GET';
+  if (r.params || r.query || r.body || r.access === 'public (better-auth)') codes.push(400);
+  if (r.access !== 'public' && r.access !== 'public (better-auth)') codes.push(401, 403);
+  if (r.params) codes.push(404);
+  if (write) codes.push(409);
+  if (r.body) codes.push(413);
+  if (write) codes.push(422);
+  codes.push(429);
+  return codes;
+}
+
+function accessText(access: OpenApiRoute['access']): string {
+  if (typeof access !== 'string') return `roles: ${access.join(', ')}${access.includes('editor') && !access.includes('admin') ? ' (and admin)' : ''}`;
+  if (access === 'public') return 'public (no sign-in)';
+  if (access === 'signed-in') return 'any signed-in user';
+  return access;
 }
 
 export class OpenApiCollector {
@@ -52,36 +235,152 @@ export class OpenApiCollector {
   }
 
   document(version: string) {
-    const paths: Record<string, Record<string, Json>> = {};
-    const errorResponse = { description: 'Error', content: { 'application/json': { schema: jsonSchema(errorBodySchema, 'output') } } };
-    for (const r of this.routes) {
-      const status = String(r.status ?? 200);
-      const success = r.response
-        ? { description: 'OK', content: { 'application/json': { schema: jsonSchema(r.response, 'output') } } }
-        : r.produces
-          ? { description: 'OK', content: { [r.produces]: { schema: { type: 'string', format: 'binary' } } } }
-          : { description: 'OK' };
-      const op: Json = {
-        summary: r.summary,
-        description: `Access: ${r.access}`,
-        tags: r.tags ?? [r.path.split('/')[2] ?? 'api'],
-        parameters: [...(r.params ? parameters(r.params, 'path') : []), ...(r.query ? parameters(r.query, 'query') : [])],
-        responses: { [status]: success, 400: errorResponse, 401: errorResponse, 403: errorResponse, 404: errorResponse },
+    const names = contractNames();
+    const registry = z.registry<{ id: string }>();
+    const used = new Set<string>();
+    const idOf = (schema: z.ZodType, fallback: string): string => {
+      const existing = registry.get(schema)?.id;
+      if (existing) return existing;
+      let id = names.get(schema) ?? fallback;
+      while (used.has(id)) id = `${id}_`;
+      used.add(id);
+      registry.add(schema, { id });
+      return id;
+    };
+    // register every contract schema first, so nested ones keep their names
+    for (const [schema, name] of names) {
+      used.add(name);
+      registry.add(schema, { id: name });
+    }
+    idOf(commonContracts.errorBodySchema, 'Error');
+
+    const plan = this.routes.map((r) => {
+      const op = pascal([operationIdOf(r.method, r.path)]);
+      return {
+        r,
+        operationId: operationIdOf(r.method, r.path),
+        body: r.body && r.bodyType !== 'multipart' ? idOf(r.body, `${op}Body`) : undefined,
+        response: r.response ? idOf(r.response, `${op}Response`) : undefined,
       };
+    });
+
+    const output = convert(registry, 'output');
+    const input = convert(registry, 'input');
+    const { components, inputVariants, inputName } = mergeForms(output, input);
+    // the error body names the codes it may carry
+    components.Error = z.toJSONSchema(
+      z.object({ error: z.object({ code: commonContracts.errorCodeSchema, message: z.string(), details: z.unknown().optional() }) }).meta({
+        description: 'Every error answer: what went wrong (code), in words (message), and where (details, e.g. [{ path: "body.email", message }])',
+      }),
+      { target: 'draft-2020-12' },
+    ) as Json;
+    delete components.Error.$schema;
+
+    const inline = (schema: z.ZodType): Json => {
+      const js = z.toJSONSchema(schema, { io: 'input', unrepresentable: 'any', target: 'draft-2020-12', metadata: z.registry() }) as Json;
+      delete js.$schema;
+      return js;
+    };
+    const parameters = (schema: z.ZodType, location: 'path' | 'query'): Json[] => {
+      const js = inline(schema);
+      const props = (js.properties ?? {}) as Record<string, Json>;
+      const required = new Set((js.required as string[] | undefined) ?? []);
+      return Object.entries(props).map(([name, s]) => ({
+        name,
+        in: location,
+        required: location === 'path' || required.has(name),
+        ...(typeof s.description === 'string' ? { description: s.description } : {}),
+        schema: s,
+      }));
+    };
+
+    const paths: Record<string, Record<string, Json>> = {};
+    for (const { r, operationId, body, response } of plan) {
+      const status = String(r.status ?? 200);
+      const headers = r.etag ? { ETag: { description: 'version of this answer; send it back in If-None-Match', schema: { type: 'string' } } } : undefined;
+      const success: Json = response
+        ? {
+            description: 'OK',
+            ...(headers ? { headers } : {}),
+            content: { 'application/json': { schema: { $ref: `${refPrefix}${response}` }, ...(r.examples?.response !== undefined ? { example: r.examples.response } : {}) } },
+          }
+        : r.produces
+          ? { description: 'OK', content: { [r.produces]: { schema: { type: 'string', contentMediaType: r.produces } } } }
+          : { description: status === '204' ? 'Done (no content)' : 'OK' };
+      const responses: Json = { [status]: success };
+      if (r.etag) responses['304'] = { description: 'Not modified: the If-None-Match ETag is still current' };
+      for (const code of errorsFor(r)) responses[String(code)] = { $ref: `#/components/responses/${errorStatuses[code as keyof typeof errorStatuses][0]}` };
+      const isPublic = r.access === 'public' || r.access === 'public (better-auth)';
+      const op: Json = {
+        operationId,
+        summary: r.summary,
+        description: `Access: ${accessText(r.access)}.${r.scope ? ` API key scope: \`${r.scope}\`.` : isPublic ? '' : ' Not open to API keys.'}`,
+        tags: r.tags ?? [r.path.split('/')[2] ?? 'api'],
+        security: isPublic ? [] : [{ session: [] }, ...(r.scope ? [{ apiKey: [r.scope] }] : [])],
+        parameters: [...(r.params ? parameters(r.params, 'path') : []), ...(r.query ? parameters(r.query, 'query') : [])],
+        responses,
+      };
+      if (r.etag) (op.parameters as Json[]).push({ name: 'If-None-Match', in: 'header', required: false, description: 'the ETag of an answer you hold', schema: { type: 'string' } });
       if (r.body) {
-        op.requestBody = {
-          required: true,
-          content: { [r.bodyType === 'multipart' ? 'multipart/form-data' : 'application/json']: { schema: jsonSchema(r.body, 'input') } },
-        };
+        const content: Json =
+          r.bodyType === 'multipart'
+            ? { 'multipart/form-data': { schema: inline(r.body) } }
+            : { 'application/json': { schema: { $ref: `${refPrefix}${inputName(body!)}` }, ...(r.examples?.request !== undefined ? { example: r.examples.request } : {}) } };
+        op.requestBody = { required: true, content };
       }
       const p = toOpenApiPath(r.path);
       paths[p] = { ...paths[p], [r.method.toLowerCase()]: op };
     }
+
+    // keep the components the paths reach
+    const reached = new Set<string>();
+    const queue: unknown[] = [paths, components.Error];
+    reached.add('Error');
+    while (queue.length > 0) {
+      walk(queue.pop(), (o) => {
+        if (typeof o.$ref !== 'string' || !o.$ref.startsWith(refPrefix)) return;
+        const id = o.$ref.slice(refPrefix.length);
+        if (reached.has(id)) return;
+        reached.add(id);
+        queue.push(components[id]);
+      });
+    }
+    // a request form whose answer form no route uses keeps the plain name
+    const renamed = new Map<string, string>();
+    for (const id of reached) {
+      const base = id.slice(0, -'Input'.length);
+      if (inputVariants.has(id) && !reached.has(base)) renamed.set(id, base);
+    }
+    const renameRefs = <T>(value: T): T =>
+      renamed.size === 0
+        ? value
+        : (JSON.parse(JSON.stringify(value).replace(/"#\/components\/schemas\/(\w+)"/g, (m, id: string) => (renamed.has(id) ? `"${refPrefix}${renamed.get(id)}"` : m))) as T);
+    const schemas: Record<string, Json> = {};
+    for (const id of [...reached].sort()) {
+      if (!components[id]) throw new Error(`OpenAPI: $ref to a missing component ${id}`);
+      schemas[renamed.get(id) ?? id] = renameRefs(components[id]);
+    }
+    const finalPaths = renameRefs(paths);
+
     return {
       openapi: '3.1.0',
-      info: { title: 'Squarewright API', version, description: 'REST under /api, JSON, zod-validated both ways.' },
+      info: {
+        title: 'Squarewright API',
+        version,
+        description:
+          'REST under /api, JSON, checked both ways against zod schemas. Sign in through /api/auth (a session cookie), or send an API key as `Authorization: Bearer <key>` (keys are made on the API keys page; each carries scopes). Errors always answer `{ "error": { "code", "message", "details" } }`.',
+      },
       servers: [{ url: '/' }],
-      paths,
+      tags: [...new Set(this.routes.flatMap((r) => r.tags ?? [r.path.split('/')[2] ?? 'api']))].sort().map((name) => ({ name })),
+      paths: finalPaths,
+      components: {
+        schemas,
+        responses: errorResponses(),
+        securitySchemes: {
+          session: { type: 'apiKey', in: 'cookie', name: 'better-auth.session_token', description: 'the session cookie set by POST /api/auth/sign-in/email' },
+          apiKey: { type: 'http', scheme: 'bearer', description: 'an API key (`sqw_...`) with the scopes the route names' },
+        },
+      },
     };
   }
 }

@@ -3,12 +3,14 @@ import { Router, type NextFunction, type Request, type RequestHandler, type Resp
 import { z } from 'zod';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import { roleSchema, type Role } from '../../../shared/contracts/common';
+import { bearerKey, callerOfKey } from '../auth/api-key-caller';
+import { apiKeyScopeOfRoute } from '../auth/api-key-scopes';
 import { isAllowed, permissions, type Access } from '../auth/permissions';
 import { readSessionFast } from '../auth/session-reader';
 import type { PlatformDeps } from '../deps';
 import multer from 'multer';
 import { BadRequest, Forbidden, HttpError, PayloadTooLarge, Unauthorized } from './errors';
-import { OpenApiCollector } from './openapi';
+import { OpenApiCollector, type OpenApiExamples } from './openapi';
 import { allowFraming } from './security-headers';
 
 // THE way to add an API route. It reads the session, enforces the permission table,
@@ -50,6 +52,10 @@ export type RouteSpec<
   middleware?: RequestHandler[];
   /** documentation: body is multipart (set by upload routes) */
   bodyType?: 'json' | 'multipart';
+  /** documentation: an example request body and answer (checked against the schemas in tests) */
+  examples?: OpenApiExamples;
+  /** documentation: the answer carries an ETag and may be 304 (the handler does it) */
+  etag?: boolean;
   /**
    * largest request body accepted, in bytes (default JSON_BODY_LIMIT_BYTES): a larger
    * Content-Length is refused with 413 before anything is read. Upload routes set theirs.
@@ -141,7 +147,10 @@ export function route<
     method: spec.method,
     path: spec.path,
     summary: spec.summary,
-    access: typeof access === 'string' ? access : access.join(', '),
+    access,
+    ...(apiKeyScopeOfRoute[key] ? { scope: apiKeyScopeOfRoute[key] } : {}),
+    ...(spec.examples ? { examples: spec.examples } : {}),
+    ...(spec.etag ? { etag: true } : {}),
     ...(spec.tags ? { tags: spec.tags } : {}),
     ...(spec.params ? { params: spec.params } : {}),
     ...(spec.query ? { query: spec.query } : {}),
@@ -165,7 +174,18 @@ export function route<
       }
       // our pages show our PDFs in an <iframe>: those (only) may be framed by our own origin
       if (isPdf) allowFraming(res, ["'self'"]);
-      const user = access === 'public' ? await readSessionUser(deps, req, res).catch(() => null) : await readSessionUser(deps, req, res);
+      // a machine: `Authorization: Bearer <key>` is the only credential read (never the cookie
+      // beside it); the key's owner passes the same permission table, within the key's scopes
+      const bearer = access === 'public' ? null : bearerKey(req);
+      if (bearer !== null) {
+        const caller = await callerOfKey(deps.auth, deps.db, bearer, res);
+        const scope = apiKeyScopeOfRoute[key];
+        if (!scope || !caller.scopes.includes(scope)) {
+          throw new Forbidden(scope ? `This API key lacks the scope ${scope} that ${key} needs.` : `${key} cannot be called with an API key.`, [{ path: 'headers.authorization', message: scope ? `needs scope ${scope}` : 'sessions only' }]);
+        }
+        req.user = caller.user;
+      }
+      const user = bearer !== null ? (req.user ?? null) : access === 'public' ? await readSessionUser(deps, req, res).catch(() => null) : await readSessionUser(deps, req, res);
       if (user) req.user = user;
       if (!isAllowed(access, (user?.role ?? null) as Role | null)) {
         throw user ? new Forbidden(`The ${user.role} role may not call ${key}.`) : new Unauthorized();

@@ -88,6 +88,8 @@ export type CreateTestAppOptions = {
   signInLimit?: { window: number; max: number };
   /** outbox retry settings */
   mail?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number };
+  /** webhook outbox settings (retry delays, attempts, timeout); the sender is not started: call t.deps.webhooks.flush() */
+  webhooks?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number; timeoutMs?: number };
 };
 
 /**
@@ -128,6 +130,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     clock,
     signInLimit: options.signInLimit ?? { window: 60, max: 1000 },
     ...(options.mail ? { mail: options.mail } : {}),
+    ...(options.webhooks ? { webhooks: options.webhooks } : {}),
   });
   // The sender loop is not started: waitFor() delivers the outbox itself.
   deps.mail.kick = () => undefined;
