@@ -22,6 +22,15 @@ export default defineConfig(({ isSsrBuild }) => ({
           output: { entryFileNames: '[name].js', format: 'es' },
         },
       }
-    : { outDir: 'dist/client', emptyOutDir: true },
+    : {
+        outDir: 'dist/client',
+        emptyOutDir: true,
+        // the readers' pages are server-rendered and load their own small entries (not the
+        // staff app): the server finds the built files in .vite/manifest.json (server/areas/reader/page-assets.ts)
+        manifest: true,
+        rollupOptions: {
+          input: { index: 'index.html', 'reader-play': 'src/reader/main.tsx', 'reader-embed': 'src/reader/embed-height.ts', reader: 'src/reader/reader.css' },
+        },
+      },
   ssr: { noExternal: [] },
 }));

@@ -8,6 +8,7 @@ import { registerMailboxRoutes } from './areas/mailbox/index';
 import { registerMoneyRoutes } from './areas/payouts/index';
 import { registerTemplateRoutes } from './areas/print/index';
 import { registerPuzzleRoutes } from './areas/puzzles/index';
+import { registerReaderPages, registerReaderRoutes } from './areas/reader/index';
 import { registerStockRoutes } from './areas/stock/index';
 import type { ApiRouter } from './platform/http/route';
 import { registerSystemRoutes } from './platform/http/system-routes';
@@ -27,4 +28,7 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerPublicationRoutes,
   registerEditionRoutes,
   registerIntegrationRoutes,
+  registerReaderRoutes,
+  // the readers' HTML pages (/read, /embed): not API routes, registered on the same router
+  registerReaderPages,
 ];

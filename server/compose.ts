@@ -8,6 +8,7 @@ import { createWebhookSender, type WebhookSenderOptions } from './areas/integrat
 import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
 import { foundryRunSink } from './areas/foundry/index';
 import { createPuzzleSource, createStockUsage, puzzleProofSink } from './areas/puzzles/index';
+import { publishedContent } from './areas/reader/index';
 import { stockPort } from './areas/stock/index';
 import { jobKindNames } from './job-kinds';
 import { createJobs } from './platform/jobs/runtime';
@@ -78,6 +79,7 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     webhooks,
     // the local webhook receiver answers in development, demo and tests
     localReceiver: input.demo || input.env.NODE_ENV !== 'production',
+    publishedContent,
     payments: paymentsProviderFromEnv(input.env),
   };
 }

@@ -4,6 +4,7 @@ import { seedDemoFoundry } from './areas/foundry/index';
 import { seedDemoStock } from './areas/intake/index';
 import { seedDemoPayouts } from './areas/payouts/index';
 import { seedDemoPuzzles } from './areas/puzzles/index';
+import { seedDemoSolves } from './areas/reader/index';
 
 // Demo seeders of each area, run in this order on a new database in demo mode, after the
 // four demo accounts exist (find them by e-mail in demoAccounts, server/areas/accounts/demo-accounts.ts).
@@ -18,6 +19,8 @@ export const seeders: DemoSeeder[] = [
   { name: 'puzzles', seed: seedDemoPuzzles },
   // editions after the puzzles seeder (it drives the proof round with printable puzzles)
   { name: 'editions', seed: seedDemoEditions },
+  // readers' solves of the published demo editions (generated, marked demo)
+  { name: 'reader', seed: seedDemoSolves },
   // keep payouts last: it pays what earlier seeders' published editions earned
   { name: 'payouts', seed: seedDemoPayouts },
 ];

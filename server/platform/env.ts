@@ -40,6 +40,8 @@ export const envSchema = z.object({
   SIGN_IN_LIMIT_PER_MINUTE: z.preprocess(emptyToUndefined, z.coerce.number().int().min(1).max(100_000).default(10)),
   /** requests one API key may make per minute (more get 429) */
   API_KEY_RATE_PER_MINUTE: z.preprocess(emptyToUndefined, z.coerce.number().int().min(1).max(100_000).default(600)),
+  /** readers' checks and reveals allowed per minute from one address on the public puzzle pages (more get 429) */
+  READER_CHECKS_PER_MINUTE: z.preprocess(emptyToUndefined, z.coerce.number().int().min(1).max(100_000).default(30)),
   /** payments: the provider's secret key; unset = the local fake provider (server/areas/payouts/fake-provider.ts) */
   PAYMENTS_SECRET_KEY: z.preprocess(emptyToUndefined, z.string().regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]+$/, 'must be a provider secret key (sk_test_..., sk_live_... or rk_...)').optional()),
   /** payments: the webhook signing secret (whsec_...); required with PAYMENTS_SECRET_KEY, set by the local fake otherwise */

@@ -66,11 +66,15 @@ export function gradeFeatures(run: DeductionRun, level: Level | null, givens: nu
  * our starting point (common practice for graded logic puzzles), to be calibrated by play tests.
  */
 export function gradeFromFeatures(f: GradeFeatures): number {
+  return Math.min(5, Math.max(1, 1 + Math.floor(gradePoints(f))));
+}
+
+/** The points of the formula above, before they are cut into grades (the grade calibration reads them). */
+export function gradePoints(f: GradeFeatures): number {
   const k = f.levelNeeded === null ? Number.POSITIVE_INFINITY : levelValue(f.levelNeeded);
   const levelPoints = k <= 2 ? 0 : k === 3 ? 1 : k === 4 ? 2 : 3;
   const roundPoints = f.rounds <= 5 ? 0 : f.rounds <= 9 ? 0.5 : f.rounds <= 13 ? 1 : 1.5;
   const bottleneckPoints = f.singleRounds >= 3 ? 0.5 : 0;
   const framePoints = f.showFrame ? 0 : 0.5;
-  const points = levelPoints + roundPoints + bottleneckPoints + framePoints;
-  return Math.min(5, Math.max(1, 1 + Math.floor(points)));
+  return levelPoints + roundPoints + bottleneckPoints + framePoints;
 }

@@ -27,8 +27,8 @@ export type { DeductionBoard, DeductionRules, DeductionRun, DeductionStep, StepT
 /** proveUniqueByRank: rank of the Kirchhoff system with the givens fixed (by the tiling engine's bareissRank) = unknowns; kirchhoffSystem: that system. */
 export { proveUniqueByRank, kirchhoffSystem } from './deduction-rank';
 export type { LinearSystem, UniquenessProof } from './deduction-rank';
-/** gradeFromFeatures (1..5, formula in docs/decisions/020), gradeFeatures, levelNeeded; levelValue / levelName convert 'closure' <-> Infinity. */
-export { gradeFromFeatures, gradeFeatures, levelNeeded, levelValue, levelName } from './deduction-grade';
+/** gradeFromFeatures (1..5, formula in docs/decisions/020) and gradePoints (its points before the cut), gradeFeatures, levelNeeded; levelValue / levelName convert 'closure' <-> Infinity. */
+export { gradeFromFeatures, gradePoints, gradeFeatures, levelNeeded, levelValue, levelName } from './deduction-grade';
 export type { GradeFeatures, Level } from './deduction-grade';
 /** WeightedUnionFind: knowledge of segment coordinates as relative offsets. */
 export { WeightedUnionFind } from './deduction-knowledge';

@@ -3,3 +3,6 @@
 export { registerPuzzleRoutes } from './routes';
 export { seedDemoPuzzles } from './demo-seed';
 export { createPuzzleSource, createStockUsage, puzzleProofSink } from './puzzles';
+// read-only joins for the reader area (grade calibration): the table and the level column's reader
+export { puzzle } from './schema';
+export { levelOf } from './stored';

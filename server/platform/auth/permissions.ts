@@ -80,6 +80,20 @@ export const permissions: Record<string, Access> = {
   'PATCH /api/publications/:id': ['admin'],
   'GET /api/templates': ['editor'],
   'GET /api/templates/:id/sample.pdf': ['editor'],
+  // reader edition: public pages' data, checks and anonymous solve events (no session); the
+  // editor's solve statistics, calibration and shown grades; the admin's reader settings
+  'GET /api/reader/public/:slug': 'public',
+  'GET /api/reader/public/:slug/:number': 'public',
+  'GET /api/reader/public/:slug/:number/:position': 'public',
+  'POST /api/reader/public/:slug/:number/:position/check': 'public',
+  'POST /api/reader/public/:slug/:number/:position/events': 'public',
+  'POST /api/reader/public/:slug/:number/:position/reveal': 'public',
+  'GET /api/reader/calibration': ['editor'],
+  'GET /api/reader/puzzles/:id/grade': ['editor'],
+  'PUT /api/reader/puzzles/:id/grade': ['editor'],
+  'GET /api/reader/settings': ['editor'],
+  'PUT /api/reader/settings/:id': ['admin'],
+  'GET /api/reader/stats': ['editor'],
   // integrations: API keys (editors their own, admins all), webhooks (admins), the feed
   'GET /api/api-keys': ['editor'],
   'POST /api/api-keys': ['editor'],
