@@ -1,6 +1,6 @@
 import type { Express } from 'express';
 import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import { isAbsolute, join, resolve } from 'node:path';
 import { appRoot } from './platform/app-root';
@@ -16,6 +16,8 @@ import { createLogger } from './platform/log';
 import { startFakeSmtp } from './platform/mail/fake-smtp';
 import { loadMailTemplates } from './platform/mail/templates';
 import { localFakes } from './local-fakes';
+import { InstanceLockError, lockDataDir } from './platform/instance-lock';
+import { redactUrl } from './platform/jobs/runtime';
 import type { LocalFakeHandle } from './platform/local-fake';
 
 // Start-up shared by server/index.ts (production) and server/dev.ts (Vite middleware).
@@ -46,11 +48,22 @@ export type StartOptions = {
 
 export async function startServer(options: StartOptions = {}) {
   const t0 = Date.now();
-  const source = options.source ?? process.env;
-  let env = loadEnv(source);
+  const env = loadEnv(options.source ?? process.env);
   const log = createLogger(env.LOG_LEVEL);
   const dataDir = resolveDataDir(env);
-  mkdirSync(dataDir, { recursive: true });
+  // one server per data folder: refuse before touching anything in it (decision 032)
+  const lock = lockDataDir(dataDir);
+  try {
+    return await startLocked(options, env, log, dataDir, lock.release, t0);
+  } catch (err) {
+    lock.release();
+    throw err;
+  }
+}
+
+async function startLocked(options: StartOptions, envIn: Env, log: ReturnType<typeof createLogger>, dataDir: string, releaseLock: () => void, t0: number) {
+  let env = envIn;
+  const source = options.source ?? process.env;
   const dbFile = join(dataDir, 'squarewright.db');
   const isNew = !existsSync(dbFile);
   const secret = resolveAuthSecret(env, dataDir);
@@ -94,6 +107,7 @@ export async function startServer(options: StartOptions = {}) {
       httpServer.listen(env.PORT, env.HOST, () => resolveListen());
     });
   } catch (err) {
+    await deps.jobs.close();
     await deps.mail.stop();
     await deps.webhooks.stop();
     for (const stop of stops.reverse()) await stop().catch(() => undefined);
@@ -109,6 +123,7 @@ export async function startServer(options: StartOptions = {}) {
     `Squarewright ${isNew ? '(new database) ' : ''}is running at ${env.PUBLIC_URL}  (listening on ${env.HOST}:${env.PORT}, ${Date.now() - t0} ms)`,
     `  data: ${dbFile}`,
     `  mail: ${smtp.localFake ? `local fake SMTP at ${smtp.url} (read it in Mailbox (local), signed in as admin)` : 'SMTP_URL'}`,
+    `  jobs: ${env.REDIS_URL ? `BullMQ on ${redactUrl(env.REDIS_URL)} (workers: npm run worker${env.JOB_WORKERS ? `; ${env.JOB_WORKERS} thread(s) here too` : ''})` : `${env.JOB_WORKERS ?? 1} worker thread(s) in this process`}`,
     ...started.map((s) => `  ${s.name}: local fake at ${s.handle.url}`),
   ];
   if (demo) {
@@ -124,10 +139,12 @@ export async function startServer(options: StartOptions = {}) {
         httpServer.close(() => r());
         httpServer.closeAllConnections();
       });
+      await deps.jobs.close();
       await deps.mail.stop();
       await deps.webhooks.stop();
       for (const stop of stops.reverse()) await stop().catch(() => undefined);
       closeDatabase(db);
+      releaseLock();
     })());
   return { app, deps, httpServer, close, env };
 }
@@ -142,7 +159,7 @@ export function exitOnSignals(close: () => Promise<void>) {
 
 /** What to print when start-up fails: the message for the errors we explain, else everything. */
 export function startupErrorText(err: unknown): unknown {
-  if (err instanceof EnvError) return err.message;
+  if (err instanceof EnvError || err instanceof InstanceLockError) return err.message;
   if (err instanceof Error && (err.cause as { code?: unknown } | undefined)?.code === 'EADDRINUSE') return err.message;
   return err;
 }
