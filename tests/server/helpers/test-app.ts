@@ -9,7 +9,7 @@ import type TestAgent from 'supertest/lib/agent';
 import type { Role } from '../../../shared/contracts/common';
 import { createApp } from '../../../server/app';
 import type { Clock } from '../../../server/platform/clock';
-import { buildDeps } from '../../../server/compose';
+import { buildDeps, createAppJobs } from '../../../server/compose';
 import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
 import { user } from '../../../server/platform/auth/schema';
 import { mailboxMessage } from '../../../server/platform/mail/schema';
@@ -76,6 +76,8 @@ export type TestApp = {
   signInAs(role: Role, options?: { email?: string; name?: string }): Promise<TestAgent>;
   /** create a user directly (no sign-in); returns its id */
   createUser(role: Role, options?: { email?: string; name?: string; password?: string }): Promise<string>;
+  /** stop the job system as a server stop would, and start a new one on the same database (t.deps.jobs is the new one) */
+  restartJobs(): Promise<void>;
   close(): Promise<void>;
 };
 
@@ -201,7 +203,12 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     smtp,
     signInAs,
     createUser,
+    async restartJobs() {
+      await deps.jobs.close();
+      deps.jobs = createAppJobs({ db, env });
+    },
     async close() {
+      await deps.jobs.close();
       await deps.mail.stop();
       await smtp.close();
       closeDatabase(db);
