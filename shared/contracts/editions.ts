@@ -28,9 +28,27 @@ export const richTextNodeSchema: z.ZodType<RichTextNode> = z.lazy(() =>
   }),
 );
 
+/** Nodes nested deeper than this (doc > list > item > list > ... > text) are refused with 422. */
+export const MAX_RICH_TEXT_DEPTH = 16;
+
+/** The path of the first node nested deeper than MAX_RICH_TEXT_DEPTH (iterative), or null. */
+export function richTextTooDeep(doc: RichTextNode): (string | number)[] | null {
+  const stack: { node: RichTextNode; depth: number; path: (string | number)[] }[] = [{ node: doc, depth: 1, path: [] }];
+  for (let e = stack.pop(); e !== undefined; e = stack.pop()) {
+    if (e.depth > MAX_RICH_TEXT_DEPTH) return e.path;
+    (e.node.content ?? []).forEach((child, i) => stack.push({ node: child, depth: e.depth + 1, path: [...e.path, 'content', i] }));
+  }
+  return null;
+}
+
 export const richTextDocSchema = z
   .object({ type: z.literal('doc', { error: 'a rich text document starts with type "doc"' }), content: z.array(richTextNodeSchema).max(2000).default([]) })
-  .refine((d) => JSON.stringify(d).length <= 100_000, 'rich text may be at most 100 000 characters of JSON');
+  .refine((d) => JSON.stringify(d).length <= 100_000, 'rich text may be at most 100 000 characters of JSON')
+  // too deep is well-formed but more than the editor and the print layout hold: 422 (params.status)
+  .superRefine((d, ctx) => {
+    const at = richTextTooDeep(d);
+    if (at) ctx.addIssue({ code: 'custom', path: at, params: { status: 422 }, message: `rich text may nest at most ${MAX_RICH_TEXT_DEPTH} levels (lists within lists)` });
+  });
 export type RichTextDoc = z.infer<typeof richTextDocSchema>;
 
 export const emptyRichText = (): RichTextDoc => ({ type: 'doc', content: [] });
@@ -67,7 +85,13 @@ export const editionStateLabels: Record<EditionState, string> = {
 export const editionDateSchema = z
   .string({ error: 'date must be a string YYYY-MM-DD' })
   .regex(/^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, 'date must be YYYY-MM-DD')
-  .refine((v) => new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), 'date does not exist in the calendar');
+  // zod runs this check even when the pattern failed: only a YYYY-MM-DD string is a candidate
+  // (new Date('xT00:00:00Z').toISOString() throws a RangeError)
+  .refine((v) => {
+    if (!/^\d{4}-\d{2}-\d{2}$/.test(v)) return true;
+    const d = new Date(`${v}T00:00:00Z`);
+    return !Number.isNaN(d.getTime()) && d.toISOString().startsWith(v);
+  }, 'date does not exist in the calendar');
 
 export const MAX_SLOTS = 60;
 

@@ -1,4 +1,5 @@
 import { useEffect, type ReactNode } from 'react';
+import { PanelBoundary } from './panel-boundary';
 
 /** Names the browser tab after the page: "Stock · Squarewright". */
 export function useDocumentTitle(title: string) {
@@ -27,13 +28,16 @@ export function Page({ title, description, actions, children }: { title: string;
   );
 }
 
-/** A white card with an optional heading, for grouping content on a page. */
+/** A white card with an optional heading, for grouping content on a page; an error boundary of its own (PanelBoundary). */
 export function Card({ title, children, footer, className = '' }: { title?: ReactNode; children?: ReactNode; footer?: ReactNode; className?: string }) {
   return (
     <section className={`flex flex-col gap-3 rounded-lg border border-rule bg-surface p-5 shadow-[0_1px_0_rgba(31,35,40,0.04)] ${className}`}>
       {title ? <h2 className="text-base font-semibold text-ink">{title}</h2> : null}
-      {children}
-      {footer ? <div className="mt-auto pt-2">{footer}</div> : null}
+      {/* each card is a panel: what fails to draw inside it stays inside it */}
+      <PanelBoundary label={title}>
+        {children}
+        {footer ? <div className="mt-auto pt-2">{footer}</div> : null}
+      </PanelBoundary>
     </section>
   );
 }

@@ -94,6 +94,11 @@ export async function acceptInvitation(deps: PlatformDeps, token: string, input:
     userId = created.user.id;
   } catch (err) {
     deps.db.update(invitation).set({ acceptedAt: null }).where(eq(invitation.id, row.id)).run();
+    // two invitations for one e-mail accepted at once: the other made the account between our
+    // check and our insert (a UNIQUE constraint inside better-auth): the same 409 as above
+    if (deps.db.select({ id: user.id }).from(user).where(eq(user.email, row.email)).get()) {
+      throw new Conflict(`There is already a user with the e-mail ${row.email}: this invitation was already used.`);
+    }
     throw err;
   }
   deps.db.update(invitation).set({ acceptedUserId: userId }).where(eq(invitation.id, row.id)).run();

@@ -11,6 +11,7 @@ import type { PlatformDeps } from '../deps';
 import multer from 'multer';
 import { BadRequest, Forbidden, HttpError, PayloadTooLarge, Unauthorized } from './errors';
 import { OpenApiCollector, type OpenApiExamples } from './openapi';
+import { assertRichTextFitsEditor } from './rich-text';
 import { allowFraming } from './security-headers';
 
 // THE way to add an API route. It reads the session, enforces the permission table,
@@ -201,6 +202,7 @@ export function route<
       const params = spec.params ? parsePart(spec.params, req.params, 'params') : undefined;
       const query = spec.query ? parsePart(spec.query, req.query, 'query') : undefined;
       const body = spec.body ? parsePart(spec.body, req.body ?? {}, 'body') : undefined;
+      if (spec.body) assertRichTextFitsEditor(body);
       const maybeUser = req.user ?? null;
       const ctx: RouteContext<Infer<P>, Infer<Q>, Infer<B>> = {
         req,

@@ -1,23 +1,15 @@
 import { EditorContent, useEditor, useEditorState } from '@tiptap/react';
-import StarterKit from '@tiptap/starter-kit';
-import { useId } from 'react';
-import { richTextDocSchema, type RichTextDoc } from '../../../../shared/contracts/editions';
+import { useId, useMemo } from 'react';
+import { plainRichText, richTextDocSchema, richTextToPlain, type RichTextDoc } from '../../../../shared/contracts/editions';
+import { richTextExtensions, richTextProblems } from '../../../../shared/rich-text/editor-schema';
+import { Alert } from '../../../components/alert';
+import { buttonClasses } from '../../../components/button';
+import { PanelBoundary } from '../../../components/panel-boundary';
 
 // A small tiptap editor limited to what the print layout renders: paragraphs, headings,
-// bullet and numbered lists, bold and italic. Output is tiptap JSON (stored as is).
-
-const extensions = [
-  StarterKit.configure({
-    blockquote: false,
-    code: false,
-    codeBlock: false,
-    horizontalRule: false,
-    strike: false,
-    underline: false,
-    link: false,
-    heading: { levels: [2, 3] },
-  }),
-];
+// bullet and numbered lists, bold and italic. Output is tiptap JSON (stored as is). Its
+// extensions are the ones the server checks every stored document against
+// (shared/rich-text/editor-schema.ts).
 
 function ToolButton({ label, active, onClick }: { label: string; active: boolean; onClick: () => void }) {
   return (
@@ -32,10 +24,42 @@ function ToolButton({ label, active, onClick }: { label: string; active: boolean
   );
 }
 
-export function RichTextEditor({ label, value, onChange, disabled = false }: { label: string; value: RichTextDoc; onChange: (doc: RichTextDoc) => void; disabled?: boolean }) {
+type EditorProps = { label: string; value: RichTextDoc; onChange: (doc: RichTextDoc) => void; disabled?: boolean };
+
+/**
+ * The editor, or (for a stored document the editor's schema does not allow, e.g. one written
+ * before the server checked) its words and a way to start again from them; never a crash.
+ */
+export function RichTextEditor(props: EditorProps) {
+  const problems = useMemo(() => richTextProblems(props.value, 'text'), [props.value]);
+  if (problems.length > 0) {
+    const words = richTextToPlain(props.value).split('\n').filter((line) => line.trim() !== '');
+    return (
+      <div className="flex flex-col gap-2">
+        <span className="text-sm font-semibold text-ink">{props.label}</span>
+        <Alert tone="warning" title="The editor cannot open this text as it is stored">
+          <p>{problems[0]?.message}</p>
+          {words.length > 0 ? <p className="mt-1 whitespace-pre-line font-serif">{words.join('\n')}</p> : null}
+        </Alert>
+        {props.disabled ? null : (
+          <button type="button" className={buttonClasses('secondary', 'sm')} onClick={() => props.onChange(plainRichText(...words))}>
+            Start again from its words
+          </button>
+        )}
+      </div>
+    );
+  }
+  return (
+    <PanelBoundary label={props.label}>
+      <TiptapEditor {...props} />
+    </PanelBoundary>
+  );
+}
+
+function TiptapEditor({ label, value, onChange, disabled = false }: EditorProps) {
   const labelId = useId();
   const editor = useEditor({
-    extensions,
+    extensions: richTextExtensions,
     content: value,
     editable: !disabled,
     immediatelyRender: true,
