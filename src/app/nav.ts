@@ -14,6 +14,7 @@ const editorNav: readonly NavItem[] = [
   { label: 'Editions', to: '/editions' },
   { label: 'Foundry', to: '/foundry' },
   { label: 'Payouts', to: '/payouts' },
+  { label: 'Readers', to: '/readers' },
 ];
 
 /**
@@ -36,6 +37,7 @@ export const navByRole: Record<Role, readonly NavItem[]> = {
     ...editorNav,
     { label: 'Users', to: '/admin/users' },
     { label: 'Publications', to: '/admin/publications' },
+    { label: 'Reader edition', to: '/admin/reader' },
     { label: 'Templates', to: '/admin/templates' },
     { label: 'Mailbox (local)', to: '/admin/mailbox' },
   ],

@@ -32,6 +32,8 @@ export const appRoutes: readonly AppRoute[] = [
   { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.', page: lazyPage(() => import('../features/foundry/components/foundry-page'), 'FoundryPage') },
   { path: 'foundry/runs/:id', title: 'Foundry run', roles: editors, page: lazyPage(() => import('../features/foundry/components/run-results-page'), 'RunResultsPage') },
   { path: 'payouts', title: 'Payouts', roles: editors, page: lazyPage(() => import('../features/payouts/components/payouts-page'), 'PayoutsPage') },
+  { path: 'readers', title: 'Readers', roles: editors, summary: 'How readers fared with the published puzzles.', page: lazyPage(() => import('../features/reader/components/readers-page'), 'ReadersPage') },
+  { path: 'readers/calibration', title: 'Grade calibration', roles: editors, page: lazyPage(() => import('../features/reader/components/calibration-page'), 'CalibrationPage') },
   // printer
   { path: 'proofs', title: 'Proofs', roles: printers, page: lazyPage(() => import('../features/proofs/components/proofs-page'), 'ProofsPage') },
   { path: 'proofs/:id', title: 'Proof', roles: printers, page: lazyPage(() => import('../features/proofs/components/proof-page'), 'ProofPage') },
@@ -39,6 +41,7 @@ export const appRoutes: readonly AppRoute[] = [
   // admin
   { path: 'admin/users', title: 'Users', roles: admins, page: lazyPage(() => import('../features/admin-users/components/users-page'), 'UsersPage') },
   { path: 'admin/publications', title: 'Publications', roles: admins, page: lazyPage(() => import('../features/publications/components/publications-page'), 'PublicationsPage') },
+  { path: 'admin/reader', title: 'Reader edition', roles: admins, page: lazyPage(() => import('../features/reader/components/reader-settings-page'), 'ReaderSettingsPage') },
   { path: 'admin/templates', title: 'Templates', roles: admins, page: lazyPage(() => import('../features/templates/components/templates-page'), 'TemplatesPage') },
   { path: 'admin/mailbox', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mailbox-page'), 'MailboxPage') },
   { path: 'admin/mailbox/:id', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mail-page'), 'MailPage') },

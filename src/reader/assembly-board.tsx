@@ -82,9 +82,10 @@ export function AssemblyBoard({ play, placements, wrong, locked, selected, onSel
   const toUnits = (clientX: number, clientY: number) => {
     const r = svg.current?.getBoundingClientRect();
     if (!r || r.width === 0) return null;
-    const x = ((clientX - r.left) / r.width) * W;
-    const y = ((clientY - r.top) / r.height) * H;
-    return { x, y, inside: clientX >= r.left && clientX <= r.right && clientY >= r.top && clientY <= r.bottom, unitsPerPx: W / r.width };
+    // the view box has a margin of one unit around the frame
+    const x = ((clientX - r.left) / r.width) * (W + 2) - 1;
+    const y = ((clientY - r.top) / r.height) * (H + 2) - 1;
+    return { x, y, inside: clientX >= r.left && clientX <= r.right && clientY >= r.top && clientY <= r.bottom, unitsPerPx: (W + 2) / r.width };
   };
 
   const snapped = (piece: number, rawX: number, rawY: number, unitsPerPx: number) => {
