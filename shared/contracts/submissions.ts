@@ -35,6 +35,14 @@ export const createSubmissionSchema = z
   });
 export type CreateSubmission = z.infer<typeof createSubmissionSchema>;
 
+/** A submission's name in words: its title, or "Untitled (file)" etc. (the setter's table and mail say the same). */
+export function submissionTitle(title: string | null, source: 'paste' | 'sketch' | 'file'): string {
+  return title ?? `Untitled (${source})`;
+}
+
+/** Which stock tiling a submission is, and at what scale ("1x" the same size, "2x" twice as large): editors only. */
+export const sameAsSchema = z.object({ stockId: z.number().int(), scale: z.string() });
+
 export const submissionSchema = z.object({
   id: z.number().int(),
   setterId: z.string(),
@@ -47,7 +55,10 @@ export const submissionSchema = z.object({
   canonicalKey: z.string(),
   ...tilingFactsSchema.shape,
   status: submissionStatusSchema,
+  /** live: the same tiling (up to symmetry and scale) is in the stock now, or pending in another submission */
   duplicateOf: duplicateOfSchema.nullable(),
+  /** editors only: the stock tiling it is, and at what scale; null for setters and when it is not in the stock */
+  sameAs: sameAsSchema.nullable(),
   editorNote: z.string().nullable(),
   stockId: z.number().int().nullable(),
   createdAt: z.string(),
@@ -64,6 +75,8 @@ export const submissionDetailSchema = submissionSchema.extend({
   /** editors only (empty for setters): the same tiling elsewhere */
   duplicates: z.object({
     stockId: z.number().int().nullable(),
+    /** the scale of this tiling against the stock tiling ("2x"), when there is one */
+    scale: z.string().nullable(),
     submissions: z.array(z.object({ id: z.number().int(), status: submissionStatusSchema })),
   }),
 });

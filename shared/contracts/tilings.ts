@@ -91,6 +91,18 @@ export const tilingErrorSchema = z.object({
 });
 export type TilingError = z.infer<typeof tilingErrorSchema>;
 
+/**
+ * The scale of a tiling against another of the same reduced form, from the gcd of each
+ * one's sizes: "2x" (twice as large), "1/2x", "3/2x"; "1x" for the same size.
+ */
+export function scaleText(gcdOfThis: number, gcdOfOther: number): string {
+  const g = (a: number, b: number): number => (b === 0 ? a : g(b, a % b));
+  const d = g(gcdOfThis, gcdOfOther) || 1;
+  const num = gcdOfThis / d;
+  const den = gcdOfOther / d;
+  return den === 1 ? `${num}x` : `${num}/${den}x`;
+}
+
 /** What a duplicate is a duplicate of: never whose. */
 export const duplicateOfSchema = z.enum(['stock', 'pending', 'this-file']);
 export type DuplicateOf = z.infer<typeof duplicateOfSchema>;

@@ -62,7 +62,7 @@ export interface DataTableProps<T extends RowData> {
   error?: unknown;
   /** Shown instead of the table when there are no rows and nothing is loading. */
   empty?: ReactNode;
-  /** Makes each row activatable (click or Enter) e.g. to open a detail drawer. */
+  /** Makes each row activatable (click, Enter or Space) e.g. to open a detail drawer. */
   onRowActivate?: (row: T) => void;
 }
 
@@ -210,7 +210,10 @@ export function DataTable<T extends RowData>({
                           if (!fromControlInside(e)) onRowActivate(row.original);
                         },
                         onKeyDown: (e: React.KeyboardEvent) => {
-                          if (e.key === 'Enter' && !fromControlInside(e)) onRowActivate(row.original);
+                          if ((e.key === 'Enter' || e.key === ' ') && !fromControlInside(e)) {
+                            e.preventDefault();
+                            onRowActivate(row.original);
+                          }
                         },
                       }
                     : {})}

@@ -20,7 +20,7 @@ export function registerTilingRoutes(router: ApiRouter, deps: IntakeDeps) {
       if (!r.ok) return { valid: false, error: r.error };
       const a = r.analysis;
       const c = a.classification;
-      const dup = duplicateOf(deps.stock, deps.db, a.canonicalKey);
+      const dup = duplicateOf(deps.stock, deps.db, a);
       return {
         valid: true,
         order: c.order,

@@ -3,4 +3,4 @@
 export { registerSubmissionRoutes } from './routes';
 export { registerTilingRoutes } from './check-routes';
 export { seedDemoStock } from './demo-seed';
-export { submissionHistory } from './submissions';
+export { fillSubmissionReducedKeys, submissionHistory } from './submissions';

@@ -22,11 +22,14 @@ import {
   getSubmissionDetail,
   listSubmissions,
   reviewSubmission,
+  fillSubmissionReducedKeys,
   uploadSubmissions,
   type Actor,
 } from './submissions';
 
 export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
+  // submissions stored before migration 0017 get their reduced key once (nothing to do on a new database)
+  fillSubmissionReducedKeys(deps.db);
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } });
   const reviewOpts = () => ({ publicUrl: deps.env.PUBLIC_URL, now: () => deps.clock.now() });
   const tags = ['intake'];
@@ -61,7 +64,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
   route(
     router,
     { method: 'GET', path: '/api/submissions', summary: 'Submissions (setters: their own; editors: all), filtered, sorted, paged', tags, query: submissionListQuerySchema, response: submissionListSchema },
-    ({ user, query }) => listSubmissions(deps.db, user, query),
+    ({ user, query }) => listSubmissions(deps, user, query),
   );
 
   route(

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
 import type { Role } from '../../../shared/contracts/common';
 import type {
   BulkReview,
@@ -10,14 +10,15 @@ import type {
   UploadLine,
   UploadReport,
 } from '../../../shared/contracts/submissions';
-import { MAX_TITLE, MAX_UPLOAD_LINES } from '../../../shared/contracts/submissions';
+import { MAX_TITLE, MAX_UPLOAD_LINES, submissionTitle } from '../../../shared/contracts/submissions';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import type { EventSink } from '../../platform/events';
 import { queueMail } from '../../platform/mail/outbox';
-import { analyseCode, analyseSquares, analyseTiling, smithDrawingOf, squaresToJson, storedTiling, type TilingAnalysis } from '../stock/index';
+import { analyseCode, analyseSquares, analyseTiling, gcdOfKey, smithDrawingOf, squaresToJson, stock, storedTiling, type TilingAnalysis } from '../stock/index';
+import { scaleText } from '../../../shared/contracts/tilings';
 import type { StockPort, SubmissionHistory } from '../stock/ports';
 
 // Setters' submissions: in by paste, sketch or file; verified and checked for duplicates on
@@ -33,15 +34,50 @@ export type IntakeStore = { db: Db; stock: StockPort };
 
 const isEditor = (a: Actor) => a.role === 'editor' || a.role === 'admin';
 
-/** Is this canonical key already in the stock, or pending review? (Never says whose.) */
-export function duplicateOf(stock: StockPort, db: DbOrTx, key: string): 'stock' | 'pending' | null {
-  if (stock.findByKey(db, key) !== null) return 'stock';
-  const p = db
+/** The same tiling in the stock (exactly, or at another scale), and other pending submissions of it. */
+export type Duplicates = { stock: { id: number; scale: string } | null; pending: number[] };
+
+/**
+ * Where else this tiling is, up to symmetry and scale (same reduced key): the stock row
+ * (with the scale of this tiling against it, "1x" when the same) and other pending
+ * submissions. Read live, so the queue's badge and the drawer always agree.
+ * `except` leaves out the submission itself and the stock row it was accepted into.
+ */
+export function duplicatesOf(stock: StockPort, db: DbOrTx, t: { reducedKey: string; gcd: number }, except: { submissionId?: number; stockId?: number | null } = {}): Duplicates {
+  const s = stock.findByReducedKey(db, t.reducedKey);
+  const inStock = s && s.id !== except.stockId ? { id: s.id, scale: scaleText(t.gcd, gcdOfKey(s.canonicalKey)) } : null;
+  const pending = db
     .select({ id: submission.id })
     .from(submission)
-    .where(and(eq(submission.canonicalKey, key), eq(submission.status, 'pending')))
-    .get();
-  return p ? 'pending' : null;
+    .where(and(eq(submission.reducedKey, t.reducedKey), eq(submission.status, 'pending')))
+    .orderBy(asc(submission.id))
+    .all()
+    .map((r) => r.id)
+    .filter((id) => id !== except.submissionId);
+  return { stock: inStock, pending };
+}
+
+/**
+ * Fills reduced_key for submissions stored before migration 0017 (run once at start-up).
+ * Returns how many rows it filled.
+ */
+export function fillSubmissionReducedKeys(db: DbOrTx): number {
+  const rows = db
+    .select({ id: submission.id, canonicalKey: submission.canonicalKey, squaresJson: submission.squaresJson, width: submission.width, height: submission.height })
+    .from(submission)
+    .where(isNull(submission.reducedKey))
+    .all();
+  for (const r of rows) {
+    const reducedKey = gcdOfKey(r.canonicalKey) === 1 ? r.canonicalKey : analyseTiling(storedTiling('submission', r)).reducedKey;
+    db.update(submission).set({ reducedKey }).where(eq(submission.id, r.id)).run();
+  }
+  return rows.length;
+}
+
+/** Is this tiling (at any scale) already in the stock, or pending review? (Never says whose.) */
+export function duplicateOf(stock: StockPort, db: DbOrTx, t: { reducedKey: string; gcd: number }): 'stock' | 'pending' | null {
+  const d = duplicatesOf(stock, db, t);
+  return d.stock ? 'stock' : d.pending.length > 0 ? 'pending' : null;
 }
 
 function insertSubmission(
@@ -62,6 +98,7 @@ function insertSubmission(
       code: fields.code,
       canonicalCode: a.canonicalCode,
       canonicalKey: a.canonicalKey,
+      reducedKey: a.reducedKey,
       squaresJson: squaresToJson(a.tiling),
       width: a.tiling.W,
       height: a.tiling.H,
@@ -83,10 +120,10 @@ export function createSubmission(deps: IntakeStore, actor: Actor, input: CreateS
   const a = r.analysis;
   const code = input.code ?? a.bouwkamp;
   const id = db.transaction((tx) => {
-    const dup = duplicateOf(deps.stock, tx, a.canonicalKey);
+    const dup = duplicateOf(deps.stock, tx, a);
     return insertSubmission(tx, actor, a, { code, title: input.title, note: input.note, source: input.source }, dup);
   });
-  return getSubmission(db, actor, id);
+  return getSubmission(deps, actor, id);
 }
 
 export interface UploadHooks {
@@ -145,12 +182,13 @@ export function uploadSubmissions(deps: IntakeStore, actor: Actor, fileName: str
       }
       const a = e.r.analysis;
       const size = { order: a.classification.order, width: a.tiling.W, height: a.tiling.H };
-      if (seen.has(a.canonicalKey)) {
+      // the same tiling at any scale earlier in this file
+      if (seen.has(a.reducedKey)) {
         report.push({ line: e.line, verdict: 'duplicate', duplicateOf: 'this-file', ...size });
         continue;
       }
-      seen.add(a.canonicalKey);
-      const dup = duplicateOf(deps.stock, tx, a.canonicalKey);
+      seen.add(a.reducedKey);
+      const dup = duplicateOf(deps.stock, tx, a);
       hooks.beforeWrite?.(e.line);
       const id = insertSubmission(tx, actor, a, { code: e.code, title: captionOf(e.code), source: 'file' }, dup);
       report.push(
@@ -179,6 +217,7 @@ const columns = {
   code: submission.code,
   canonicalCode: submission.canonicalCode,
   canonicalKey: submission.canonicalKey,
+  reducedKey: submission.reducedKey,
   width: submission.width,
   height: submission.height,
   order: submission.order,
@@ -193,15 +232,27 @@ const columns = {
   reviewedAt: submission.reviewedAt,
 };
 
-type Row = Omit<Submission, 'createdAt' | 'reviewedAt' | 'setterName' | 'duplicateOf'> & {
+type Row = Omit<Submission, 'createdAt' | 'reviewedAt' | 'setterName' | 'duplicateOf' | 'sameAs'> & {
   setterName: string | null;
+  reducedKey: string | null;
   duplicateOf: 'stock' | 'pending' | null;
   createdAt: Date;
   reviewedAt: Date | null;
 };
-function toSubmission(r: Row): Submission {
+
+/** The row's duplicates now (live; the stored duplicate_of is what was true when it came in). */
+function liveDuplicates(stock: StockPort, db: DbOrTx, r: Pick<Row, 'id' | 'canonicalKey' | 'reducedKey' | 'stockId'>): Duplicates {
+  return duplicatesOf(stock, db, { reducedKey: r.reducedKey ?? r.canonicalKey, gcd: gcdOfKey(r.canonicalKey) }, { submissionId: r.id, stockId: r.stockId });
+}
+
+function toSubmission(stock: StockPort, db: DbOrTx, actor: Actor, r: Row): Submission {
+  const { reducedKey: _k, ...rest } = r;
+  const d = liveDuplicates(stock, db, r);
   return {
-    ...r,
+    ...rest,
+    duplicateOf: d.stock ? 'stock' : d.pending.length > 0 ? 'pending' : null,
+    // which stock tiling and at what scale: for editors' eyes only
+    sameAs: d.stock && isEditor(actor) ? { stockId: d.stock.id, scale: d.stock.scale } : null,
     createdAt: r.createdAt.toISOString(),
     reviewedAt: r.reviewedAt ? r.reviewedAt.toISOString() : null,
   };
@@ -216,15 +267,20 @@ const sorts = {
   status: submission.status,
 } as const;
 
+/** The same tiling at any scale is in the stock (other than the row it was accepted into), or pending in another submission: live, as the drawer reads it. */
+const liveDuplicateSql = sql`(exists (select 1 from ${stock} s where s.reduced_key = coalesce(${submission.reducedKey}, ${submission.canonicalKey}) and s.id is not ${submission.stockId})
+  or exists (select 1 from ${submission} o where o.reduced_key = coalesce(${submission.reducedKey}, ${submission.canonicalKey}) and o.status = 'pending' and o.id <> ${submission.id}))`;
+
 /** GET /api/submissions: setters see only their own; editors see all, filtered. */
-export function listSubmissions(db: DbOrTx, actor: Actor, q: SubmissionListQuery): SubmissionList {
+export function listSubmissions(deps: IntakeStore, actor: Actor, q: SubmissionListQuery): SubmissionList {
+  const { db } = deps;
   const w: SQL[] = [];
   if (!isEditor(actor)) w.push(eq(submission.setterId, actor.id));
   if (q.status) w.push(eq(submission.status, q.status));
   // the search text is matched literally: % _ and \ are escaped, which SQLite honours only with ESCAPE
   if (q.q) w.push(sql`${submission.title} like ${`%${q.q.replace(/[%_\\]/g, (m) => `\\${m}`)}%`} escape '\\'`);
-  if (q.duplicate === 'true') w.push(isNotNull(submission.duplicateOf));
-  if (q.duplicate === 'false') w.push(isNull(submission.duplicateOf));
+  if (q.duplicate === 'true') w.push(liveDuplicateSql);
+  if (q.duplicate === 'false') w.push(sql`not ${liveDuplicateSql}`);
   const where = w.length ? and(...w) : undefined;
   const dir = q.sort.desc ? desc : asc;
   const rows = db
@@ -237,7 +293,7 @@ export function listSubmissions(db: DbOrTx, actor: Actor, q: SubmissionListQuery
     .offset((q.page - 1) * q.pageSize)
     .all();
   const total = db.select({ n: count() }).from(submission).where(where).get()?.n ?? 0;
-  return { items: rows.map(toSubmission), total, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((r) => toSubmission(deps.stock, db, actor, r)), total, page: q.page, pageSize: q.pageSize };
 }
 
 function rowOf(db: DbOrTx, actor: Actor, id: number): Row & { squaresJson: string } {
@@ -252,9 +308,9 @@ function rowOf(db: DbOrTx, actor: Actor, id: number): Row & { squaresJson: strin
   return r;
 }
 
-export function getSubmission(db: DbOrTx, actor: Actor, id: number): Submission {
-  const { squaresJson: _s, ...r } = rowOf(db, actor, id);
-  return toSubmission(r);
+export function getSubmission(deps: IntakeStore, actor: Actor, id: number): Submission {
+  const { squaresJson: _s, ...r } = rowOf(deps.db, actor, id);
+  return toSubmission(deps.stock, deps.db, actor, r);
 }
 
 export function getSubmissionDetail(deps: IntakeStore, actor: Actor, id: number): SubmissionDetail {
@@ -262,8 +318,8 @@ export function getSubmissionDetail(deps: IntakeStore, actor: Actor, id: number)
   const { squaresJson, ...r } = rowOf(db, actor, id);
   const tiling = storedTiling('submission', { ...r, squaresJson });
   const a = analyseTiling(tiling);
-  const duplicates = isEditor(actor) ? sameTilingAs(deps.stock, db, r.canonicalKey, id) : { stockId: null, submissions: [] };
-  return { ...toSubmission(r), tiling, smith: smithDrawingOf(tiling), classification: a.classification, bouwkamp: a.bouwkamp, duplicates };
+  const duplicates = isEditor(actor) ? sameTilingAs(deps.stock, db, r) : { stockId: null, scale: null, submissions: [] };
+  return { ...toSubmission(deps.stock, db, actor, r), tiling, smith: smithDrawingOf(tiling), classification: a.classification, bouwkamp: a.bouwkamp, duplicates };
 }
 
 export interface ReviewOptions {
@@ -291,6 +347,7 @@ export function reviewSubmission(
         status: submission.status,
         setterId: submission.setterId,
         title: submission.title,
+        source: submission.source,
         width: submission.width,
         height: submission.height,
         order: submission.order,
@@ -314,8 +371,10 @@ export function reviewSubmission(
         acceptedAt: now,
       });
       if (!added.created) {
-        throw new Conflict(`this tiling is already in the stock (stock ${added.id}); reject submission ${id} as a duplicate instead`, {
+        const at = added.scale ? ` at ${added.scale}` : '';
+        throw new Conflict(`this tiling is already in the stock: it is stock tiling ${added.id}${at}; reject "${submissionTitle(r.title, r.source)}" as a duplicate instead`, {
           stockId: added.id,
+          ...(added.scale ? { scale: added.scale } : {}),
         });
       }
       stockId = added.id;
@@ -329,7 +388,7 @@ export function reviewSubmission(
       template: action === 'accept' ? 'submission-accepted' : 'submission-rejected',
       data: {
         name: r.name,
-        title: r.title ?? `submission ${id}`,
+        title: submissionTitle(r.title, r.source),
         size: `${r.width} x ${r.height}`,
         order: String(r.order),
         note: note || '(no note)',
@@ -340,7 +399,7 @@ export function reviewSubmission(
       submission: { id: String(id), status: action === 'accept' ? 'accepted' : 'rejected', stockId: stockId === null ? null : String(stockId), order: r.order },
     });
   });
-  return getSubmission(db, reviewer, id);
+  return getSubmission(deps, reviewer, id);
 }
 
 export function bulkReview(deps: IntakeStore & { events: EventSink }, reviewer: Actor, input: BulkReview, opts: ReviewOptions) {
@@ -356,16 +415,18 @@ export function bulkReview(deps: IntakeStore & { events: EventSink }, reviewer: 
   return { results };
 }
 
-/** Other submissions of the same tiling (up to symmetry) and its stock row: for editors' eyes only. */
-export function sameTilingAs(stock: StockPort, db: DbOrTx, key: string, exceptId: number): SubmissionDetail['duplicates'] {
+/** Other submissions of the same tiling (up to symmetry and scale) and its stock row with the scale: for editors' eyes only. */
+export function sameTilingAs(stock: StockPort, db: DbOrTx, r: Pick<Row, 'id' | 'canonicalKey' | 'reducedKey' | 'stockId'>): SubmissionDetail['duplicates'] {
+  const key = r.reducedKey ?? r.canonicalKey;
   const subs = db
     .select({ id: submission.id, status: submission.status })
     .from(submission)
-    .where(eq(submission.canonicalKey, key))
+    .where(eq(submission.reducedKey, key))
     .orderBy(asc(submission.id))
     .all()
-    .filter((s) => s.id !== exceptId);
-  return { stockId: stock.findByKey(db, key), submissions: subs };
+    .filter((s) => s.id !== r.id);
+  const d = liveDuplicates(stock, db, r);
+  return { stockId: d.stock?.id ?? null, scale: d.stock?.scale ?? null, submissions: subs };
 }
 
 /** Accepted submissions of a stock tiling, oldest first: the stock's history (see SubmissionHistory in ../stock/ports.ts). */

@@ -2,7 +2,7 @@
 // Other areas reach the stock's services only through the StockPort they are given
 // (./ports.ts, wired in server/compose.ts); the tiling analysis is pure and imported directly.
 export { registerStockRoutes } from './routes';
-export { stockPort } from './stock';
+export { fillStockReducedKeys, stockPort } from './stock';
 export { stock } from './schema';
 export {
   analyseCode,
@@ -10,6 +10,8 @@ export {
   analyseTiling,
   canonicalFormOf,
   classificationOf,
+  gcdOfKey,
+  reducedFormOf,
   smithDrawingOf,
   toSmithDrawing,
   type AnalysisResult,

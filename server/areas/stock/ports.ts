@@ -18,9 +18,11 @@ export interface AddToStockInput {
 
 export interface AddToStockResult {
   id: number;
-  /** false when the tiling (up to symmetry) was already in the stock: nothing changed */
+  /** false when the tiling (up to symmetry and scale) was already in the stock: nothing changed */
   created: boolean;
   canonicalKey: string;
+  /** when it was a scaled copy of stock row `id`: the scale, e.g. "2x" */
+  scale?: string;
 }
 
 export interface StockTiling {
@@ -39,6 +41,8 @@ export interface StockPort {
   tiling(db: DbOrTx, stockId: number): StockTiling;
   /** The id of the stock row with this canonical key, if any. */
   findByKey(db: DbOrTx, canonicalKey: string): number | null;
+  /** The stock row of this tiling at any scale (same reduced key), if any. */
+  findByReducedKey(db: DbOrTx, reducedKey: string): { id: number; canonicalKey: string } | null;
   /** Every canonical key in the stock (the foundry skips what is known). */
   allKeys(db: DbOrTx): string[];
   /** Perfect rectangles that are not squares, oldest first, at most `limit` (the foundry joins them). */

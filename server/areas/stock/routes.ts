@@ -13,12 +13,14 @@ import {
 import { route, type ApiRouter } from '../../platform/http/route';
 import { renderTilingPng, PNG_SIZES } from '../../platform/images/tiling-png';
 import type { StockDeps } from './ports';
-import { exportStock, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary, stockTiling } from './stock';
+import { exportStock, fillStockReducedKeys, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary, stockTiling } from './stock';
 
 /** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
 const PNG_CACHE_MAX = 500;
 
 export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
+  // rows stored before migration 0017 get their reduced key once (nothing to do on a new database)
+  fillStockReducedKeys(deps.db);
   const tags = ['stock'];
   const pngCache = new Map<string, Buffer>();
 

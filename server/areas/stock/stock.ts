@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull, sql } from 'drizzle-orm';
 import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
@@ -7,7 +7,8 @@ import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
-import { canonicalFormOf, classificationOf, smithDrawingOf } from './tiling-analysis';
+import { canonicalFormOf, classificationOf, gcdOfKey, reducedFormOf, smithDrawingOf } from './tiling-analysis';
+import { scaleText } from '../../../shared/contracts/tilings';
 
 // The stock of verified tilings, one row per canonical key. addToStock is the one way in
 // (review, foundry, demo seed all call it).
@@ -23,11 +24,15 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   const f = stockFacts(input.tiling);
   const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, f.canonicalKey)).get();
   if (existing) return { id: existing.id, created: false, canonicalKey: f.canonicalKey };
+  // a scaled copy of a stock tiling is no new tiling either (issue 16)
+  const scaled = findStockByReducedKey(tx, f.reducedKey);
+  if (scaled) return { id: scaled.id, created: false, canonicalKey: f.canonicalKey, scale: scaleText(f.gcd, gcdOfKey(scaled.canonicalKey)) };
   noteStockWrite();
   const row = tx
     .insert(stock)
     .values({
       canonicalKey: f.canonicalKey,
+      reducedKey: f.reducedKey,
       canonicalCode: f.canonicalCode,
       squaresJson: squaresToJson(f.canonical),
       width: f.canonical.W,
@@ -53,7 +58,8 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
  */
 export function stockFacts(t: Tiling) {
   const perfect = new Set(t.squares.map((q) => q.s)).size === t.squares.length;
-  return { ...canonicalFormOf(t), perfect, simple: isSimple(t) };
+  const form = canonicalFormOf(t);
+  return { ...form, ...reducedFormOf(form.canonical, form.canonicalKey), perfect, simple: isSimple(t) };
 }
 
 /** Count one more (or fewer) puzzle derived from a stock tiling; the puzzle area calls this. */
@@ -65,6 +71,26 @@ export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
     .where(eq(stock.id, stockId))
     .run();
   if (r.changes === 0) throw new NotFound(`stock tiling ${stockId} does not exist`);
+}
+
+/** The stock row whose tiling is this one at some scale (same reduced key), if any. */
+export function findStockByReducedKey(db: DbOrTx, reducedKey: string): { id: number; canonicalKey: string } | null {
+  return db.select({ id: stock.id, canonicalKey: stock.canonicalKey }).from(stock).where(eq(stock.reducedKey, reducedKey)).orderBy(stock.id).limit(1).get() ?? null;
+}
+
+/**
+ * Fills reduced_key for stock rows stored before migration 0017 (run once at start-up; a
+ * few ms per thousand rows). Returns how many rows it filled.
+ */
+export function fillStockReducedKeys(db: DbOrTx): number {
+  const rows = db.select({ id: stock.id, canonicalKey: stock.canonicalKey, squaresJson: stock.squaresJson, width: stock.width, height: stock.height }).from(stock).where(isNull(stock.reducedKey)).all();
+  for (const r of rows) {
+    const g = gcdOfKey(r.canonicalKey);
+    const reducedKey = g === 1 ? r.canonicalKey : reducedFormOf(storedTiling('stock', r), r.canonicalKey).reducedKey;
+    db.update(stock).set({ reducedKey }).where(eq(stock.id, r.id)).run();
+  }
+  if (rows.length > 0) noteStockWrite();
+  return rows.length;
 }
 
 /** The id of the stock row with this canonical key, if any. */
@@ -297,6 +323,7 @@ export const stockPort: StockPort = {
   markUsed: markStockUsed,
   tiling: stockTiling,
   findByKey: findStockByKey,
+  findByReducedKey: findStockByReducedKey,
   allKeys: allStockKeys,
   perfectRectangles,
 };

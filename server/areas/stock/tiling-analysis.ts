@@ -19,6 +19,10 @@ export interface TilingAnalysis {
   canonical: Tiling;
   canonicalCode: string;
   canonicalKey: string;
+  /** the canonical key of the tiling divided by the gcd of its sizes: equal for scaled copies */
+  reducedKey: string;
+  /** the gcd of all sizes (1 for a reduced tiling) */
+  gcd: number;
   bouwkamp: string;
   classification: ClassificationData;
 }
@@ -60,11 +64,36 @@ export function canonicalFormOf(tiling: Tiling): { canonical: Tiling; canonicalC
   return { canonical, canonicalCode: code, canonicalKey: key };
 }
 
+function gcd2(a: number, b: number): number {
+  while (b) [a, b] = [b, a % b];
+  return a;
+}
+
+/**
+ * The reduced form's key: the tiling divided by the gcd of all its sizes, canonicalised by
+ * the engine. Two tilings that are scaled copies of each other (2x, 3x, ...) have the same
+ * reduced key (issue 16: duplicates at scale); the canonical key stays the stock's unique key.
+ */
+export function reducedFormOf(canonical: Tiling, canonicalKey: string): { reducedKey: string; gcd: number } {
+  const g = canonical.squares.reduce((a, q) => gcd2(a, q.s), 0);
+  if (g <= 1) return { reducedKey: canonicalKey, gcd: 1 };
+  const reduced: Tiling = { W: canonical.W / g, H: canonical.H / g, squares: canonical.squares.map((q) => ({ x: q.x / g, y: q.y / g, s: q.s / g })) };
+  return { reducedKey: canonicalForm(reduced).key, gcd: g };
+}
+
+/** The gcd of the sizes in a canonical key ("WxH:a,b,..."). */
+export function gcdOfKey(key: string): number {
+  const sizes = key.slice(key.indexOf(':') + 1).split(',').map(Number);
+  return sizes.reduce((a, s) => gcd2(a, s), 0) || 1;
+}
+
 /** Analyse a tiling that the engine already decoded and verified. */
 export function analyseTiling(tiling: Tiling): TilingAnalysis {
+  const form = canonicalFormOf(tiling);
   return {
     tiling,
-    ...canonicalFormOf(tiling),
+    ...form,
+    ...reducedFormOf(form.canonical, form.canonicalKey),
     bouwkamp: toBouwkamp(tiling, { header: true }),
     classification: classificationOf(tiling),
   };

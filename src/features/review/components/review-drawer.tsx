@@ -9,6 +9,7 @@ import { SmithDiagram } from '../../../components/smith-diagram';
 import { TilingDrawing } from '../../../components/tiling-drawing';
 import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
 import { formatDateTime } from '../../../lib/format';
+import { submissionTitle } from '../../../../shared/contracts/submissions';
 import { useSubmissionDetail } from '../api/get-submission';
 import { useReviewSubmission } from '../api/review-submission';
 
@@ -36,7 +37,7 @@ export function ReviewDrawer({ id, onClose }: { id: number | null; onClose: () =
       open={id !== null}
       onClose={close}
       placement="right"
-      title={d ? d.title ?? `Submission ${d.id}` : 'Submission'}
+      title={d ? submissionTitle(d.title, d.source) : 'Submission'}
       footer={
         d && d.status === 'pending' ? (
           <div className="flex w-full flex-col gap-2">
@@ -63,7 +64,15 @@ export function ReviewDrawer({ id, onClose }: { id: number | null; onClose: () =
           {d.note ? <blockquote className="border-l-4 border-rule-strong pl-3 text-sm">{d.note}</blockquote> : null}
           {d.duplicateOf || d.duplicates.stockId || d.duplicates.submissions.length ? (
             <Alert tone="warning" title="Duplicate">
-              {d.duplicates.stockId ? <p>Already in the stock: <Link to={`/stock/${d.duplicates.stockId}`}>stock tiling {d.duplicates.stockId}</Link>.</p> : null}
+              {d.duplicates.stockId ? (
+                <p>
+                  Same as{' '}
+                  <Link className="underline" to={`/stock/${d.duplicates.stockId}`}>
+                    stock tiling {d.duplicates.stockId}
+                  </Link>
+                  {d.duplicates.scale && d.duplicates.scale !== '1x' ? ` at ${d.duplicates.scale}` : ''} (already in the stock).
+                </p>
+              ) : null}
               {d.duplicates.submissions.length ? (
                 <p>Same tiling in submission{d.duplicates.submissions.length > 1 ? 's' : ''} {d.duplicates.submissions.map((s) => `${s.id} (${s.status})`).join(', ')}.</p>
               ) : null}

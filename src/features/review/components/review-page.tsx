@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import type { Submission } from '../../../../shared/contracts/submissions';
+import { Link, useSearchParams } from 'react-router-dom';
+import { submissionTitle, type Submission } from '../../../../shared/contracts/submissions';
 import { useSubmissionList } from '../../../api/submissions';
 import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
@@ -15,6 +16,14 @@ import { ReviewDrawer } from './review-drawer';
 
 const col = dataTableColumnHelper<Submission>();
 
+/** The duplicate badge: the same words as the drawer ("Same as stock tiling 12 at 2x", "Also pending"). */
+export function duplicateText(s: Pick<Submission, 'duplicateOf' | 'sameAs'>): string | null {
+  if (s.sameAs) return `Same as stock tiling ${s.sameAs.stockId}${s.sameAs.scale === '1x' ? '' : ` at ${s.sameAs.scale}`}`;
+  if (s.duplicateOf === 'stock') return 'In the stock';
+  if (s.duplicateOf === 'pending') return 'Also pending';
+  return null;
+}
+
 /** /review (editor): the queue of pending submissions; open one, accept or reject; several at once. */
 export function ReviewPage() {
   const params = useTableSearchParams({ filterKeys: ['status', 'duplicate', 'q'], defaultSort: { id: 'createdAt', desc: false } });
@@ -22,7 +31,22 @@ export function ReviewPage() {
   if (!params.query.filters.status) search.status = 'pending';
   if (params.query.filters.status === 'all') delete search.status;
   const list = useSubmissionList(search);
-  const [open, setOpen] = useState<number | null>(null);
+  // the open submission lives in the URL (?open=ID): titles are links, and Back closes the drawer
+  const [searchParams, setSearchParams] = useSearchParams();
+  const openParam = Number(searchParams.get('open'));
+  const open = Number.isInteger(openParam) && openParam > 0 ? openParam : null;
+  const openHref = (id: number) => {
+    const n = new URLSearchParams(searchParams);
+    n.set('open', String(id));
+    return `?${n.toString()}`;
+  };
+  const setOpen = (id: number | null) =>
+    setSearchParams((prev) => {
+      const n = new URLSearchParams(prev);
+      if (id === null) n.delete('open');
+      else n.set('open', String(id));
+      return n;
+    });
   const [selected, setSelected] = useState<Set<number>>(new Set());
   const [bulkNote, setBulkNote] = useState('');
   const bulk = useBulkReview();
@@ -44,7 +68,14 @@ export function ReviewPage() {
         />
       ),
     }),
-    col.accessor('title', { header: 'Title', cell: (c) => c.getValue() ?? <span className="text-ink-muted">Untitled</span> }),
+    col.accessor('title', {
+      header: 'Title',
+      cell: (c) => (
+        <Link to={openHref(c.row.original.id)} className="font-medium underline">
+          {submissionTitle(c.getValue(), c.row.original.source)}
+        </Link>
+      ),
+    }),
     col.accessor('setterName', { header: 'Setter', enableSorting: false, cell: (c) => c.getValue() ?? '–' }),
     col.accessor('width', { header: 'Size', cell: (c) => `${c.row.original.width} × ${c.row.original.height}` }),
     col.accessor('order', { header: 'Order' }),
@@ -56,7 +87,10 @@ export function ReviewPage() {
     col.accessor('duplicateOf', {
       header: 'Duplicate',
       enableSorting: false,
-      cell: (c) => (c.getValue() ? <StatusBadge tone="warning">{c.getValue() === 'stock' ? 'In stock' : 'Also pending'}</StatusBadge> : '–'),
+      cell: (c) => {
+        const text = duplicateText(c.row.original);
+        return text ? <StatusBadge tone="warning">{text}</StatusBadge> : '–';
+      },
     }),
     col.accessor('status', { header: 'State' }),
     col.accessor('createdAt', { header: 'Sent', cell: (c) => formatDate(c.getValue()) }),
