@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { preflightSchema } from './preflight';
 
 // ---- Rich text (tiptap / ProseMirror JSON) -------------------------------------------
 // Stored as JSON and rendered by our own print layout, so the accepted shape is narrow:
@@ -161,22 +162,8 @@ export const editionListQuerySchema = z.object({
 });
 export type EditionListQuery = z.infer<typeof editionListQuerySchema>;
 
-export const preflightSchema = z.object({
-  ok: z.boolean(),
-  templateId: z.string(),
-  pages: z.number().int(),
-  trimMm: z.object({ width: z.number(), height: z.number() }),
-  bleedMm: z.number(),
-  pageSizePt: z.object({ width: z.number(), height: z.number() }),
-  fontsRegistered: z.array(z.string()),
-  embeddedFontFiles: z.number().int(),
-  fontsEmbedded: z.boolean(),
-  smallestSquareMm: z.number().nullable(),
-  smallestDigitPt: z.number().nullable(),
-  omittedLabels: z.array(z.object({ slot: z.number().int(), where: z.enum(['puzzle', 'solution']), size: z.number().int() })),
-  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
-});
-export type PreflightReport = z.infer<typeof preflightSchema>;
+// The preflight report (PDF/X facts per page, error codes) lives in ./preflight.ts.
+export { preflightSchema, type PreflightReport } from './preflight';
 
 export const proofStatusSchema = z.enum(['pending', 'approved', 'returned', 'superseded']);
 export type ProofStatus = z.infer<typeof proofStatusSchema>;

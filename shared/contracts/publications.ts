@@ -33,8 +33,21 @@ export type PublicationInput = z.infer<typeof publicationInputSchema>;
 export const publicationPatchSchema = publicationInputSchema.partial().strict().refine((p) => Object.keys(p).length > 0, 'send at least one field to change');
 export type PublicationPatch = z.infer<typeof publicationPatchSchema>;
 
+/** A printer assigned to a publication: sees, downloads and decides its proofs, gets its proof mail. */
+export const publicationPrinterSchema = z.object({ id: z.string(), name: z.string(), email: z.string() });
+export type PublicationPrinter = z.infer<typeof publicationPrinterSchema>;
+
+/** PUT /api/publications/:id/printers: the whole list (an empty list leaves the publication without printers). */
+export const publicationPrintersInputSchema = z
+  .object({ userIds: z.array(z.string().min(1).max(100), { error: 'userIds must be a list of user ids' }).max(50, 'at most 50 printers') })
+  .strict();
+export type PublicationPrintersInput = z.infer<typeof publicationPrintersInputSchema>;
+export const publicationPrintersSchema = z.object({ items: z.array(publicationPrinterSchema) });
+
 export const publicationSchema = publicationInputSchema.extend({
   id: z.string(),
+  /** the printers assigned to it */
+  printers: z.array(publicationPrinterSchema),
   createdAt: z.string(),
   updatedAt: z.string(),
 });

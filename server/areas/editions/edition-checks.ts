@@ -4,6 +4,7 @@ import { renderEditionPdf } from '../print/index';
 import { loadEditionDocument, type LoadedEdition } from './edition-document';
 import { getEditionRow, type EditionRow } from './editions';
 import type { EditionsDeps } from './ports';
+import { renderOptionsFor } from './press-spec';
 import { getPublicationRow } from './publications';
 import { edition } from './schema';
 import { apiPuzzleId, slotPuzzle, slotsOf } from './slots';
@@ -132,6 +133,6 @@ export function preflightChecks(preflight: PreflightReport): EditionCheck[] {
 export async function runEditionChecks(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, id: string): Promise<EditionChecks> {
   const r = getEditionRow(deps.db, id);
   const built = loadEditionDocument(deps, id);
-  const preflight = printsPuzzlesOrSolutions(built) ? (await renderEditionPdf(built.doc, { stamp: null })).preflight : null;
+  const preflight = printsPuzzlesOrSolutions(built) ? (await renderEditionPdf(built.doc, renderOptionsFor(deps.db, built.doc, { stamp: null }))).preflight : null;
   return checkEdition(deps, r, built, preflight);
 }

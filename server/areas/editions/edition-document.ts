@@ -6,6 +6,7 @@ import { getPageTemplate, type EditionDocument, type PuzzlePrint, type SolutionP
 import { getEditionRow, type EditionRow } from './editions';
 import { edition } from './schema';
 import type { EditionsDeps, PuzzleForPrint } from './ports';
+import { pressSettingsFor } from './press-spec';
 import { getPublicationRow } from './publications';
 import { apiPuzzleId, slotPuzzle, slotsOf } from './slots';
 import { instructionsOf, introductionOf } from './stored-json';
@@ -78,7 +79,7 @@ export function loadEditionDocument(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, 
     }
   }
   return {
-    doc: { publicationTitle: pub.title, editionNumber: r.number, editionDate: r.editionDate, template, introduction: introductionOf(r), puzzles: prints, solutions },
+    doc: { publicationTitle: pub.title, editionNumber: r.number, editionDate: r.editionDate, template, press: pressSettingsFor(pub), introduction: introductionOf(r), puzzles: prints, solutions },
     missing,
     puzzles,
   };

@@ -20,6 +20,7 @@ import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import type { EditionUsage } from '../puzzles/ports';
 import { initialEditionState, requireEditable } from './edition-states';
 import type { EditionsDeps, PuzzleForPrint } from './ports';
+import { publicationsOfPrinter, requirePrinterMaySee } from './printers';
 import { getPublicationRow } from './publications';
 import { apiPuzzleId, slotPuzzle, slotRowsFor, slotsOf } from './slots';
 import { instructionsOf, introductionOf, preflightOf } from './stored-json';
@@ -133,15 +134,12 @@ export function toPrinterEdition(db: DbOrTx, r: EditionRow): PrinterEdition {
   };
 }
 
-/** A printer sees an edition only once it has been sent to proof. */
-export function visibleToPrinter(db: DbOrTx, editionId: string): boolean {
-  return db.select({ id: editionProof.id }).from(editionProof).where(eq(editionProof.editionId, editionId)).limit(1).get() !== undefined;
-}
 
 export function getEditionFor(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, who: SessionUser, id: string): Edition | PrinterEdition {
   const row = getEditionRow(deps.db, id);
   if (who.role === 'printer') {
-    if (!visibleToPrinter(deps.db, id)) throw new NotFound(`No edition ${id}.`);
+    // a printer sees an edition of their publications once it has been sent to proof (printers.ts)
+    requirePrinterMaySee(deps.db, who, row);
     return toPrinterEdition(deps.db, row);
   }
   return toEdition(deps, row);
@@ -161,7 +159,9 @@ export function listEditions(deps: Pick<EditionsDeps, 'db'>, who: SessionUser, q
     .orderBy(asc(edition.editionDate), asc(publication.title), asc(edition.number))
     .all();
   const out: EditionSummary[] = [];
+  const printerOf = who.role === 'printer' ? publicationsOfPrinter(db, who.id) : null;
   for (const { e, title } of rows) {
+    if (printerOf && !printerOf.has(e.publicationId)) continue;
     const latest = db.select().from(editionProof).where(eq(editionProof.editionId, e.id)).orderBy(desc(editionProof.version)).limit(1).get();
     if (who.role === 'printer' && !latest) continue;
     const pf = latest ? preflightOf(latest) : null;

@@ -15,7 +15,9 @@ import type { EditionsDeps } from './ports';
 import { checkEdition, printsPuzzlesOrSolutions } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
 import { moveEdition, publishBlockers, publishGuard, recordOverride, requireMove, requireSavedState, sendGuard } from './edition-states';
-import { getEditionRow, toEdition, visibleToPrinter } from './editions';
+import { getEditionRow, toEdition } from './editions';
+import { renderOptionsFor } from './press-spec';
+import { printersOf, requirePrinterMaySee } from './printers';
 import { feeFor, getPublicationRow } from './publications';
 import { slotPuzzle, slotsOf } from './slots';
 import { proofDocumentOf } from './stored-json';
@@ -107,7 +109,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
   requireSavedState(r, request.updatedAt);
   const version = nextVersion(deps.db, editionId);
   const built = loadEditionDocument(deps, editionId);
-  const rendered = await renderEditionPdf(built.doc, { stamp: 'PROOF', proofVersion: version });
+  const rendered = await renderEditionPdf(built.doc, renderOptionsFor(deps.db, built.doc, { stamp: 'PROOF', proofVersion: version }));
   const checks = checkEdition(deps, r, built, printsPuzzlesOrSolutions(built) ? rendered.preflight : null);
   const overridden = sendGuard(checks, request.override);
   const rel = proofRel(editionId, version);
@@ -125,7 +127,8 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
         .run();
       moveEdition(tx, fresh, 'sendToProof', { returnNotes: null, updatedAt: now });
       deps.events.emit(tx, 'edition.proof_sent', { edition: eventEdition(fresh, pub.title, 'in_proof'), proofVersion: version });
-      for (const p of activeUsersWithRole(tx, 'printer')) {
+      // the proof mail goes to the publication's printers only
+      for (const p of printersOf(tx, fresh.publicationId)) {
         queueMail(
           tx,
           {
@@ -166,7 +169,7 @@ function proofRow(db: DbOrTx, editionId: string, version: number) {
 /** The stored proof file (printers only for editions sent to them). */
 export function readProofFile(deps: Pick<EditionsDeps, 'db' | 'env'>, who: SessionUser, editionId: string, version: number): { pdf: Buffer; sha256: string; name: string } {
   const r = getEditionRow(deps.db, editionId);
-  if (who.role === 'printer' && !visibleToPrinter(deps.db, editionId)) throw new NotFound(`No edition ${editionId}.`);
+  requirePrinterMaySee(deps.db, who, r);
   const p = proofRow(deps.db, editionId, version);
   const file = join(dataDir(deps), p.path);
   if (!existsSync(file)) throw new NotFound(`The file of proof ${version} is missing from the data folder.`);
@@ -174,8 +177,9 @@ export function readProofFile(deps: Pick<EditionsDeps, 'db' | 'env'>, who: Sessi
   return { pdf: readFileSync(file), sha256: p.sha256, name: `${slug(pub.title)}-no${r.number}-proof-v${version}.pdf` };
 }
 
-export function readPressFile(deps: Pick<EditionsDeps, 'db' | 'env'>, editionId: string): { pdf: Buffer; sha256: string; name: string } {
+export function readPressFile(deps: Pick<EditionsDeps, 'db' | 'env'>, who: SessionUser, editionId: string): { pdf: Buffer; sha256: string; name: string } {
   const r = getEditionRow(deps.db, editionId);
+  requirePrinterMaySee(deps.db, who, r);
   if (!r.pressPath || !r.pressSha256) throw new NotFound(`Edition No. ${r.number} has no press file yet.`);
   const file = join(dataDir(deps), r.pressPath);
   if (!existsSync(file)) throw new NotFound('The press file is missing from the data folder.');
@@ -187,8 +191,9 @@ function slug(s: string) {
   return s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 }
 
-function decidable(db: DbOrTx, editionId: string, version: number, move: 'approveProof' | 'returnProof') {
+function decidable(db: DbOrTx, who: SessionUser, editionId: string, version: number, move: 'approveProof' | 'returnProof') {
   const r = getEditionRow(db, editionId);
+  requirePrinterMaySee(db, who, r);
   requireMove(r, move);
   const p = proofRow(db, editionId, version);
   if (p.status !== 'pending') throw new Conflict(`Proof ${version} is ${p.status}; only the pending proof can be approved or returned.`, { status: p.status });
@@ -203,17 +208,17 @@ function mailEditor(tx: DbOrTx, deps: Deps, createdBy: string | null, template: 
 
 /** In proof -> approved: the press file is rendered without the stamp, hashed and stored. */
 export async function approveProof(deps: Deps, who: SessionUser, editionId: string, version: number): Promise<void> {
-  const { r, p: proof } = decidable(deps.db, editionId, version, 'approveProof');
+  const { r, p: proof } = decidable(deps.db, who, editionId, version, 'approveProof');
   // The press file is the approved proof's own document without the stamp (a later change
   // to a puzzle cannot slip into it).
   const doc = proofDocumentOf(proof) ?? loadEditionDocument(deps, editionId).doc;
-  const press = await renderEditionPdf(doc, { stamp: null });
+  const press = await renderEditionPdf(doc, renderOptionsFor(deps.db, doc, { stamp: null }));
   const rel = pressRel(editionId, version);
   const pub = getPublicationRow(deps.db, r.publicationId);
   storeThenRecord(deps, rel, press.pdf, (hash) =>
     deps.db.transaction((tx) => {
       const now = deps.clock.now();
-      const { r: fresh, p } = decidable(tx, editionId, version, 'approveProof');
+      const { r: fresh, p } = decidable(tx, who, editionId, version, 'approveProof');
       tx.update(editionProof).set({ status: 'approved', decidedBy: who.id, decidedAt: now }).where(eq(editionProof.id, p.id)).run();
       moveEdition(tx, fresh, 'approveProof', { pressVersion: version, pressSha256: hash, pressPath: rel, pressBytes: press.pdf.length, pressPages: press.pages, pressCreatedAt: now, updatedAt: now });
       mailEditor(tx, deps, p.createdBy, 'proof-approved', { publication: pub.title, number: String(r.number), version: String(version), printer: who.name, sha256: hash, link: editionLink(deps, `/editions/${editionId}`) }, now);
@@ -228,7 +233,7 @@ export async function approveProof(deps: Deps, who: SessionUser, editionId: stri
 export function returnProof(deps: Deps, who: SessionUser, editionId: string, version: number, notes: string): void {
   deps.db.transaction((tx) => {
     const now = deps.clock.now();
-    const { r, p } = decidable(tx, editionId, version, 'returnProof');
+    const { r, p } = decidable(tx, who, editionId, version, 'returnProof');
     const pub = getPublicationRow(tx, r.publicationId);
     tx.update(editionProof).set({ status: 'returned', notes, decidedBy: who.id, decidedAt: now }).where(eq(editionProof.id, p.id)).run();
     moveEdition(tx, r, 'returnProof', { returnNotes: notes, updatedAt: now });

@@ -6,12 +6,16 @@ import { publication } from './publication-schema';
 import type { PlatformDeps } from '../../platform/deps';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { pageTemplates } from '../print/index';
+import { user as userTable } from '../../platform/auth/schema';
+import { demoAccounts } from '../accounts/index';
+import { assignPrinterToAll, printersOf } from './printers';
 
 type Row = typeof publication.$inferSelect;
 
-export function toPublication(r: Row): Publication {
+export function toPublication(db: DbOrTx, r: Row): Publication {
   return {
     id: r.id,
+    printers: printersOf(db, r.id),
     title: r.title,
     publisher: r.publisher,
     templateId: r.templateId,
@@ -36,7 +40,7 @@ function checkTemplate(templateId: string | undefined) {
 }
 
 export function listPublications(db: DbOrTx): Publication[] {
-  return db.select().from(publication).orderBy(asc(publication.title)).all().map(toPublication);
+  return db.select().from(publication).orderBy(asc(publication.title)).all().map((r) => toPublication(db, r));
 }
 
 export function getPublicationRow(db: DbOrTx, id: string): Row {
@@ -60,7 +64,7 @@ export function createPublication(deps: Pick<PlatformDeps, 'db' | 'clock'>, inpu
       .values({ id: randomUUID(), ...input, createdAt: now, updatedAt: now })
       .returning()
       .get();
-    return toPublication(row);
+    return toPublication(tx, row);
   });
 }
 
@@ -76,7 +80,7 @@ export function updatePublication(deps: Pick<PlatformDeps, 'db' | 'clock'>, id: 
       .returning()
       .get();
     if (!row) throw new NotFound(`No publication ${id}.`);
-    return toPublication(row);
+    return toPublication(tx, row);
   });
 }
 
@@ -115,4 +119,8 @@ export function seedDemoPublications(deps: Pick<PlatformDeps, 'db' | 'clock'>): 
   for (const p of demoPublications) {
     if (!titleTaken(deps.db, p.title)) createPublication(deps, p);
   }
+  // the demo printer prints both publications
+  const printer = demoAccounts.find((a) => a.role === 'printer');
+  const row = printer ? deps.db.select({ id: userTable.id }).from(userTable).where(eq(userTable.email, printer.email)).get() : undefined;
+  if (row) assignPrinterToAll(deps.db, row.id);
 }

@@ -20,6 +20,7 @@ import type { EditionsDeps } from './ports';
 import { runEditionChecks } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
 import { createEdition, getEditionFor, getEditionRow, listEditions, updateEdition } from './editions';
+import { renderOptionsFor } from './press-spec';
 import { approveProof, publishCheck, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
 
 function sendPdf(res: import('express').Response, file: { pdf: Buffer; sha256: string; name: string }, disposition: 'inline' | 'attachment') {
@@ -70,7 +71,8 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
     { method: 'GET', path: '/api/editions/:id/preview.pdf', summary: 'A preview of the edition as it stands (stamped PROOF, not stored)', tags, params: editionIdParamsSchema, produces: 'application/pdf' },
     async ({ params, res }) => {
       getEditionRow(deps.db, params.id);
-      const r = await renderEditionPdf(loadEditionDocument(deps, params.id).doc, { stamp: 'PROOF' });
+      const doc = loadEditionDocument(deps, params.id).doc;
+      const r = await renderEditionPdf(doc, renderOptionsFor(deps.db, doc, { stamp: 'PROOF' }));
       res.status(200).type('application/pdf').setHeader('Cache-Control', 'no-store');
       res.send(r.pdf);
     },
@@ -118,7 +120,7 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
   route(
     router,
     { method: 'GET', path: '/api/editions/:id/press.pdf', summary: 'The press file of an approved edition', tags, params: editionIdParamsSchema, query: download, produces: 'application/pdf' },
-    ({ params, query, res }) => sendPdf(res, readPressFile(deps, params.id), query.download === '1' ? 'attachment' : 'inline'),
+    ({ user, params, query, res }) => sendPdf(res, readPressFile(deps, user, params.id), query.download === '1' ? 'attachment' : 'inline'),
   );
 
   route(

@@ -78,6 +78,10 @@ export const permissions: Record<string, Access> = {
   'GET /api/publications': ['editor'],
   'POST /api/publications': ['admin'],
   'PATCH /api/publications/:id': ['admin'],
+  'PUT /api/publications/:id/output-profile': ['admin'],
+  'GET /api/publications/:id/press-spec': ['editor'],
+  'PUT /api/publications/:id/press-spec': ['admin'],
+  'PUT /api/publications/:id/printers': ['admin'],
   'GET /api/templates': ['editor'],
   'GET /api/templates/:id/sample.pdf': ['editor'],
   // reader edition: public pages' data, checks and anonymous solve events (no session); the

@@ -6,7 +6,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { quadrantPublication } from './fixtures';
+import { assignPrinters, quadrantPublication } from './fixtures';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 import { hasPoppler, pdftotext, writeTemp } from '../print/poppler';
@@ -81,6 +81,7 @@ describe('the edition round', () => {
 
   beforeAll(async () => {
     pubId = (await editor.get('/api/publications')).body.items[0].id;
+    assignPrinters(t, pubId);
   });
 
   it('creates a draft and refuses a duplicate number', async () => {

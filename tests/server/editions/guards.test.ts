@@ -5,7 +5,7 @@ import { parseTiling } from '../../../shared/tiling/index';
 import { preflightChecks } from '../../../server/areas/editions/edition-checks';
 import { preflightWords } from '../../../server/areas/editions/proofs';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { quadrantPublication } from './fixtures';
+import { assignPrinters, quadrantPublication } from './fixtures';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles, type StubPuzzles } from '../print/fixtures/stub-puzzles';
 
@@ -38,6 +38,7 @@ beforeAll(async () => {
   printer = await t.signInAs('printer');
   setterId = await t.createUser('setter');
   pubId = (await admin.post('/api/publications').send(quadrantPublication).expect(201)).body.id;
+  assignPrinters(t, pubId);
   t.clock.set(new Date('2027-03-10T09:00:00Z'));
 });
 afterAll(() => t.close());
@@ -102,7 +103,7 @@ describe('sending to proof', () => {
     expect(sent.body.overrides).toEqual([
       expect.objectContaining({ kind: 'preflight', proofVersion: 1, reason: 'The 2 piece is cut from card; the printer agreed by phone.', byName: expect.any(String), refused: expect.stringMatching(/3 mm minimum/) }),
     ]);
-    const mail = await t.mailbox.waitFor({ to: 'printer@test.squarewright.test', subject: 'Proof 1 ready' });
+    const mail = await t.mailbox.waitFor({ to: 'printer@test.squarewright.test', subject: 'Proof 1 ready: The Saturday Quadrant No. 3' });
     expect(mail.text).toMatch(/FAILED with 1 error\(s\) \(sent anyway by the editor, with a reason\)/);
     expect(mail.text).not.toMatch(/passed/);
   });
@@ -140,6 +141,7 @@ describe('publishing', () => {
     const blocked = (await editor.get(`/api/editions/${ed.id}/publish-check`).expect(200)).body;
     expect(blocked.blockers.map((b: { code: string }) => b.code)).toEqual(['out-of-order']);
     const pub2 = (await admin.post('/api/publications').send({ ...quadrantPublication, title: 'Squared Away Monthly', templateId: 'a4' }).expect(201)).body.id;
+    assignPrinters(t, pub2);
     const lone = (await editor.post('/api/editions').send({ publicationId: pub2, number: 1, date: '2027-03-10' }).expect(201)).body;
     const withSlot = (await editor.patch(`/api/editions/${lone.id}`).send({ slots: [{ puzzleId: printable(TILING_69x61) }] }).expect(200)).body;
     await editor.post(`/api/editions/${lone.id}/proofs`).send({ updatedAt: withSlot.updatedAt }).expect(201);

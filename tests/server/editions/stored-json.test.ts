@@ -8,7 +8,7 @@ import { StoredRowError } from '../../../server/areas/editions/stored-json';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { TILING_33x32, TILING_69x61 } from '../print/fixtures/sample-edition';
 import { stubPuzzles } from '../print/fixtures/stub-puzzles';
-import { quadrantPublication } from './fixtures';
+import { assignPrinters, quadrantPublication } from './fixtures';
 
 // Parse, don't cast: the editions' JSON columns (introduction, slot instructions, a proof's
 // preflight and print document) are read through their schemas; a corrupt row is an error
@@ -36,9 +36,11 @@ beforeAll(async () => {
     .post('/api/publications')
     .send(quadrantPublication)
     .expect(201);
+  assignPrinters(t, pub.body.id);
   editionId = (await ed.post('/api/editions').send({ publicationId: pub.body.id, number: 41, date: '2026-12-05', introduction: plainRichText('Welcome.') }).expect(201)).body.id;
   await ed.patch(`/api/editions/${editionId}`).send({ slots: [{ puzzleId: a.id }, { puzzleId: d.id }] }).expect(200);
-  await ed.post(`/api/editions/${editionId}/proofs`).expect(201);
+  // the stub puzzles break the newspaper column's floors: sent with the editor's reason (issue 16)
+  await ed.post(`/api/editions/${editionId}/proofs`).send({ override: { reason: 'Test: the small pieces are cut from card.' } }).expect(201);
   slotId = t.db.select({ id: editionSlot.id }).from(editionSlot).where(eq(editionSlot.editionId, editionId)).all()[0]!.id;
   proofId = t.db.select({ id: editionProof.id }).from(editionProof).where(eq(editionProof.editionId, editionId)).get()!.id;
 });
