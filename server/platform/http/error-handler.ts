@@ -70,9 +70,10 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
       res.status(400).json(body('bad_request', 'The address is not valid percent-encoding (a % must be followed by two hex digits).', [{ path: 'params', message: 'not valid percent-encoding' }]));
       return;
     }
-    // express.json() failures (body-parser errors carry status + type)
-    const e = err as { status?: unknown; type?: unknown; message?: unknown };
-    if (typeof e.status === 'number' && typeof e.type === 'string') {
+    // express.json() failures (body-parser errors carry status + type; a body that does not
+    // decompress carries status + expose)
+    const e = err as { status?: unknown; type?: unknown; message?: unknown; expose?: unknown };
+    if (typeof e.status === 'number' && (typeof e.type === 'string' || e.expose === true)) {
       if (e.type === 'entity.too.large') {
         res.status(413).json(body('payload_too_large', 'The request body is too large.'));
         return;
