@@ -2,7 +2,7 @@ import type { AppDeps } from './app-deps';
 import { registerAccountRoutes } from './areas/accounts/index';
 import { registerEditionRoutes, registerPublicationRoutes } from './areas/editions/index';
 import { registerFoundryRoutes } from './areas/foundry/index';
-import { registerIntegrationRoutes } from './areas/integrations/index';
+import { registerFeedRoutes, registerIntegrationRoutes } from './areas/integrations/index';
 import { registerTilingRoutes, registerSubmissionRoutes } from './areas/intake/index';
 import { registerMailboxRoutes } from './areas/mailbox/index';
 import { registerMoneyRoutes } from './areas/payouts/index';
@@ -28,6 +28,7 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerPublicationRoutes,
   registerEditionRoutes,
   registerIntegrationRoutes,
+  registerFeedRoutes,
   registerReaderRoutes,
   // the readers' HTML pages (/read, /embed): not API routes, registered on the same router
   registerReaderPages,

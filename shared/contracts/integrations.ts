@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateTimeSchema, pageOf } from './common';
+import { playSchema } from './reader';
 
 // Integrations: API keys for machines, outgoing events (webhooks) and the published-content feed.
 
@@ -189,22 +190,22 @@ export const feedQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
 
+const placedSchema = z.object({ x: z.number().int().min(0), y: z.number().int().min(0), size: z.number().int().positive() });
+
 export const feedPuzzleSchema = z.object({
-  /** stable: `<editionId>-<slot position>` */
+  /** stable: `<edition id>-<position>` */
   id: z.string(),
   position: z.number().int().positive(),
   kind: z.enum(['assembly', 'deduction']),
   title: z.string(),
-  grade: z.number().int().min(1).max(5).nullable(),
-  width: z.number().int().positive(),
-  height: z.number().int().positive(),
-  /** Assembly: the square sizes to place; Deduction: the givens */
-  pieces: z.array(z.number().int().positive()).nullable(),
-  givens: z.array(z.object({ x: z.number().int(), y: z.number().int(), size: z.number().int().positive() })).nullable(),
-  starters: z.array(z.object({ x: z.number().int(), y: z.number().int(), size: z.number().int().positive() })).nullable(),
+  /** the engine's grade, 1 (gentle) to 5 (fiendish) */
+  grade: z.number().int().min(1).max(5),
+  /** what the printed page shows: the frame and pieces (Assembly) or the drawing and givens (Deduction) */
+  play: playSchema,
   /** the full tiling, only once the publication's rule makes solutions public; null before */
-  solution: z.object({ squares: z.array(z.object({ x: z.number().int(), y: z.number().int(), size: z.number().int().positive() })) }).nullable(),
+  solution: z.object({ W: z.number().int().positive(), H: z.number().int().positive(), squares: z.array(placedSchema) }).nullable(),
 });
+export type FeedPuzzle = z.infer<typeof feedPuzzleSchema>;
 
 export const feedEditionSchema = z.object({
   id: z.string(),

@@ -1,6 +1,6 @@
 // The integrations area's public face: API keys, webhooks (outbox, sender, local receiver)
 // and the published-content feed.
-export { registerIntegrationRoutes } from './routes';
+export { registerFeedRoutes, registerIntegrationRoutes } from './routes';
 export { createWebhookSender, emitEvent, type WebhookSender, type WebhookSenderOptions } from './outbox';
 export { sign, verifySignature, signatureHeader, timestampHeader } from './signing';
 export { localReceiverPath } from './receiver';

@@ -1,5 +1,6 @@
 import type { PlatformDeps } from '../../platform/deps';
 import type { PuzzleSource } from '../editions/ports';
+import type { PublishedContent } from '../reader/ports';
 import type { WebhookSender } from './outbox';
 
 // The integrations area's ports: the webhook sender (built in server/compose.ts; it is also
@@ -9,6 +10,8 @@ import type { WebhookSender } from './outbox';
 export type IntegrationsDeps = PlatformDeps & {
   webhooks: WebhookSender;
   puzzles: PuzzleSource;
+  /** THE release rule of published content (the reader area's; interfaces.md 2026-12-04) */
+  publishedContent: PublishedContent;
   /** the local receiver answers (development, demo and tests; never a production server without demo) */
   localReceiver: boolean;
 };

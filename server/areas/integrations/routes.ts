@@ -1,3 +1,4 @@
+import type { Request, Response } from 'express';
 import { z } from 'zod';
 import { idParamSchema, okSchema } from '../../../shared/contracts/common';
 import {
@@ -5,6 +6,9 @@ import {
   apiKeySchema,
   createApiKeyBodySchema,
   createApiKeyResponseSchema,
+  feedEditionSchema,
+  feedPageSchema,
+  feedQuerySchema,
   webhookDeliveryDetailSchema,
   webhookDeliveryPageSchema,
   webhookDeliveryQuerySchema,
@@ -19,6 +23,7 @@ import {
 import { NotFound } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { createApiKey, listApiKeys, revokeApiKey } from './api-keys';
+import { etagOf, feedEdition, feedPage, notModified } from './feed';
 import type { IntegrationsDeps } from './ports';
 import { listReceipts, localReceiverPath, receiveLocally } from './receiver';
 import { createEndpoint, deleteEndpoint, getDelivery, listDeliveries, listEndpoints, resendDelivery, rotateSecret, updateEndpoint } from './webhooks';
@@ -151,5 +156,41 @@ export function registerIntegrationRoutes(router: ApiRouter, deps: IntegrationsD
       if (!deps.localReceiver) throw new NotFound('The local receiver is off on this server.');
       return receiveLocally(deps.db, req, Math.floor(deps.clock.now().getTime() / 1000));
     },
+  );
+}
+
+/** The published-content feed (editions:read keys, editors): JSON, paged, with an ETag (304 when unchanged). */
+export function registerFeedRoutes(router: ApiRouter, deps: IntegrationsDeps) {
+  const answer = <T>(req: Request, res: Response, body: T): T | undefined => {
+    const etag = etagOf(body);
+    res.setHeader('ETag', etag);
+    // cacheable by the caller, checked again each time (the answer changes at release times)
+    res.setHeader('Cache-Control', 'private, no-cache');
+    res.setHeader('Vary', 'Authorization, Cookie');
+    if (notModified(req.headers['if-none-match'], etag)) {
+      res.status(304).end();
+      return undefined;
+    }
+    return body;
+  };
+
+  route(
+    router,
+    {
+      method: 'GET',
+      path: '/api/feed/editions',
+      summary: 'Published editions readers may see now, newest first, with their puzzles (solutions once the publication\u2019s rule allows)',
+      tags: ['feed'],
+      query: feedQuerySchema,
+      response: feedPageSchema,
+      etag: true,
+    },
+    ({ req, res, query }) => answer(req, res, feedPage(deps, query)),
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/feed/editions/:id', summary: 'One published edition with its puzzles (404 until it is public)', tags: ['feed'], params: idParamSchema, response: feedEditionSchema, etag: true },
+    ({ req, res, params }) => answer(req, res, feedEdition(deps, params.id)),
   );
 }

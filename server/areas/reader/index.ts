@@ -5,4 +5,6 @@ export { registerReaderRoutes } from './routes';
 export { registerReaderPages } from './page-routes';
 export { seedDemoSolves } from './demo-seed';
 export { publishedContent } from './published';
+// the play data of a printed puzzle (never its solution): the integrations' feed shows the same
+export { playOf } from './public-view';
 export { releaseMoment, releasesOf, type Release, type ReleaseEdition, type ReleaseSettings } from './release';

@@ -102,6 +102,8 @@ export const permissions: Record<string, Access> = {
   'GET /api/api-keys': ['editor'],
   'POST /api/api-keys': ['editor'],
   'POST /api/api-keys/:id/revoke': ['editor'],
+  'GET /api/feed/editions': ['editor'],
+  'GET /api/feed/editions/:id': ['editor'],
   'GET /api/webhooks/deliveries': ['admin'],
   'GET /api/webhooks/deliveries/:id': ['admin'],
   'POST /api/webhooks/deliveries/:id/resend': ['admin'],

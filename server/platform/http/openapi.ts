@@ -4,15 +4,20 @@ import * as commonContracts from '../../../shared/contracts/common';
 import * as editionsContracts from '../../../shared/contracts/editions';
 import * as foundryContracts from '../../../shared/contracts/foundry';
 import * as integrationsContracts from '../../../shared/contracts/integrations';
+import * as jobsContracts from '../../../shared/contracts/jobs';
 import * as ledgerContracts from '../../../shared/contracts/ledger';
 import * as payoutsContracts from '../../../shared/contracts/payouts';
+import * as preflightContracts from '../../../shared/contracts/preflight';
+import * as pressContracts from '../../../shared/contracts/press';
 import * as publicationsContracts from '../../../shared/contracts/publications';
 import * as puzzlesContracts from '../../../shared/contracts/puzzles';
+import * as readerContracts from '../../../shared/contracts/reader';
 import * as stockContracts from '../../../shared/contracts/stock';
 import * as submissionsContracts from '../../../shared/contracts/submissions';
 import * as templatesContracts from '../../../shared/contracts/templates';
 import * as tilingsContracts from '../../../shared/contracts/tilings';
 import * as usersContracts from '../../../shared/contracts/users';
+import { routeExamples } from './openapi-examples';
 
 // The OpenAPI 3.1 document, generated from the same zod schemas the routes parse with,
 // through zod 4's own z.toJSONSchema (decisions 003 and 080).
@@ -31,10 +36,14 @@ export const contractModules: Record<string, Record<string, unknown>> = {
   editions: editionsContracts,
   foundry: foundryContracts,
   integrations: integrationsContracts,
+  jobs: jobsContracts,
   ledger: ledgerContracts,
   payouts: payoutsContracts,
+  preflight: preflightContracts,
+  press: pressContracts,
   publications: publicationsContracts,
   puzzles: puzzlesContracts,
+  reader: readerContracts,
   stock: stockContracts,
   submissions: submissionsContracts,
   templates: templatesContracts,
@@ -167,16 +176,120 @@ function mergeForms(output: Record<string, Json>, input: Record<string, Json>) {
       }
     }
   }
+  // `<Name>Input`, unless a contract already has that name (publicationInputSchema beside publicationSchema)
+  const inputNames = new Map<string, string>();
+  for (const id of differs) {
+    let name = `${id}Input`;
+    while (output[name] || input[name]) name = `${name}Form`;
+    inputNames.set(id, name);
+  }
   const rename = (s: Json) =>
     JSON.parse(
       JSON.stringify(s).replace(new RegExp(`"${refPrefix.replace(/[/#]/g, '\\$&')}(\\w+?)${inputMark}"`, 'g'), (_m, id: string) =>
-        differs.has(id) ? `"${refPrefix}${id}Input"` : `"${refPrefix}${id}"`,
+        inputNames.has(id) ? `"${refPrefix}${inputNames.get(id)}"` : `"${refPrefix}${id}"`,
       ),
     ) as Json;
   const components: Record<string, Json> = {};
   for (const [id, s] of Object.entries(output)) components[id] = s;
-  for (const id of differs) components[`${id}Input`] = rename(input[id]!);
-  return { components, inputVariants: new Set([...differs].map((id) => `${id}Input`)), inputName: (id: string) => (differs.has(id) ? `${id}Input` : id) };
+  for (const id of differs) components[inputNames.get(id)!] = rename(input[id]!);
+  return { components, inputVariants: new Set(inputNames.values()), inputName: (id: string) => inputNames.get(id) ?? id };
+}
+
+/**
+ * An example value made from a JSON schema (the first enum value, the smallest number allowed,
+ * one item per list, a fixed date...). The document shows it only when the route's own zod
+ * schema accepts it (see `document`), so an example is never one the API would refuse.
+ */
+const sampleStrings = [
+  'GBP',
+  'GB',
+  '2026-12-05',
+  '2026-12',
+  '09:00',
+  'Europe/London',
+  'https://www.example.com',
+  '9 33 32 (18,15)(7,8)(14,4)(10,1)(9)',
+  'b94d27b9934d3e08a52e52d7da7dabfac484efe37a5380ee9088f7ace2efcde9',
+];
+const stringHints: Record<string, string> = {
+  currency: 'GBP',
+  country: 'GB',
+  date: '2026-12-05',
+  editionDate: '2026-12-05',
+  month: '2026-12',
+  timeZone: 'Europe/London',
+  releaseTime: '09:00',
+  code: '9 33 32 (18,15)(7,8)(14,4)(10,1)(9)',
+};
+
+export function exampleOf(schema: unknown, components: Record<string, Json>, depth = 0, mode: 'request' | 'response' = 'response', name = ''): unknown {
+  if (!schema || typeof schema !== 'object' || depth > 40) return null;
+  const s = schema as Json;
+  const next = (x: unknown, n = name) => exampleOf(x, components, depth + 1, mode, n);
+  if (typeof s.$ref === 'string') return next(components[s.$ref.slice(refPrefix.length)]);
+  if (Array.isArray(s.examples) && s.examples.length > 0) return s.examples[0];
+  if ('const' in s) return s.const;
+  if (Array.isArray(s.enum)) return s.enum[0];
+  for (const k of ['anyOf', 'oneOf'] as const) {
+    const options = s[k];
+    if (Array.isArray(options)) {
+      const pick = options.find((o) => !(o && typeof o === 'object' && (o as Json).type === 'null')) ?? options[0];
+      return next(pick);
+    }
+  }
+  if (Array.isArray(s.allOf)) return Object.assign({}, ...s.allOf.map((o) => next(o) as object));
+  const type = Array.isArray(s.type) ? (s.type as string[]).find((x) => x !== 'null') : s.type;
+  switch (type) {
+    case 'object': {
+      // a request names what it must; an answer shows every field
+      const props = (s.properties ?? {}) as Record<string, unknown>;
+      const required = new Set(Array.isArray(s.required) ? (s.required as string[]) : []);
+      const out: Json = {};
+      for (const [k, v] of Object.entries(props)) if (mode === 'response' || required.has(k)) out[k] = next(v, k);
+      // a change request with every field optional: name the first one
+      const first = Object.entries(props)[0];
+      if (Object.keys(out).length === 0 && first) out[first[0]] = next(first[1], first[0]);
+      return out;
+    }
+    case 'array': {
+      if (Array.isArray(s.prefixItems)) return s.prefixItems.map((x) => next(x));
+      const n = Math.max(1, Number(s.minItems ?? 1));
+      // deep lists (the rich text's own nodes) stay empty when they may
+      return depth > 16 && !s.minItems ? [] : Array.from({ length: n }, () => next(s.items));
+    }
+    case 'integer':
+    case 'number': {
+      const min = typeof s.minimum === 'number' ? s.minimum : typeof s.exclusiveMinimum === 'number' ? s.exclusiveMinimum + 1 : 1;
+      const max = typeof s.maximum === 'number' ? s.maximum : typeof s.exclusiveMaximum === 'number' ? s.exclusiveMaximum - 1 : Number.MAX_SAFE_INTEGER;
+      return Math.min(Math.max(min, 1), max);
+    }
+    case 'boolean':
+      return true;
+    case 'null':
+      return null;
+    case 'string': {
+      const formats: Record<string, string> = {
+        'date-time': '2026-12-04T09:00:00.000Z',
+        date: '2026-12-05',
+        email: 'editor@demo.squarewright.test',
+        uri: 'https://desk.example.org/hooks/squarewright',
+        url: 'https://desk.example.org/hooks/squarewright',
+        uuid: '6f1c2a4e-0d7b-4c39-9a51-2f7d3c1b8e90',
+      };
+      if (typeof s.format === 'string' && formats[s.format]) return formats[s.format];
+      if (typeof s.pattern === 'string') {
+        const re = new RegExp(s.pattern as string, 'u');
+        const fit = [stringHints[name], ...sampleStrings].find((x) => x !== undefined && re.test(x));
+        if (fit) return fit;
+      }
+      if (stringHints[name]) return stringHints[name];
+      const min = Number(s.minLength ?? 0);
+      const text = 'text';
+      return min > text.length ? 'x'.repeat(min) : text;
+    }
+    default:
+      return null;
+  }
 }
 
 const errorStatuses = {
@@ -230,11 +343,20 @@ function accessText(access: OpenApiRoute['access']): string {
 export class OpenApiCollector {
   readonly routes: OpenApiRoute[] = [];
 
+  private built: { version: string; doc: ReturnType<OpenApiCollector['build']> } | undefined;
+
   add(route: OpenApiRoute) {
     this.routes.push(route);
+    this.built = undefined;
   }
 
+  /** The document (built once; the routes do not change after start-up). */
   document(version: string) {
+    if (this.built?.version !== version) this.built = { version, doc: this.build(version) };
+    return this.built.doc;
+  }
+
+  private build(version: string) {
     const names = contractNames();
     const registry = z.registry<{ id: string }>();
     const used = new Set<string>();
@@ -294,15 +416,23 @@ export class OpenApiCollector {
       }));
     };
 
+    /** the route's own example, else one made from its schema if the route's zod schema accepts it */
+    const exampleFor = (given: unknown, schema: z.ZodType | undefined, componentId: string | undefined, mode: 'request' | 'response'): { example?: unknown } => {
+      if (!schema || !componentId) return given === undefined ? {} : { example: given };
+      if (given !== undefined) return schema.safeParse(given).success ? { example: given } : {};
+      const made = exampleOf({ $ref: `${refPrefix}${componentId}` }, components, 0, mode);
+      return schema.safeParse(made).success ? { example: made } : {};
+    };
     const paths: Record<string, Record<string, Json>> = {};
     for (const { r, operationId, body, response } of plan) {
+      const given = { ...routeExamples[`${r.method} ${r.path}`], ...r.examples };
       const status = String(r.status ?? 200);
       const headers = r.etag ? { ETag: { description: 'version of this answer; send it back in If-None-Match', schema: { type: 'string' } } } : undefined;
       const success: Json = response
         ? {
             description: 'OK',
             ...(headers ? { headers } : {}),
-            content: { 'application/json': { schema: { $ref: `${refPrefix}${response}` }, ...(r.examples?.response !== undefined ? { example: r.examples.response } : {}) } },
+            content: { 'application/json': { schema: { $ref: `${refPrefix}${response}` }, ...exampleFor(given.response, r.response, response, 'response') } },
           }
         : r.produces
           ? { description: 'OK', content: { [r.produces]: { schema: { type: 'string', contentMediaType: r.produces } } } }
@@ -325,7 +455,7 @@ export class OpenApiCollector {
         const content: Json =
           r.bodyType === 'multipart'
             ? { 'multipart/form-data': { schema: inline(r.body) } }
-            : { 'application/json': { schema: { $ref: `${refPrefix}${inputName(body!)}` }, ...(r.examples?.request !== undefined ? { example: r.examples.request } : {}) } };
+            : { 'application/json': { schema: { $ref: `${refPrefix}${inputName(body!)}` }, ...exampleFor(given.request, r.body, inputName(body!), 'request') } };
         op.requestBody = { required: true, content };
       }
       const p = toOpenApiPath(r.path);
