@@ -18,6 +18,8 @@ const exhaustiveSchema = z
     mode: z.literal('exhaustive'),
     order: z.number().int().min(EXHAUSTIVE_ORDER_MIN).max(EXHAUSTIVE_ORDER_MAX),
     squaresOnly: z.boolean().default(false),
+    /** also put the simple imperfect tilings into the stock (by default only the perfect ones go in; all are listed in the run's results) */
+    includeImperfect: z.boolean().default(false),
   })
   .strict()
   .refine((v) => v.squaresOnly || v.order <= EXHAUSTIVE_ALL_MAX, {
@@ -69,6 +71,9 @@ export const runSchema = z.object({
   error: z.string().nullable(),
   /** distinct tilings this run found */
   found: z.number().int().nonnegative(),
+  /** of those, perfect (all sizes different) and imperfect */
+  foundPerfect: z.number().int().nonnegative(),
+  foundImperfect: z.number().int().nonnegative(),
   /** of those, how many were new to the stock */
   addedToStock: z.number().int().nonnegative(),
   /** an interrupted, failed or cancelled run may run again (resume: its finished shards are kept) */

@@ -33,7 +33,7 @@ export function seedDemoFoundry(deps: FoundryDeps): void {
   const editorEmail = demoAccounts.find((a) => a.role === 'editor')?.email;
   const editor = editorEmail ? db.select({ id: user.id }).from(user).where(eq(user.email, editorEmail)).get() : undefined;
   const by = editor?.id ?? null;
-  record(deps.stock, db, { mode: 'exhaustive', order: 10, squaresOnly: false }, by, (found) => exhaustiveTilings({ order: 10, onFound: (t) => { if (t.perfect) found(t); } }));
+  record(deps.stock, db, { mode: 'exhaustive', order: 10, squaresOnly: false, includeImperfect: false }, by, (found) => exhaustiveTilings({ order: 10, onFound: (t) => { if (t.perfect) found(t); } }));
   const known = new Set(deps.stock.allKeys(db));
   const request = { mode: 'random', count: 8, orderMin: 13, orderMax: 17, maxSide: 150, squaresOnly: false, seed: 2026 } as const;
   record(deps.stock, db, request, by, (found) => randomTilings({ ...request, isKnown: (k) => known.has(k), onFound: found }));

@@ -31,7 +31,9 @@ function parseItem(runId: string, raw: unknown) {
 export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: RunRequest, items: unknown[]): void {
   for (const raw of items) {
     const it = parseItem(runId, raw);
-    const s = stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } });
+    // exhaustive runs list every simple tiling; only the perfect ones go into the stock unless the run asked for imperfect ones too (issue 16)
+    const toStock = it.perfect || params.mode !== 'exhaustive' || params.includeImperfect;
+    const s = toStock ? stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } }) : { id: null, created: false };
     tx.insert(foundryResult)
       .values({
         jobId: runId,
@@ -93,16 +95,17 @@ export function startRun(deps: { db: Db; jobs: Jobs }, request: RunRequest, user
   return getRun(deps, id);
 }
 
-function counts(db: Db, id: string): { found: number; added: number } {
+function counts(db: Db, id: string): { found: number; perfect: number; added: number } {
   const r = db
     .select({
       found: count(),
+      perfect: sql<number>`coalesce(sum(case when ${foundryResult.perfect} then 1 else 0 end), 0)`,
       added: sql<number>`coalesce(sum(case when json_extract(${foundryResult.origin}, '$.addedToStock') then 1 else 0 end), 0)`,
     })
     .from(foundryResult)
     .where(eq(foundryResult.jobId, id))
     .get();
-  return { found: r?.found ?? 0, added: Number(r?.added ?? 0) };
+  return { found: r?.found ?? 0, perfect: Number(r?.perfect ?? 0), added: Number(r?.added ?? 0) };
 }
 
 function toRun(db: Db, r: JobRecord): Run {
@@ -116,6 +119,8 @@ function toRun(db: Db, r: JobRecord): Run {
     summary: runSummarySchema.nullable().parse(r.summary ?? null),
     error: r.error,
     found: c.found,
+    foundPerfect: c.perfect,
+    foundImperfect: c.found - c.perfect,
     addedToStock: c.added,
     retry: r.retry,
     createdAt: r.createdAt.toISOString(),

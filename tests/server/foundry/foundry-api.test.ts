@@ -59,26 +59,26 @@ describe('foundry runs API', () => {
     await editor.get('/api/foundry/runs/00000000-0000-4000-8000-000000000000').expect(404);
   });
 
-  it('an exhaustive order-9 run puts the 2 simple perfect and the 1 simple imperfect rectangle into the stock', async () => {
+  it('an exhaustive order-9 run finds 2 simple perfect and 1 simple imperfect rectangle, and puts only the perfect ones into the stock', async () => {
     // OEIS A002839 (2 simple perfect of order 9) and A002881 (1 simple imperfect of order 9).
     const editor = await t.signInAs('editor');
     const res = await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 9 }).expect(201);
     const started = runSchema.parse(res.body);
-    expect(started.params).toEqual({ mode: 'exhaustive', order: 9, squaresOnly: false });
+    expect(started.params).toEqual({ mode: 'exhaustive', order: 9, squaresOnly: false, includeImperfect: false });
     const run = await waitFinished(editor, started.id);
     expect(run.state).toBe('done');
     expect(run.summary).toMatchObject({ order: 9, graphs: 2, simplePerfect: 2, simpleImperfect: 1 });
-    expect(run.found).toBe(3);
-    expect(run.addedToStock).toBe(3);
+    expect([run.found, run.foundPerfect, run.foundImperfect, run.addedToStock]).toEqual([3, 2, 1, 2]);
     const rows = t.db.select({ key: stock.canonicalKey, provenance: stock.provenance, params: stock.paramsJson, perfect: stock.perfect }).from(stock).where(eq(stock.provenance, 'foundry')).all();
-    expect(rows.length).toBe(3);
+    expect(rows.length).toBe(2);
+    expect(rows.every((r) => r.perfect)).toBe(true);
     // the 33 x 32 rectangle of order 9 (squaring.net catalogue)
     expect(rows.map((r) => r.key)).toContain('33x32:18,15,7,8,14,4,10,1,9');
-    expect(rows.filter((r) => r.perfect).length).toBe(2);
     expect(JSON.parse(rows[0]!.params!)).toMatchObject({ runId: started.id, mode: 'exhaustive', order: 9 });
     const results = runResultsSchema.parse((await editor.get(`/api/foundry/runs/${started.id}/results`).expect(200)).body);
     expect(results.total).toBe(3);
-    expect(results.items.every((r) => r.stockId !== null)).toBe(true);
+    // every result is listed; the imperfect one has no stock row
+    expect(results.items.map((r) => `${r.perfect}:${r.stockId !== null}`).sort()).toEqual(['false:false', 'true:true', 'true:true']);
 
     // a second run finds the same tilings but adds nothing new to the stock
     const again = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 9 }).expect(201)).body);
@@ -86,6 +86,12 @@ describe('foundry runs API', () => {
     expect([run2.found, run2.addedToStock]).toEqual([3, 0]);
     const list = runListSchema.parse((await editor.get('/api/foundry/runs').expect(200)).body);
     expect(list.items[0]!.id).toBe(again.id);
+
+    // asked for, the imperfect one goes in too
+    const all = runSchema.parse((await editor.post('/api/foundry/runs').send({ mode: 'exhaustive', order: 9, includeImperfect: true }).expect(201)).body);
+    const run3 = await waitFinished(editor, all.id);
+    expect([run3.foundPerfect, run3.foundImperfect, run3.addedToStock]).toEqual([2, 1, 1]);
+    expect(t.db.select({ perfect: stock.perfect }).from(stock).where(eq(stock.provenance, 'foundry')).all().filter((r) => !r.perfect)).toHaveLength(1);
   });
 
   it('a random run is reproducible from its seed and skips what the stock has', async () => {

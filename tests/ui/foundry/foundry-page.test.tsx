@@ -7,12 +7,14 @@ import { meAs, renderApp, stubFetch } from '../app/render-app';
 const running: Run = {
   id: '11111111-1111-4111-8111-111111111111',
   state: 'running',
-  params: { mode: 'exhaustive', order: 16, squaresOnly: false },
+  params: { mode: 'exhaustive', order: 16, squaresOnly: false, includeImperfect: false },
   progress: { phase: 'graphs solved', done: 412, total: 1342, found: 2700, rate: 310.5, etaMs: 3000, elapsedMs: 1400 },
   summary: null,
   error: null,
   found: 2700,
-  addedToStock: 2650,
+  foundPerfect: 2500,
+  foundImperfect: 200,
+  addedToStock: 2450,
   retry: { resume: false, restart: false },
   createdAt: '2026-12-02T01:00:00.000Z',
   startedAt: '2026-12-02T01:00:01.000Z',
@@ -29,7 +31,7 @@ describe('the foundry page', () => {
     renderApp('/foundry');
     const bar = await screen.findByRole('progressbar', { name: 'Exhaustive, order 16' }, { timeout: 10_000 }); // the page is a lazy route
     expect(bar.getAttribute('aria-valuenow')).toBe(String(Math.round((412 / 1342) * 100)));
-    expect(bar.getAttribute('aria-valuetext')).toMatch(/412 of 1,342 graphs solved · 310.5 \/s · 3 s left · 2,700 tilings found/);
+    expect(bar.getAttribute('aria-valuetext')).toMatch(/412 of 1,342 graphs solved · 310.5 \/s · 3 s left · 2,500 perfect and 200 imperfect found/);
     const row = screen.getByRole('row', { name: `Run ${running.id}` });
     await userEvent.click(within(row).getByRole('button', { name: 'Cancel' }));
     await expect.poll(() => calls.some((c) => c.method === 'POST' && c.path.endsWith('/cancel'))).toBe(true);
@@ -56,6 +58,6 @@ describe('the foundry page', () => {
     await userEvent.clear(within(form).getByLabelText(/Order/));
     await userEvent.type(within(form).getByLabelText(/Order/), '9');
     await userEvent.click(within(form).getByRole('button', { name: 'Start run' }));
-    await expect.poll(() => calls.find((c) => c.method === 'POST')?.body).toEqual({ mode: 'exhaustive', order: 9, squaresOnly: false });
+    await expect.poll(() => calls.find((c) => c.method === 'POST')?.body).toEqual({ mode: 'exhaustive', order: 9, squaresOnly: false, includeImperfect: false });
   });
 });

@@ -36,7 +36,7 @@ export function FoundryPage() {
   return (
     <Page
       title="Foundry"
-      description="Mint new tilings from 3-connected planar networks: every tiling of an order, random ones with filters, or squared squares joined from stock pairs. Results go into the stock with provenance foundry."
+      description="Mint new tilings from 3-connected planar networks: every tiling of an order, random ones with filters, or squared squares joined from stock pairs. Perfect results go into the stock with provenance foundry (imperfect ones only when a run asks for them)."
     >
       <RunForm />
       <section aria-labelledby="runs-heading" className="flex flex-col gap-3">
@@ -49,7 +49,7 @@ export function FoundryPage() {
         ) : runs.data.length === 0 ? (
           <EmptyState title="No runs yet" />
         ) : (
-          <FramedTable caption="Foundry runs" headings={['Run', 'State', 'Found', 'New in stock', 'Started', '']} ruledHead>
+          <FramedTable caption="Foundry runs" headings={['Run', 'State', 'Perfect found', 'Imperfect found', 'New in stock', 'Started', '']} ruledHead>
             {runs.data.map((run) => (
               <RunRow key={run.id} run={run} cancelling={cancel.isPending && cancel.variables === run.id} onCancel={() => cancel.mutate(run.id)} />
             ))}
@@ -70,7 +70,8 @@ function RunRow({ run, cancelling, onCancel }: { run: Run; cancelling: boolean; 
       <td className="px-3 py-2">
         <StatusBadge tone={stateTone[run.state]}>{stateLabel[run.state]}</StatusBadge>
       </td>
-      <td className="px-3 py-2 tabular-nums">{run.found.toLocaleString('en-GB')}</td>
+      <td className="px-3 py-2 tabular-nums">{run.foundPerfect.toLocaleString('en-GB')}</td>
+      <td className="px-3 py-2 tabular-nums">{run.foundImperfect.toLocaleString('en-GB')}</td>
       <td className="px-3 py-2 tabular-nums">{run.addedToStock.toLocaleString('en-GB')}</td>
       <td className="px-3 py-2 tabular-nums text-ink-muted">{formatDateTime(run.startedAt ?? run.createdAt)}</td>
       <td className="px-3 py-2 text-right">

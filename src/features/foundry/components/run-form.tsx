@@ -33,10 +33,10 @@ function num(v: string | undefined): number | undefined {
 }
 
 /** Build the request from the form and validate it with the shared contract. */
-export function toRunRequest(mode: RunMode, f: Fields, squaresOnly: boolean) {
+export function toRunRequest(mode: RunMode, f: Fields, squaresOnly: boolean, includeImperfect = false) {
   const raw =
     mode === 'exhaustive'
-      ? { mode, order: num(f.order), squaresOnly }
+      ? { mode, order: num(f.order), squaresOnly, includeImperfect }
       : mode === 'random'
         ? { mode, count: num(f.count), orderMin: num(f.orderMin), orderMax: num(f.orderMax), maxSide: num(f.maxSide), aspectMin: num(f.aspectMin), aspectMax: num(f.aspectMax), squaresOnly, seed: num(f.seed) }
         : { mode };
@@ -48,6 +48,7 @@ export function RunForm() {
   const [mode, setMode] = useState<RunMode>('exhaustive');
   const [fields, setFields] = useState<Fields>(initial);
   const [squaresOnly, setSquaresOnly] = useState(false);
+  const [includeImperfect, setIncludeImperfect] = useState(false);
   const [errors, setErrors] = useState<Record<string, string>>({});
   const start = useStartRun();
 
@@ -64,7 +65,7 @@ export function RunForm() {
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const parsed = toRunRequest(mode, fields, squaresOnly);
+    const parsed = toRunRequest(mode, fields, squaresOnly, includeImperfect);
     if (!parsed.success) {
       const errs: Record<string, string> = {};
       for (const issue of parsed.error.issues) {
@@ -105,6 +106,14 @@ export function RunForm() {
           </p>
         ) : null}
         {mode !== 'joining' ? <CheckboxField label="Squares only" checked={squaresOnly} onChange={(e) => setSquaresOnly(e.target.checked)} /> : null}
+        {mode === 'exhaustive' ? (
+          <CheckboxField
+            label="Put imperfect tilings into the stock too"
+            hint="By default only the perfect ones (all sizes different) go into the stock; the run lists both."
+            checked={includeImperfect}
+            onChange={(e) => setIncludeImperfect(e.target.checked)}
+          />
+        ) : null}
         {errors.form ? <Alert tone="danger" title="Check the parameters">{errors.form}</Alert> : null}
         <ErrorAlert error={start.error} title="The run did not start" />
         <div>

@@ -19,6 +19,12 @@ export function describeRun(run: Run): string {
   return 'Joining';
 }
 
+/** "2,609 perfect and 283 imperfect found": the split the run page and the list show. */
+export function foundText(run: Pick<Run, 'found' | 'foundPerfect' | 'foundImperfect'>): string {
+  if (run.found === 0) return 'no tilings found yet';
+  return `${run.foundPerfect.toLocaleString('en-GB')} perfect and ${run.foundImperfect.toLocaleString('en-GB')} imperfect found`;
+}
+
 /** The progress line of a run: "412 of 1,342 graphs solved · 310 /s · 3 s left". */
 export function progressDetail(run: Run): string {
   const p = run.progress;
@@ -26,7 +32,7 @@ export function progressDetail(run: Run): string {
   const parts = [`${p.done.toLocaleString('en-GB')}${p.total !== undefined ? ` of ${p.total.toLocaleString('en-GB')}` : ''} ${p.phase ?? ''}`.trim()];
   if (p.rate !== undefined && run.state === 'running') parts.push(`${p.rate.toLocaleString('en-GB')} /s`);
   if (p.etaMs !== undefined && run.state === 'running') parts.push(`${formatDuration(p.etaMs)} left`);
-  parts.push(`${run.found.toLocaleString('en-GB')} tilings found`);
+  parts.push(foundText(run));
   return parts.join(' · ');
 }
 

@@ -20,6 +20,23 @@ export function RunResultsPage() {
       {run.isPending ? <Loading /> : run.error ? <ErrorAlert error={run.error} title="Could not load the run" /> : (
         <Card>
           <RunProgress run={run.data} />
+          <dl className="mt-3 grid grid-cols-3 gap-3 text-sm">
+            <div>
+              <dt className="text-ink-muted">Perfect found</dt>
+              <dd className="text-xl font-semibold tabular-nums">{run.data.foundPerfect.toLocaleString('en-GB')}</dd>
+            </div>
+            <div>
+              <dt className="text-ink-muted">Imperfect found</dt>
+              <dd className="text-xl font-semibold tabular-nums">{run.data.foundImperfect.toLocaleString('en-GB')}</dd>
+            </div>
+            <div>
+              <dt className="text-ink-muted">New in the stock</dt>
+              <dd className="text-xl font-semibold tabular-nums">{run.data.addedToStock.toLocaleString('en-GB')}</dd>
+            </div>
+          </dl>
+          {run.data.params.mode === 'exhaustive' ? (
+            <p className="mt-2 text-sm text-ink-muted">{run.data.params.includeImperfect ? 'Perfect and imperfect tilings went into the stock.' : 'Only the perfect tilings went into the stock; the imperfect ones are listed here.'}</p>
+          ) : null}
           {run.data.error ? <p className="text-sm text-danger">{run.data.error}</p> : null}
         </Card>
       )}
