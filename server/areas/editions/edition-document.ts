@@ -15,7 +15,7 @@ import { instructionsOf, introductionOf } from './stored-json';
 // puzzles in slot order, solutions by the publication's rule), loaded from the database
 // and the puzzle store, with the slots whose puzzle could not be found.
 
-function toPuzzlePrint(p: PuzzleForPrint, slot: number, instructions: RichTextDoc): PuzzlePrint {
+export function toPuzzlePrint(p: PuzzleForPrint, slot: number, instructions: RichTextDoc): PuzzlePrint {
   if (p.kind === 'assembly') {
     const a = p.assembly ?? { frame: { W: p.solution.tiling.W, H: p.solution.tiling.H }, pieces: p.solution.tiling.squares.map((q) => q.s), starters: [] };
     return { slot, kind: 'assembly', title: p.title, instructions, grade: p.grade, frame: a.frame, pieces: a.pieces, starters: a.starters };
@@ -24,7 +24,7 @@ function toPuzzlePrint(p: PuzzleForPrint, slot: number, instructions: RichTextDo
   return { slot, kind: 'deduction', title: p.title, instructions, grade: p.grade, layout: d.layout, givens: d.givens };
 }
 
-function toSolutionPrint(p: PuzzleForPrint, slot: number, caption?: string): SolutionPrint {
+export function toSolutionPrint(p: PuzzleForPrint, slot: number, caption?: string): SolutionPrint {
   return { slot, ...(caption === undefined ? {} : { caption }), kind: p.kind, tiling: p.solution.tiling, steps: p.kind === 'deduction' ? p.solution.steps : undefined };
 }
 

@@ -6,7 +6,7 @@ import { templatePressDefaults } from '../../../shared/contracts/templates';
 import type { DbOrTx } from '../../platform/db/client';
 import type { PlatformDeps } from '../../platform/deps';
 import { Unprocessable } from '../../platform/http/errors';
-import { getPageTemplate, type EditionDocument, type RenderOptions } from '../print/index';
+import { getPageTemplate, type EditionDocument, type OutputProfile, type RenderOptions } from '../print/index';
 import { outputProfile, publication } from './publication-schema';
 import { getPublicationRow } from './publications';
 
@@ -129,9 +129,14 @@ export function uploadOutputProfile(deps: Pick<PlatformDeps, 'db' | 'clock'>, wh
  * (PDF/X-4) joins the given options. Every render of an edition goes through here.
  */
 export function renderOptionsFor(db: DbOrTx, doc: EditionDocument, opts: RenderOptions): RenderOptions {
-  const sha = doc.press?.profileSha256;
-  if (!sha) return opts;
+  const profile = outputProfileFor(db, doc.press?.profileSha256 ?? null);
+  return profile ? { ...opts, outputProfile: profile } : opts;
+}
+
+/** A stored output profile as the renderer takes it (base64), or undefined for none. */
+export function outputProfileFor(db: DbOrTx, sha: string | null): OutputProfile | undefined {
+  if (!sha) return undefined;
   const r = db.select({ description: outputProfile.description, icc: outputProfile.icc }).from(outputProfile).where(eq(outputProfile.sha256, sha)).get();
-  if (!r) throw new Unprocessable(`The output profile ${sha.slice(0, 12)}... named by the edition's press spec is not stored.`);
-  return { ...opts, outputProfile: { base64: r.icc.toString('base64'), description: r.description } };
+  if (!r) throw new Unprocessable(`The output profile ${sha.slice(0, 12)}... named by the press spec is not stored.`);
+  return { base64: r.icc.toString('base64'), description: r.description };
 }

@@ -20,6 +20,7 @@ import type { EditionsDeps } from './ports';
 import { runEditionChecks } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
 import { createEdition, getEditionFor, getEditionRow, listEditions, updateEdition } from './editions';
+import { registerLayoutPackageRoutes } from './layout-package-routes';
 import { renderOptionsFor } from './press-spec';
 import { approveProof, publishCheck, publishEdition, readPressFile, readProofFile, returnProof, sendToProof } from './proofs';
 
@@ -143,4 +144,5 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
     ({ params }) => publishCheck(deps, params.id),
   );
 
+  registerLayoutPackageRoutes(router, deps);
 }

@@ -586,3 +586,65 @@ export function buildEditionLayout(doc: EditionDocument, opts: LayoutOptions): {
   );
   return { element, metrics, fonts, pageSizePt: { width: pageW, height: pageH } };
 }
+
+// ---- one drawing alone (layout package) ----------------------------------------------------
+
+/** One drawing of the package: its parts (each a drawing of the layout above) stacked on a page cut to them. */
+export type Graphic = { element: ReactElement; parts: { svg: ReactElement; y: number }[]; widthPt: number; heightPt: number; metrics: LayoutMetrics; fonts: string[] };
+
+const svgSize = (e: ReactElement) => {
+  const p = e.props as { width?: number; height?: number };
+  return { w: Number(p.width ?? 0), h: Number(p.height ?? 0) };
+};
+
+/**
+ * A puzzle's drawing (Assembly: the frame, then the loose pieces at half scale) or its
+ * solution's, as the edition prints it at the template's column width, type and line
+ * settings, alone on a page cut to it: the layout package's placeable graphic.
+ */
+export function buildGraphic(t: PageTemplate, what: { puzzle: PuzzlePrint } | { solution: SolutionPrint }, title: string): Graphic {
+  const fonts = registerPrintFonts(Font);
+  const metrics: LayoutMetrics = { smallestSquareMm: null, smallestDigitPt: null, omittedLabels: [], illegibleGivens: [] };
+  const ctx: Ctx = { t, metrics };
+  const colW = templateGeometry(t).columnWidthMm * PT_PER_MM;
+  let svgs: ReactElement[];
+  if ('puzzle' in what) {
+    const p = what.puzzle;
+    const box = { widthPt: colW, maxHeightPt: t.drawing.maxHeightMm * PT_PER_MM };
+    svgs = p.kind === 'assembly' ? [assemblyDrawing(ctx, p, box), piecesDrawing(ctx, p, box)] : [deductionDrawing(ctx, p, box)];
+  } else {
+    const s = what.solution;
+    const box = { widthPt: colW, maxHeightPt: t.drawing.maxHeightMm * PT_PER_MM * 0.75 };
+    svgs = [solutionDrawing(ctx, s.tiling, box, s.kind === 'deduction').element];
+  }
+  const gap = 3 * PT_PER_MM;
+  const parts: Graphic['parts'] = [];
+  let y = 0;
+  let widthPt = 0;
+  for (const svg of svgs) {
+    const { w, h } = svgSize(svg);
+    parts.push({ svg, y });
+    y += h + gap;
+    widthPt = Math.max(widthPt, w);
+  }
+  const heightPt = y - gap;
+  const element = (
+    <Document title={title} author="Squarewright" creator="Squarewright" producer="Squarewright" language="en">
+      <Page size={[widthPt, heightPt]} style={{ padding: 0, fontFamily: PRINT_FONTS.sans, color: INK }}>
+        {/* react-pdf loads a face only for the page's own text, not for the drawing's labels:
+            a space in each face the labels use has it loaded (the edition's headings do this there) */}
+        {[400, 600].map((w) => (
+          <Text key={`f${w}`} style={{ position: 'absolute', left: 0, top: 0, fontFamily: PRINT_FONTS.sans, fontWeight: w, fontSize: t.type.digitsPt }}>
+            {' '}
+          </Text>
+        ))}
+        {parts.map((p, i) => (
+          <View key={`g${i}`} style={{ position: 'absolute', left: 0, top: p.y }}>
+            {p.svg}
+          </View>
+        ))}
+      </Page>
+    </Document>
+  );
+  return { element, parts, widthPt, heightPt, metrics, fonts };
+}

@@ -82,6 +82,8 @@ export const permissions: Record<string, Access> = {
   'GET /api/publications/:id/press-spec': ['editor'],
   'PUT /api/publications/:id/press-spec': ['admin'],
   'PUT /api/publications/:id/printers': ['admin'],
+  'GET /api/editions/:id/layout-package.zip': ['editor'],
+  'GET /api/puzzles/:id/layout-package.zip': ['editor'],
   'GET /api/templates': ['editor'],
   'GET /api/templates/:id/sample.pdf': ['editor'],
   // reader edition: public pages' data, checks and anonymous solve events (no session); the
