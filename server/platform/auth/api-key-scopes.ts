@@ -37,13 +37,3 @@ export const apiKeyScopeOfRoute: Record<string, ApiKeyScope> = {
   'POST /api/foundry/runs': 'foundry:write',
   'POST /api/foundry/runs/:id/cancel': 'foundry:write',
 };
-
-/** The scopes a key may carry when it belongs to a user of this role: those opening at least one route the role may call. */
-export function scopesForRoutes(routeKeys: Iterable<string>): Set<ApiKeyScope> {
-  const out = new Set<ApiKeyScope>();
-  for (const key of routeKeys) {
-    const scope = apiKeyScopeOfRoute[key];
-    if (scope) out.add(scope);
-  }
-  return out;
-}
