@@ -23,6 +23,22 @@ export const updateUserBodySchema = z
 export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
 export const updateUserResponseSchema = z.object({ user: adminUserSchema });
 
+/** An invitation not yet accepted (GET /api/invitations, admin): resend it (a new link, a new week) or revoke it (the link stops working). */
+export const pendingInvitationSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  role: roleSchema,
+  invitedByName: z.string().nullable(),
+  createdAt: isoDateTimeSchema,
+  expiresAt: isoDateTimeSchema,
+  /** the link no longer works; resending makes a new one */
+  expired: z.boolean(),
+});
+export type PendingInvitation = z.infer<typeof pendingInvitationSchema>;
+export const invitationListResponseSchema = z.object({ invitations: z.array(pendingInvitationSchema) });
+export const invitationIdParamSchema = z.object({ id: z.uuid({ error: 'invitation id must be a UUID' }) });
+export const resendInvitationResponseSchema = z.object({ invitation: pendingInvitationSchema });
+
 export const mailboxSummarySchema = z.object({
   id: z.number().int(),
   from: z.string(),

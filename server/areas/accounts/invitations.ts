@@ -1,8 +1,10 @@
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, asc, eq, isNull } from 'drizzle-orm';
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type { InvitationLookup, SessionUser } from '../../../shared/contracts/auth';
 import type { Role } from '../../../shared/contracts/common';
+import type { PendingInvitation } from '../../../shared/contracts/users';
 import type { PlatformDeps } from '../../platform/deps';
+import type { DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { invitation } from './schema';
 import { Conflict, NotFound } from '../../platform/http/errors';
@@ -110,4 +112,58 @@ export async function acceptInvitation(deps: PlatformDeps, token: string, input:
     user: { id: userId, email: row.email, name: input.name, role: row.role },
     setCookies: signIn.headers.getSetCookie(),
   };
+}
+
+// ---- pending invitations: list, resend, revoke (admin) --------------------------------------
+
+function pendingRow(db: DbOrTx, id: string) {
+  const row = db
+    .select({ id: invitation.id, email: invitation.email, role: invitation.role, invitedBy: invitation.invitedBy, createdAt: invitation.createdAt, expiresAt: invitation.expiresAt, acceptedAt: invitation.acceptedAt })
+    .from(invitation)
+    .where(eq(invitation.id, id))
+    .get();
+  if (!row) throw new NotFound(`No invitation ${id}.`);
+  if (row.acceptedAt) throw new Conflict(`The invitation to ${row.email} was accepted already.`);
+  if (db.select({ id: user.id }).from(user).where(eq(user.email, row.email)).get()) throw new Conflict(`There is already a user with the e-mail ${row.email}.`);
+  return row;
+}
+
+/** Invitations not yet accepted whose e-mail has no account yet, oldest first (expired ones too: they can be resent). */
+export function listPendingInvitations(deps: PlatformDeps): PendingInvitation[] {
+  const now = deps.clock.now().getTime();
+  const rows = deps.db
+    .select({ id: invitation.id, email: invitation.email, role: invitation.role, inviter: user.name, createdAt: invitation.createdAt, expiresAt: invitation.expiresAt })
+    .from(invitation)
+    .leftJoin(user, eq(user.id, invitation.invitedBy))
+    .where(isNull(invitation.acceptedAt))
+    .orderBy(asc(invitation.createdAt))
+    .all();
+  const taken = new Set(deps.db.select({ email: user.email }).from(user).all().map((u) => u.email));
+  return rows
+    .filter((r) => !taken.has(r.email))
+    .map((r) => ({ id: r.id, email: r.email, role: r.role, invitedByName: r.inviter ?? null, createdAt: r.createdAt.toISOString(), expiresAt: r.expiresAt.toISOString(), expired: r.expiresAt.getTime() <= now }));
+}
+
+/** Resend: a new one-time link valid for another week, mailed again; the old link stops working. */
+export function resendInvitation(deps: PlatformDeps, admin: SessionUser, id: string): PendingInvitation {
+  const now = deps.clock.now();
+  const token = randomBytes(32).toString('base64url');
+  const expiresAt = new Date(now.getTime() + invitationLifetimeMs);
+  deps.db.transaction((tx) => {
+    const row = pendingRow(tx, id);
+    tx.update(invitation).set({ tokenHash: hashToken(token), expiresAt }).where(and(eq(invitation.id, id), isNull(invitation.acceptedAt))).run();
+    queueMail(tx, { to: row.email, template: 'invitation', data: { inviter: admin.name, role: row.role, expires: expiresAt.toISOString().slice(0, 10), link: `${deps.env.PUBLIC_URL}/invite/${token}` } }, now);
+  });
+  deps.mail.kick();
+  const found = listPendingInvitations(deps).find((i) => i.id === id);
+  if (!found) throw new NotFound(`No invitation ${id}.`);
+  return found;
+}
+
+/** Revoke: the invitation is deleted, so its link is no longer known. */
+export function revokeInvitation(deps: PlatformDeps, id: string): void {
+  deps.db.transaction((tx) => {
+    pendingRow(tx, id);
+    tx.delete(invitation).where(and(eq(invitation.id, id), isNull(invitation.acceptedAt))).run();
+  });
 }

@@ -12,11 +12,18 @@ import {
   signInBodySchema,
 } from '../../../shared/contracts/auth';
 import { idParamSchema } from '../../../shared/contracts/common';
-import { adminUserListResponseSchema, updateUserBodySchema, updateUserResponseSchema } from '../../../shared/contracts/users';
+import {
+  adminUserListResponseSchema,
+  invitationIdParamSchema,
+  invitationListResponseSchema,
+  resendInvitationResponseSchema,
+  updateUserBodySchema,
+  updateUserResponseSchema,
+} from '../../../shared/contracts/users';
 import type { PlatformDeps } from '../../platform/deps';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { demoAccounts, demoPassword } from './demo-accounts';
-import { acceptInvitation, createInvitation, lookupInvitation } from './invitations';
+import { acceptInvitation, createInvitation, listPendingInvitations, lookupInvitation, resendInvitation, revokeInvitation } from './invitations';
 import { listUsers, updateUser } from './users';
 
 // Who is signed in, the sign-in page's settings, invitations, admin users.
@@ -57,6 +64,20 @@ export function registerAccountRoutes(router: ApiRouter, deps: PlatformDeps) {
       for (const c of setCookies) res.append('Set-Cookie', c);
       return { user };
     },
+  );
+
+  route(router, { method: 'GET', path: '/api/invitations', summary: 'Invitations not yet accepted (expired ones too)', response: invitationListResponseSchema }, () => ({ invitations: listPendingInvitations(deps) }));
+
+  route(
+    router,
+    { method: 'POST', path: '/api/invitations/:id/resend', summary: 'Resend an invitation: a new one-time link valid for another week; the old link stops working', params: invitationIdParamSchema, response: resendInvitationResponseSchema },
+    ({ user, params }) => ({ invitation: resendInvitation(deps, user, params.id) }),
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/invitations/:id/revoke', summary: 'Revoke an invitation: its link stops working', params: invitationIdParamSchema },
+    ({ params }) => revokeInvitation(deps, params.id),
   );
 
   route(router, { method: 'GET', path: '/api/admin/users', summary: 'All users with role and whether active', response: adminUserListResponseSchema }, () => ({ users: listUsers(deps) }));

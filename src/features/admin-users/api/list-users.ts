@@ -8,8 +8,8 @@ export async function listUsers(signal?: AbortSignal): Promise<AdminUser[]> {
   return body.users;
 }
 
-/** Keys: ['admin-users'] (all), ['admin-users', 'list']. */
-export const usersKeys = { all: ['admin-users'] as const, list: () => [...usersKeys.all, 'list'] as const };
+/** Keys: ['admin-users'] (all), ['admin-users', 'list'], ['admin-users', 'invitations']. */
+export const usersKeys = { all: ['admin-users'] as const, list: () => [...usersKeys.all, 'list'] as const, invitations: () => [...usersKeys.all, 'invitations'] as const };
 
 export const usersQueryOptions = () =>
   queryOptions({

@@ -1,6 +1,9 @@
 import { useState } from 'react';
 import { roleSchema } from '../../../../shared/contracts/common';
-import type { AdminUser } from '../../../../shared/contracts/users';
+import type { AdminUser, PendingInvitation } from '../../../../shared/contracts/users';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
+import { Card } from '../../../components/page';
+import { PlainTable } from '../../../components/plain-table';
 import { useMe } from '../../../api/session';
 import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
@@ -12,6 +15,7 @@ import { formatDate } from '../../../lib/format';
 import { roleLabel, roles, type Role } from '../../../lib/roles';
 import { useUsers } from '../api/list-users';
 import { useUpdateUser } from '../api/update-user';
+import { useInvitations, useResendInvitation, useRevokeInvitation } from '../api/invitations';
 import { InviteDialog } from './invite-dialog';
 
 /** /admin/users: everyone with an account; invite, change role, deactivate or reactivate. */
@@ -21,6 +25,21 @@ export function UsersPage() {
   const update = useUpdateUser();
   const [inviting, setInviting] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
+  const [pending, setPending] = useState<{ user: AdminUser; change: { role?: Role; active?: boolean } } | null>(null);
+  const [done, setDone] = useState<string | null>(null);
+  const confirm = () => {
+    if (!pending) return;
+    const { user, change } = pending;
+    update.mutate(
+      { id: user.id, ...change },
+      {
+        onSuccess: () => {
+          setDone(change.role ? `${user.name} is now ${article(change.role)} ${roleLabel[change.role].toLowerCase()}.` : `${user.name} is ${change.active ? 'active again' : 'deactivated'}.`);
+          setPending(null);
+        },
+      },
+    );
+  };
   return (
     <Page
       title="Users"
@@ -36,7 +55,11 @@ export function UsersPage() {
           {notice}
         </Alert>
       ) : null}
-      <ErrorAlert error={update.error} title="The change was not saved" />
+      {done ? (
+        <Alert tone="success" title="Saved">
+          {done}
+        </Alert>
+      ) : null}
       {users.isPending ? (
         <Loading />
       ) : users.error ? (
@@ -46,10 +69,26 @@ export function UsersPage() {
       ) : (
         <FramedTable caption="Users" headings={['Name', 'E-mail', 'Role', 'State', 'Since', '']} ruledHead>
           {users.data.map((user) => (
-            <UserRow key={user.id} user={user} isSelf={me.data?.id === user.id} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => update.mutate({ id: user.id, ...change })} />
+            <UserRow key={user.id} user={user} isSelf={me.data?.id === user.id} busy={update.isPending && update.variables?.id === user.id} onChange={(change) => { update.reset(); setDone(null); setPending({ user, change }); }} />
           ))}
         </FramedTable>
       )}
+      <Invitations />
+      <ConfirmDialog
+        open={pending !== null}
+        title={pending ? confirmTitle(pending.user, pending.change) : ''}
+        confirmLabel={pending?.change.role ? `Make ${pending.user.name} ${article(pending.change.role)} ${roleLabel[pending.change.role].toLowerCase()}` : pending?.change.active === false ? `Deactivate ${pending.user.name}` : `Reactivate ${pending?.user.name ?? ''}`}
+        confirmVariant={pending?.change.active === false || pending?.change.role === 'admin' ? 'danger' : 'primary'}
+        busy={update.isPending}
+        error={update.error}
+        onCancel={() => {
+          update.reset();
+          setPending(null);
+        }}
+        onConfirm={confirm}
+      >
+        {pending ? <p>{confirmText(pending.user, pending.change)}</p> : null}
+      </ConfirmDialog>
       <InviteDialog
         open={inviting}
         onClose={() => setInviting(false)}
@@ -95,5 +134,99 @@ function UserRow({ user, isSelf, busy, onChange }: { user: AdminUser; isSelf: bo
         )}
       </td>
     </tr>
+  );
+}
+
+const article = (r: Role) => (r === 'admin' || r === 'editor' ? 'an' : 'a');
+
+/** What each role may do (product.md), for the confirmation of a role change. */
+const roleMeans: Record<Role, string> = {
+  setter: 'submit tilings and follow their own submissions and earnings; nothing else',
+  editor: 'review submissions, curate the stock, make puzzles, compose and publish editions and run payouts',
+  printer: 'see editions sent to proof, download proofs and press files, approve or return proofs',
+  admin: 'do everything an editor can, and manage users, invitations, roles, publications and templates',
+};
+
+function confirmTitle(user: AdminUser, change: { role?: Role; active?: boolean }): string {
+  if (change.role) return `Change the role of ${user.name}?`;
+  return change.active ? `Reactivate ${user.name}?` : `Deactivate ${user.name}?`;
+}
+
+function confirmText(user: AdminUser, change: { role?: Role; active?: boolean }): string {
+  if (change.role) return `${user.name} (${user.email}) is ${article(user.role)} ${roleLabel[user.role].toLowerCase()} now. As ${article(change.role)} ${roleLabel[change.role].toLowerCase()} they may ${roleMeans[change.role]}. It takes effect on their next request.`;
+  if (change.active) return `${user.name} (${user.email}) can sign in again, as ${article(user.role)} ${roleLabel[user.role].toLowerCase()}.`;
+  return `${user.name} (${user.email}) is signed out everywhere at once and cannot sign in until reactivated. Nothing they did is deleted.`;
+}
+
+/** Invitations not yet accepted: resend (a new link for another week) or revoke (the link stops working). */
+function Invitations() {
+  const list = useInvitations();
+  const resend = useResendInvitation();
+  const revoke = useRevokeInvitation();
+  const [revoking, setRevoking] = useState<PendingInvitation | null>(null);
+  const [notice, setNotice] = useState<string | null>(null);
+  return (
+    <Card title="Pending invitations">
+      {notice ? <Alert tone="success">{notice}</Alert> : null}
+      <ErrorAlert error={resend.error} title="Could not resend" />
+      {list.isPending ? (
+        <Loading />
+      ) : list.error ? (
+        <ErrorAlert error={list.error} title="Could not load the invitations" />
+      ) : list.data.length === 0 ? (
+        <p className="text-sm text-ink-muted">No invitation is waiting to be accepted.</p>
+      ) : (
+        <PlainTable caption="Pending invitations" headings={['E-mail', 'Role', 'Invited', 'Link', '']}>
+          {list.data.map((i) => (
+            <tr key={i.id} className="border-t border-rule">
+              <td className="px-3 py-2">
+                <code className="text-ink-soft">{i.email}</code>
+              </td>
+              <td className="px-3 py-2">{roleLabel[i.role]}</td>
+              <td className="px-3 py-2 tabular-nums">{`${formatDate(i.createdAt)}${i.invitedByName ? ` by ${i.invitedByName}` : ''}`}</td>
+              <td className="px-3 py-2">{i.expired ? <StatusBadge tone="warning">Expired</StatusBadge> : `Works until ${formatDate(i.expiresAt)}`}</td>
+              <td className="px-3 py-2 text-right">
+                <span className="inline-flex gap-2">
+                  <Button
+                    size="sm"
+                    busy={resend.isPending && resend.variables === i.id}
+                    aria-label={`Resend the invitation to ${i.email}`}
+                    onClick={() => resend.mutate(i.id, { onSuccess: (r) => setNotice(`A new link is on its way to ${r.email}; it works until ${formatDate(r.expiresAt)}. The old link no longer works.`) })}
+                  >
+                    Resend
+                  </Button>
+                  <Button size="sm" variant="danger" aria-label={`Revoke the invitation to ${i.email}`} onClick={() => setRevoking(i)}>
+                    Revoke
+                  </Button>
+                </span>
+              </td>
+            </tr>
+          ))}
+        </PlainTable>
+      )}
+      <ConfirmDialog
+        open={revoking !== null}
+        title={`Revoke the invitation to ${revoking?.email ?? ''}?`}
+        confirmLabel="Revoke the invitation"
+        confirmVariant="danger"
+        busy={revoke.isPending}
+        error={revoke.error}
+        onCancel={() => {
+          revoke.reset();
+          setRevoking(null);
+        }}
+        onConfirm={() =>
+          revoking &&
+          revoke.mutate(revoking.id, {
+            onSuccess: () => {
+              setNotice(`The invitation to ${revoking.email} is revoked; its link no longer works.`);
+              setRevoking(null);
+            },
+          })
+        }
+      >
+        <p>The link in the mail stops working at once. You can invite the address again later.</p>
+      </ConfirmDialog>
+    </Card>
   );
 }
