@@ -8,6 +8,7 @@ type AnyJobHandler = JobHandler<any, unknown>;
 export const jobKinds: Record<string, () => Promise<{ handler: AnyJobHandler }>> = {
   'foundry-run': () => import('./areas/foundry/run-job'),
   'puzzle-prove': () => import('./areas/puzzles/prove-job'),
+  'print-render': () => import('./areas/print/render-job'),
   'test-count': () => import('./platform/jobs/test-count-job'),
 };
 

@@ -1,6 +1,6 @@
 import { and, eq, ne } from 'drizzle-orm';
 import type { EditionCheck, EditionChecks, PreflightReport } from '../../../shared/contracts/editions';
-import { renderEditionPdf } from '../print/index';
+import { renderOnWorker } from '../print/index';
 import { loadEditionDocument, type LoadedEdition } from './edition-document';
 import { getEditionRow, type EditionRow } from './editions';
 import type { EditionsDeps } from './ports';
@@ -130,9 +130,9 @@ export function preflightChecks(preflight: PreflightReport): EditionCheck[] {
 }
 
 /** The checks as the editor asks for them (GET /api/editions/:id/checks): renders an unstamped preview for the preflight when there is something to print. */
-export async function runEditionChecks(deps: Pick<EditionsDeps, 'db' | 'puzzles'>, id: string): Promise<EditionChecks> {
+export async function runEditionChecks(deps: Pick<EditionsDeps, 'db' | 'puzzles' | 'jobs'>, id: string): Promise<EditionChecks> {
   const r = getEditionRow(deps.db, id);
   const built = loadEditionDocument(deps, id);
-  const preflight = printsPuzzlesOrSolutions(built) ? (await renderEditionPdf(built.doc, renderOptionsFor(deps.db, built.doc, { stamp: null }))).preflight : null;
+  const preflight = printsPuzzlesOrSolutions(built) ? (await renderOnWorker(deps.jobs, built.doc, renderOptionsFor(deps.db, built.doc, { stamp: null }))).preflight : null;
   return checkEdition(deps, r, built, preflight);
 }

@@ -10,7 +10,7 @@ import { user as userTable } from '../../platform/auth/schema';
 import { editionProof } from './schema';
 import { Conflict, NotFound } from '../../platform/http/errors';
 import { queueMail } from '../../platform/mail/outbox';
-import { renderEditionPdf } from '../print/index';
+import { renderOnWorker } from '../print/index';
 import type { EditionsDeps } from './ports';
 import { checkEdition, printsPuzzlesOrSolutions } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
@@ -28,7 +28,7 @@ import { proofDocumentOf } from './stored-json';
 // (fees into the ledger in the same transaction). Every state change is a move of
 // ./edition-states.ts.
 
-type Deps = Pick<EditionsDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzles' | 'fees' | 'events'>;
+type Deps = Pick<EditionsDeps, 'db' | 'clock' | 'env' | 'mail' | 'puzzles' | 'fees' | 'events' | 'jobs'>;
 
 export function dataDir(deps: Pick<EditionsDeps, 'env'>): string {
   return isAbsolute(deps.env.DATA_DIR) ? deps.env.DATA_DIR : resolve(appRoot(), deps.env.DATA_DIR);
@@ -109,7 +109,7 @@ export async function sendToProof(deps: Deps, who: SessionUser, editionId: strin
   requireSavedState(r, request.updatedAt);
   const version = nextVersion(deps.db, editionId);
   const built = loadEditionDocument(deps, editionId);
-  const rendered = await renderEditionPdf(built.doc, renderOptionsFor(deps.db, built.doc, { stamp: 'PROOF', proofVersion: version }));
+  const rendered = await renderOnWorker(deps.jobs, built.doc, renderOptionsFor(deps.db, built.doc, { stamp: 'PROOF', proofVersion: version }));
   const checks = checkEdition(deps, r, built, printsPuzzlesOrSolutions(built) ? rendered.preflight : null);
   const overridden = sendGuard(checks, request.override);
   const rel = proofRel(editionId, version);
@@ -212,7 +212,7 @@ export async function approveProof(deps: Deps, who: SessionUser, editionId: stri
   // The press file is the approved proof's own document without the stamp (a later change
   // to a puzzle cannot slip into it).
   const doc = proofDocumentOf(proof) ?? loadEditionDocument(deps, editionId).doc;
-  const press = await renderEditionPdf(doc, renderOptionsFor(deps.db, doc, { stamp: null }));
+  const press = await renderOnWorker(deps.jobs, doc, renderOptionsFor(deps.db, doc, { stamp: null }));
   const rel = pressRel(editionId, version);
   const pub = getPublicationRow(deps.db, r.publicationId);
   storeThenRecord(deps, rel, press.pdf, (hash) =>

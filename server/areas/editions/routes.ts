@@ -15,7 +15,7 @@ import {
   sendProofSchema,
 } from '../../../shared/contracts/editions';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { renderEditionPdf } from '../print/index';
+import { renderOnWorker } from '../print/index';
 import type { EditionsDeps } from './ports';
 import { runEditionChecks } from './edition-checks';
 import { loadEditionDocument } from './edition-document';
@@ -73,7 +73,7 @@ export function registerEditionRoutes(router: ApiRouter, deps: EditionsDeps) {
     async ({ params, res }) => {
       getEditionRow(deps.db, params.id);
       const doc = loadEditionDocument(deps, params.id).doc;
-      const r = await renderEditionPdf(doc, renderOptionsFor(deps.db, doc, { stamp: 'PROOF' }));
+      const r = await renderOnWorker(deps.jobs, doc, renderOptionsFor(deps.db, doc, { stamp: 'PROOF' }));
       res.status(200).type('application/pdf').setHeader('Cache-Control', 'no-store');
       res.send(r.pdf);
     },

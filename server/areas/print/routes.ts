@@ -3,7 +3,7 @@ import { templateGeometry, templateListResponseSchema } from '../../../shared/co
 import type { PlatformDeps } from '../../platform/deps';
 import { NotFound } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { renderEditionPdf, warmPrint } from './render-edition';
+import { renderOnWorker, warmPrintOnWorker } from './render-job';
 import { templateSampleEdition } from './sample-edition';
 import { pageTemplates } from './templates';
 
@@ -11,11 +11,11 @@ export function registerTemplateRoutes(router: ApiRouter, deps: PlatformDeps) {
   const tags = ['templates'];
   // Loading here makes a bad template file stop the server at start-up, naming file and field.
   pageTemplates();
-  // In production, load the PDF renderer shortly after start-up so the first proof does not
-  // wait for it (about a second of import); tests and development stay lazy.
-  if (deps.env.NODE_ENV === 'production') {
+  // In production, load the PDF renderer on a job thread shortly after start-up so the first
+  // proof does not wait for it (about a second of import); tests and development stay lazy.
+  if (deps.env.NODE_ENV === 'production' && deps.jobs.mode === 'threads') {
     setTimeout(() => {
-      warmPrint().catch((e: unknown) => deps.log.warn(`print: could not preload the PDF renderer: ${(e as Error).message}`));
+      warmPrintOnWorker(deps.jobs).catch((e: unknown) => deps.log.warn(`print: could not preload the PDF renderer: ${(e as Error).message}`));
     }, 3_000).unref();
   }
 
@@ -43,7 +43,7 @@ export function registerTemplateRoutes(router: ApiRouter, deps: PlatformDeps) {
     async ({ params, res }) => {
       const t = pageTemplates().get(params.id);
       if (!t) throw new NotFound(`No page template ${params.id}.`);
-      const r = await renderEditionPdf(templateSampleEdition(t), { stamp: null });
+      const r = await renderOnWorker(deps.jobs, templateSampleEdition(t), { stamp: null });
       res.status(200).type('application/pdf').setHeader('Content-Disposition', `inline; filename="sample-${t.id}.pdf"`);
       res.send(r.pdf);
     },

@@ -34,11 +34,16 @@ export interface ThreadPoolOptions {
   graceMs?: number;
   /** nice value of the threads (Linux: per thread), default 10: requests come first */
   nice?: number;
+  /** the extra interactive thread is ended after this long idle (default 60 s: a loaded PDF renderer stays warm) */
+  extraIdleMs?: number;
 }
 
 interface Slot {
   worker: Worker;
   busy: Running | null;
+  /** the one thread beyond `size`, for interactive work only */
+  extra: boolean;
+  idleTimer: NodeJS.Timeout | null;
 }
 
 interface Running {
@@ -62,11 +67,13 @@ export class ThreadPool {
   readonly size: number;
   private readonly graceMs: number;
   private readonly nice: number;
+  private readonly extraIdleMs: number;
 
   constructor(opts: ThreadPoolOptions = {}) {
     this.size = Math.max(1, Math.floor(opts.size ?? 1));
     this.graceMs = opts.graceMs ?? 1500;
     this.nice = opts.nice ?? 10;
+    this.extraIdleMs = opts.extraIdleMs ?? 60_000;
   }
 
   /** Queue a task: interactive tasks ahead of bulk ones. */
@@ -112,16 +119,19 @@ export class ThreadPool {
   async close(): Promise<void> {
     this.closed = true;
     this.queue = [];
-    for (const s of this.slots) if (s.busy) clearTimers(s.busy);
+    for (const s of this.slots) {
+      if (s.busy) clearTimers(s.busy);
+      if (s.idleTimer) clearTimeout(s.idleTimer);
+    }
     const all = this.slots;
     this.slots = [];
     await Promise.all(all.map((s) => s.worker.terminate()));
   }
 
-  private spawn(): Slot {
+  private spawn(extra: boolean): Slot {
     const spec = workerSpec();
     const worker = new Worker(spec.source ? sourceBootstrap(spec.url) : spec.url, { workerData: { nice: this.nice } });
-    const slot: Slot = { worker, busy: null };
+    const slot: Slot = { worker, busy: null, extra, idleTimer: null };
     worker.on('message', (m: FromWorker) => this.onMessage(slot, m));
     worker.on('error', (e) => this.settle(slot, (r) => r.cb.failed(e instanceof Error ? e.message : String(e))));
     worker.on('exit', (code) => {
@@ -138,13 +148,17 @@ export class ThreadPool {
     if (this.closed) return;
     while (this.queue.length > 0) {
       const next = this.queue[0]!;
-      let slot = this.slots.find((s) => s.busy === null);
-      if (!slot && this.slots.length < this.size) slot = this.spawn();
-      if (!slot && next.task.lane === 'interactive' && this.slots.length === this.size && this.slots.every((s) => s.busy?.task.lane === 'bulk')) {
-        slot = this.spawn(); // the one extra thread for interactive work
-      }
+      const interactive = next.task.lane === 'interactive';
+      let slot = this.slots.find((s) => s.busy === null && !s.extra) ?? (interactive ? this.slots.find((s) => s.busy === null && s.extra) : undefined);
+      if (!slot && this.slots.filter((s) => !s.extra).length < this.size) slot = this.spawn(false);
+      // the one extra thread for interactive work while every thread is on bulk work
+      if (!slot && interactive && !this.slots.some((s) => s.extra) && this.slots.every((s) => s.busy?.task.lane === 'bulk')) slot = this.spawn(true);
       if (!slot) return;
       this.queue.shift();
+      if (slot.idleTimer) {
+        clearTimeout(slot.idleTimer);
+        slot.idleTimer = null;
+      }
       this.start(slot, next);
     }
   }
@@ -197,10 +211,14 @@ export class ThreadPool {
     clearTimers(r);
     slot.busy = null;
     slot.worker.unref();
-    if (this.slots.length > this.size && this.slots.includes(slot)) {
-      // the extra interactive thread (or any surplus) goes away when idle
-      this.slots = this.slots.filter((s) => s !== slot);
-      void slot.worker.terminate();
+    if (slot.extra && this.slots.includes(slot)) {
+      // the extra interactive thread goes away after a while idle (kept warm for the next render)
+      slot.idleTimer = setTimeout(() => {
+        if (slot.busy) return;
+        this.slots = this.slots.filter((s) => s !== slot);
+        void slot.worker.terminate();
+      }, this.extraIdleMs);
+      slot.idleTimer.unref();
     }
     call(r);
     this.pump();

@@ -1,6 +1,8 @@
 import { createHash } from 'node:crypto';
 import type TestAgent from 'supertest/lib/agent';
-import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { preflightSchema } from '../../../shared/contracts/preflight';
 import { plainRichText } from '../../../shared/contracts/editions';
 import type { RenderResult } from '../../../server/areas/print/types';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -10,21 +12,24 @@ import { quadrantPublication } from './fixtures';
 
 // Sending a proof renders the edition once: the checks before proof read the preflight of
 // the very PDF that is stored (it used to render a preview for the checks, then the file).
-// Every render goes through the print area's renderEditionPdf, counted here by a spy that
-// still renders for real.
+// Every render goes through the job system as a 'print-render' compute job (the print area's
+// renderEditionPdf on a worker thread), counted here by wrapping deps.jobs.compute; it still
+// renders for real.
 
-const renders = vi.hoisted(() => ({ calls: [] as { opts: unknown; result: Promise<RenderResult> }[] }));
-vi.mock('../../../server/areas/print/render-edition', async (importOriginal) => {
-  const real = await importOriginal<typeof import('../../../server/areas/print/render-edition')>();
-  return {
-    ...real,
-    renderEditionPdf: (...args: Parameters<typeof real.renderEditionPdf>) => {
-      const result = real.renderEditionPdf(...args);
-      renders.calls.push({ opts: args[1], result });
-      return result;
-    },
+const renders = { calls: [] as { opts: unknown; result: Promise<Pick<RenderResult, 'pdf' | 'preflight'>> }[] };
+const renderedSchema = z.object({ pdf: z.string(), preflight: preflightSchema });
+
+function countRenders(jobs: TestApp['deps']['jobs']): void {
+  const compute = jobs.compute.bind(jobs);
+  jobs.compute = <R,>(kind: string, params: unknown, opts?: Parameters<typeof compute>[2]): Promise<R> => {
+    const result = compute<R>(kind, params, opts);
+    const p = z.object({ doc: z.unknown(), opts: z.unknown() }).safeParse(params);
+    if (kind === 'print-render' && p.success) {
+      renders.calls.push({ opts: p.data.opts, result: result.then((v) => renderedSchema.parse(v)).then((v) => ({ pdf: Buffer.from(v.pdf, 'base64'), preflight: v.preflight })) });
+    }
+    return result;
   };
-});
+}
 
 let t: TestApp;
 let editor: TestAgent;
@@ -33,6 +38,7 @@ let pubId: string;
 
 beforeAll(async () => {
   t = await createTestApp();
+  countRenders(t.deps.jobs);
   puzzles = stubPuzzles(t.deps);
   t.deps.puzzles = puzzles;
   editor = await t.signInAs('editor');
