@@ -43,6 +43,9 @@ export const publicationPrintersInputSchema = z
   .strict();
 export type PublicationPrintersInput = z.infer<typeof publicationPrintersInputSchema>;
 export const publicationPrintersSchema = z.object({ items: z.array(publicationPrinterSchema) });
+/** GET /api/publications/:id/printers: the assigned printers and every active printer who could be. */
+export const publicationPrinterChoicesSchema = z.object({ items: z.array(publicationPrinterSchema), candidates: z.array(publicationPrinterSchema) });
+export type PublicationPrinterChoices = z.infer<typeof publicationPrinterChoicesSchema>;
 
 export const publicationSchema = publicationInputSchema.extend({
   id: z.string(),

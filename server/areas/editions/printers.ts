@@ -26,6 +26,11 @@ export function printersOf(db: DbOrTx, publicationId: string): PublicationPrinte
     .all();
 }
 
+/** Every active printer (who could be assigned). */
+export function activePrinters(db: DbOrTx): PublicationPrinter[] {
+  return db.select({ id: userTable.id, name: userTable.name, email: userTable.email }).from(userTable).where(and(eq(userTable.role, 'printer'), active)).orderBy(asc(userTable.name)).all();
+}
+
 /** The publications a printer is assigned to. */
 export function publicationsOfPrinter(db: DbOrTx, userId: string): Set<string> {
   return new Set(

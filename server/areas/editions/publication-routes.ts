@@ -4,6 +4,7 @@ import {
   publicationInputSchema,
   publicationListSchema,
   publicationPatchSchema,
+  publicationPrinterChoicesSchema,
   publicationPrintersInputSchema,
   publicationPrintersSchema,
   publicationSchema,
@@ -13,8 +14,8 @@ import type { PlatformDeps } from '../../platform/deps';
 import { Unprocessable } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
 import { getPressSpec, updatePressSpec, uploadOutputProfile } from './press-spec';
-import { setPublicationPrinters } from './printers';
-import { createPublication, listPublications, updatePublication } from './publications';
+import { activePrinters, printersOf, setPublicationPrinters } from './printers';
+import { createPublication, getPublicationRow, listPublications, updatePublication } from './publications';
 
 /** ICC output profiles run from a few kB to a few MB. */
 const MAX_PROFILE_BYTES = 8 * 1024 * 1024;
@@ -39,6 +40,15 @@ export function registerPublicationRoutes(router: ApiRouter, deps: PlatformDeps)
     router,
     { method: 'PATCH', path: '/api/publications/:id', summary: 'Change a publication (admin)', tags, params: publicationIdParamsSchema, body: publicationPatchSchema, response: publicationSchema },
     ({ params, body }) => updatePublication(deps, params.id, body),
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/publications/:id/printers', summary: 'The printers of a publication and every active printer who could be assigned (admin)', tags, params: publicationIdParamsSchema, response: publicationPrinterChoicesSchema },
+    ({ params }) => {
+      getPublicationRow(deps.db, params.id);
+      return { items: printersOf(deps.db, params.id), candidates: activePrinters(deps.db) };
+    },
   );
 
   route(

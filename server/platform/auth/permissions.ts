@@ -84,6 +84,7 @@ export const permissions: Record<string, Access> = {
   'PUT /api/publications/:id/output-profile': ['admin'],
   'GET /api/publications/:id/press-spec': ['editor'],
   'PUT /api/publications/:id/press-spec': ['admin'],
+  'GET /api/publications/:id/printers': ['admin'],
   'PUT /api/publications/:id/printers': ['admin'],
   'GET /api/editions/:id/layout-package.zip': ['editor'],
   'GET /api/puzzles/:id/layout-package.zip': ['editor'],

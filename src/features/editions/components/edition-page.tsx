@@ -417,6 +417,11 @@ function Composer({ edition: e, update }: { edition: Edition; update: ReturnType
           <a className={buttonClasses('secondary', 'md')} href={`/api/editions/${e.id}/preview.pdf`} target="_blank" rel="noreferrer">
             Preview PDF
           </a>
+          {e.slots.length > 0 ? (
+            <a className={buttonClasses('secondary', 'md')} href={`/api/editions/${e.id}/layout-package.zip`} download title="Every slot's puzzle and solution as PDF/X and SVG, with texts and a manifest, for your own page layout">
+              Package for layout
+            </a>
+          ) : null}
           {e.state === 'draft' ? (
             <Button variant="primary" disabled={sendBlocked !== null || checks.isPending} title={sendBlocked ?? undefined} aria-describedby={sendBlocked ? 'send-blocked' : undefined} onClick={() => setSending(true)}>
               Send to proof

@@ -14,6 +14,7 @@ import { Card, Loading, Page } from '../../../components/page';
 import { SelectField } from '../../../components/select-field';
 import { TextField } from '../../../components/text-field';
 import { useSavePublication } from '../api/save-publication';
+import { PressPanel } from './press-panel';
 
 // The form edits fees as decimals ("45.00") and sends whole minor units (4500).
 const money = z
@@ -85,10 +86,11 @@ function PublicationForm({ editing, onDone }: { editing: Publication | null; onD
 export function PublicationsPage() {
   const list = usePublications();
   const [editing, setEditing] = useState<Publication | 'new' | null>(null);
+  const [press, setPress] = useState<Publication | null>(null);
   return (
     <Page
       title="Publications"
-      description="Each publication has a page template, a cadence, a rule for where solutions go, a reuse window and a fee per puzzle kind."
+      description="Each publication has a page template, a cadence, a rule for where solutions go, a reuse window, a fee per puzzle kind, a press spec and its printers."
       actions={
         <Button variant="primary" onClick={() => setEditing('new')}>
           New publication
@@ -97,6 +99,7 @@ export function PublicationsPage() {
     >
       <TaxCaution />
       {editing ? <PublicationForm key={editing === 'new' ? 'new' : editing.id} editing={editing === 'new' ? null : editing} onDone={() => setEditing(null)} /> : null}
+      {press ? <PressPanel key={press.id} publication={press} onDone={() => setPress(null)} /> : null}
       {list.isPending ? (
         <Loading />
       ) : list.error ? (
@@ -104,7 +107,7 @@ export function PublicationsPage() {
       ) : list.data.length === 0 ? (
         <EmptyState title="No publications yet" />
       ) : (
-        <FramedTable caption="Publications" headings={['Title', 'Template', 'Cadence', 'Solutions', 'Reuse window', 'Fees (Assembly / Deduction)', '']}>
+        <FramedTable caption="Publications" headings={['Title', 'Template', 'Cadence', 'Solutions', 'Reuse window', 'Fees (Assembly / Deduction)', 'Printers', '']}>
           {list.data.map((p) => (
             <tr key={p.id} className="border-t border-rule">
               <td className="px-3 py-2">
@@ -117,10 +120,16 @@ export function PublicationsPage() {
               <td className="px-3 py-2">{p.solutionRule === 'same_edition' ? 'Same edition' : 'Next edition'}</td>
               <td className="px-3 py-2 tabular-nums">{`${p.reuseWindowDays} days`}</td>
               <td className="px-3 py-2 tabular-nums">{`${formatFee(p.feeAssemblyMinor, p.currency)} / ${formatFee(p.feeDeductionMinor, p.currency)}`}</td>
+              <td className="px-3 py-2">{p.printers.length > 0 ? p.printers.map((x) => x.name).join(', ') : <span className="text-ink-muted">None: nobody gets its proofs</span>}</td>
               <td className="px-3 py-2">
-                <Button size="sm" onClick={() => setEditing(p)} aria-label={`Edit ${p.title}`}>
-                  Edit
-                </Button>
+                <div className="flex gap-2">
+                  <Button size="sm" onClick={() => setEditing(p)} aria-label={`Edit ${p.title}`}>
+                    Edit
+                  </Button>
+                  <Button size="sm" onClick={() => setPress(p)} aria-label={`Press and printers of ${p.title}`}>
+                    Press and printers
+                  </Button>
+                </div>
               </td>
             </tr>
           ))}

@@ -14,6 +14,7 @@ import { TilingDrawing } from '../../../components/tiling-drawing';
 import { formatDateTime } from '../../../lib/format';
 import { isProving, usePuzzle } from '../api/get-puzzle';
 import { useCancelPuzzle, useRecheckPuzzle, useUpdatePuzzle } from '../api/puzzle-mutations';
+import { LayoutPackageCard } from './layout-package-card';
 import { AssemblyPreview, ChooseSquares, DeductionPreview } from './puzzle-drawings';
 import { kindLabel, levelLabel, levelOptions, parseLevel, statusLabel, statusTone } from './puzzle-labels';
 
@@ -131,6 +132,7 @@ function Workbench({ p }: { p: PuzzleDetail }) {
       ) : null}
 
       <CertificateCard p={p} />
+      <LayoutPackageCard p={p} />
     </Page>
   );
 }
