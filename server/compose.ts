@@ -13,6 +13,7 @@ import { stockPort } from './areas/stock/index';
 import { jobKindNames } from './job-kinds';
 import { createJobs } from './platform/jobs/runtime';
 import type { Env } from './platform/env';
+import type { EventSink } from './platform/events';
 import type { Jobs } from './platform/jobs/port';
 import { createLogger, type Logger } from './platform/log';
 import { createMailSender, type MailSenderOptions } from './platform/mail/outbox';
@@ -35,8 +36,8 @@ export type BuildDepsInput = {
 };
 
 /** The app's job system: every job kind's server half (where its results go) with the kinds the workers run. */
-export function createAppJobs(o: { db: Db; env: Env; log?: Logger; graceMs?: number; sliceMs?: number }): Jobs {
-  const sinks = [foundryRunSink(stockPort), puzzleProofSink];
+export function createAppJobs(o: { db: Db; env: Env; log?: Logger; graceMs?: number; sliceMs?: number; events?: EventSink }): Jobs {
+  const sinks = [foundryRunSink(stockPort, o.events), puzzleProofSink];
   return createJobs({ db: o.db, kinds: jobKindNames, sinks, env: o.env, ...(o.log ? { log: o.log } : {}), ...(o.graceMs ? { graceMs: o.graceMs } : {}), ...(o.sliceMs ? { sliceMs: o.sliceMs } : {}) });
 }
 
@@ -61,10 +62,10 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
     onMailQueued: () => mail.kick(),
     ...(input.signInLimit ? { signInLimit: input.signInLimit } : {}),
   });
-  // every job kind's server half: where its results go (server/platform/jobs/port.ts)
-  const jobs = input.jobs ?? createAppJobs({ db: input.db, env: input.env, log });
   // outgoing events: the webhook outbox is the platform's event sink (server/platform/events.ts)
   const webhooks = createWebhookSender({ db: input.db, clock, log, ...input.webhooks });
+  // every job kind's server half: where its results go (server/platform/jobs/port.ts)
+  const jobs = input.jobs ?? createAppJobs({ db: input.db, env: input.env, log, events: webhooks });
   const platform = { env: input.env, demo: input.demo, db: input.db, auth, mail, clock, log, jobs, events: webhooks };
   // The areas' ports, wired here and nowhere else: each area gets what it needs from the
   // others as typed interfaces (see server/areas/<area>/ports.ts).

@@ -3,6 +3,7 @@ import type { Run, RunList, RunRequest, RunResults } from '../../../shared/contr
 import { runRequestSchema, runSummarySchema } from '../../../shared/contracts/foundry';
 import type { Db } from '../../platform/db/client';
 import type { DbOrTx } from '../../platform/db/client';
+import type { EventSink } from '../../platform/events';
 import { Conflict, NotFound } from '../../platform/http/errors';
 import { defineJobSink, type JobRecord, type Jobs, type JobSink } from '../../platform/jobs/port';
 import type { StockPort } from '../stock/ports';
@@ -74,7 +75,8 @@ export function mergeShardSummaries(parts: unknown[]): unknown {
 }
 
 /** The server half of a foundry run (wired in server/compose.ts): its input, its shards, where its results go. */
-export function foundryRunSink(stock: StockPort): JobSink {
+/** The foundry run's server half; `events` gets foundry.run_finished in the transaction that ends the run. */
+export function foundryRunSink(stock: StockPort, events?: EventSink): JobSink {
   const paramsOf = (raw: unknown) => runRequestSchema.parse(raw);
   return defineJobSink({
     kind: FOUNDRY_KIND,
@@ -86,6 +88,12 @@ export function foundryRunSink(stock: StockPort): JobSink {
     input: (raw, db) => inputFor(stock, db, paramsOf(raw)),
     onResults: (items, tx, job) => storeItems(stock, tx, job.id, paramsOf(job.params), items),
     summarize: mergeShardSummaries,
+    onFinish: (_summary, tx, state, job) => {
+      // an interrupted run goes on after a restart: it has not finished
+      if (!events || state === 'interrupted') return;
+      const c = counts(tx, job.id);
+      events.emit(tx, 'foundry.run_finished', { run: { id: job.id, mode: paramsOf(job.params).mode, state, found: c.found, addedToStock: c.added } });
+    },
   });
 }
 
@@ -95,7 +103,7 @@ export function startRun(deps: { db: Db; jobs: Jobs }, request: RunRequest, user
   return getRun(deps, id);
 }
 
-function counts(db: Db, id: string): { found: number; perfect: number; added: number } {
+function counts(db: DbOrTx, id: string): { found: number; perfect: number; added: number } {
   const r = db
     .select({
       found: count(),
