@@ -16,6 +16,7 @@ import { createLogger } from './platform/log';
 import { startFakeSmtp } from './platform/mail/fake-smtp';
 import { loadMailTemplates } from './platform/mail/templates';
 import { localFakes } from './local-fakes';
+import { privateDataDir, privateFile } from './platform/private-files';
 import { InstanceLockError, lockDataDir } from './platform/instance-lock';
 import { redactUrl } from './platform/jobs/runtime';
 import type { LocalFakeHandle } from './platform/local-fake';
@@ -30,7 +31,10 @@ export function resolveDataDir(env: Env): string {
 export function resolveAuthSecret(env: Env, dataDir: string): string {
   if (env.AUTH_SECRET) return env.AUTH_SECRET;
   const file = join(dataDir, 'auth-secret');
-  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  if (existsSync(file)) {
+    privateFile(file);
+    return readFileSync(file, 'utf8').trim();
+  }
   const secret = randomBytes(32).toString('base64url');
   writeFileSync(file, `${secret}\n`, { mode: 0o600 });
   return secret;
@@ -51,6 +55,8 @@ export async function startServer(options: StartOptions = {}) {
   const env = loadEnv(options.source ?? process.env);
   const log = createLogger(env.LOG_LEVEL);
   const dataDir = resolveDataDir(env);
+  // the folder 0700: the database and the secret are for this user only (SECURITY.md)
+  privateDataDir(dataDir, log);
   // one server per data folder: refuse before touching anything in it (decision 032)
   const lock = lockDataDir(dataDir);
   try {
@@ -66,6 +72,8 @@ async function startLocked(options: StartOptions, envIn: Env, log: ReturnType<ty
   const source = options.source ?? process.env;
   const dbFile = join(dataDir, 'squarewright.db');
   const isNew = !existsSync(dbFile);
+  // 0600 before SQLite opens it (its -wal and -shm files take the same mode)
+  privateFile(dbFile, [`${dbFile}-wal`, `${dbFile}-shm`]);
   const secret = resolveAuthSecret(env, dataDir);
   loadMailTemplates();
   const db = openDatabase(dbFile);

@@ -66,16 +66,23 @@ export const acceptInvitationBodySchema = z.object({ name: personNameSchema, pas
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBodySchema>;
 export const acceptInvitationResponseSchema = z.object({ user: sessionUserSchema });
 
-/** GET /api/health */
+/**
+ * GET /api/health: `status` for everyone ('degraded' when the database does not answer or the
+ * mail server is failing); the details (version, database, mail queue and its last error,
+ * which names the mail server) only for a signed-in admin.
+ */
 export const healthResponseSchema = z.object({
-  version: z.string(),
-  database: z.enum(['ok', 'error']),
-  mail: z.object({
-    transport: z.enum(['smtp', 'local-fake']),
-    pending: z.number().int().nonnegative(),
-    failed: z.number().int().nonnegative(),
-    lastError: z.string().nullable(),
-  }),
+  status: z.enum(['ok', 'degraded']),
+  version: z.string().optional(),
+  database: z.enum(['ok', 'error']).optional(),
+  mail: z
+    .object({
+      transport: z.enum(['smtp', 'local-fake']),
+      pending: z.number().int().nonnegative(),
+      failed: z.number().int().nonnegative(),
+      lastError: z.string().nullable(),
+    })
+    .optional(),
 });
 export type HealthResponse = z.infer<typeof healthResponseSchema>;
 

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import { formatMoney, toDecimalString, type CurrencyTotal } from '../../../shared/contracts/ledger';
 import type {
   CreatePayoutRunInput,
@@ -231,17 +231,21 @@ function noteTransient(deps: PayoutsDeps, payoutId: string, message: string): vo
   deps.log.warn(`payout ${payoutId} stays pending (provider unavailable): ${message}`);
 }
 
-/** Applies the provider's view of a payout (from an answer or a webhook) to ours. */
-function applyProviderPayout(deps: PayoutsDeps, tx: DbOrTx, payoutId: string, remote: ProviderPayout): void {
+/** Applies the provider's view of a payout (from an answer or a webhook) to ours; true when it changed ours. */
+function applyProviderPayout(deps: PayoutsDeps, tx: DbOrTx, payoutId: string, remote: ProviderPayout): boolean {
   if (remote.status === 'paid') {
     const now = deps.clock.now();
-    if (endPending(tx, payoutId, now, { state: 'paid' }) && deps.events) {
+    const ended = endPending(tx, payoutId, now, { state: 'paid' });
+    if (ended && deps.events) {
       const p = tx.select({ amountMinor: payout.amountMinor, currency: payout.currency }).from(payout).where(eq(payout.id, payoutId)).get();
       if (p) deps.events.emit(tx, 'payout.paid', { payout: { id: payoutId, amountMinor: p.amountMinor, currency: p.currency, paidAt: now.toISOString() } });
     }
-  } else if (remote.status === 'failed' || remote.status === 'canceled') {
-    endPending(tx, payoutId, deps.clock.now(), { state: 'failed', message: remote.failure_message ?? `the provider reports the payout ${remote.status}` });
+    return ended;
   }
+  if (remote.status === 'failed' || remote.status === 'canceled') {
+    return endPending(tx, payoutId, deps.clock.now(), { state: 'failed', message: remote.failure_message ?? `the provider reports the payout ${remote.status}` });
+  }
+  return false;
 }
 
 /**
@@ -333,14 +337,20 @@ export function applyProviderEvent(deps: PayoutsDeps, event: ProviderEvent): 'ap
     }
     const inserted = tx.insert(paymentEvent).values({ id: event.id, type: event.type, payoutId, receivedAt: deps.clock.now() }).onConflictDoNothing().returning({ id: paymentEvent.id }).all();
     if (inserted.length === 0) return 'duplicate';
+    // an event that changes nothing of ours (an unknown account, a payout already settled,
+    // an account whose state we already have) is 'ignored', not 'applied'
     if (event.type === 'account.updated') {
       const remote = summariseAccount(event.data.object);
-      const changed = tx.update(payoutAccount).set(accountState(deps, remote)).where(eq(payoutAccount.providerAccountId, remote.id)).run();
+      const next = accountState(deps, remote);
+      const changed = tx
+        .update(payoutAccount)
+        .set(next)
+        .where(and(eq(payoutAccount.providerAccountId, remote.id), or(ne(payoutAccount.status, next.status), ne(payoutAccount.displayHint, next.displayHint))))
+        .run();
       return changed.changes > 0 ? 'applied' : 'ignored';
     }
     if (!payoutId) return 'ignored';
-    applyProviderPayout(deps, tx, payoutId, event.data.object);
-    return 'applied';
+    return applyProviderPayout(deps, tx, payoutId, event.data.object) ? 'applied' : 'ignored';
   });
 }
 

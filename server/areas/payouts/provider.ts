@@ -104,6 +104,23 @@ export type PaymentsProvider = {
   parseWebhook(rawBody: Buffer | string, signature: string | undefined): { id: string; type: string; event: ProviderEvent | null };
 };
 
+/** A signed event is accepted within 5 minutes of its signature's time, either way [the provider's documented default tolerance]. */
+export const WEBHOOK_TOLERANCE_SEC = 300;
+
+/**
+ * Why the signature's time (`t=` in the Stripe-Signature header) is outside the window, or
+ * null. The provider library refuses only signatures that are too old; one dated in the
+ * future is refused here too (a replay prepared in advance, or a clock that is wrong).
+ */
+export function signatureTimeProblem(header: string, nowSec: number, toleranceSec = WEBHOOK_TOLERANCE_SEC): string | null {
+  const t = /(?:^|,)\s*t=(\d{1,12})\s*(?:,|$)/.exec(header)?.[1];
+  if (t === undefined) return 'the signature carries no time (t=)';
+  const age = nowSec - Number(t);
+  if (age > toleranceSec) return `the signature is ${age} s old (at most ${toleranceSec} s)`;
+  if (age < -toleranceSec) return `the signature is dated ${-age} s in the future (at most ${toleranceSec} s)`;
+  return null;
+}
+
 /** Whether an account can be paid, and a hint for people (bank and last digits; never the number). */
 export function summariseAccount(account: z.infer<typeof accountSchema>): AccountSummary {
   const bank = account.external_accounts?.data[0];
@@ -179,7 +196,9 @@ export function createPaymentsProvider(config: PaymentsConfig): PaymentsProvider
       call('read payout', () => stripe.payouts.retrieve(providerPayoutId, {}, { stripeAccount: accountId }), providerPayoutSchema),
     parseWebhook: (rawBody, signature) => {
       if (!signature) throw new Error('the Stripe-Signature header is missing');
-      const verified: unknown = stripe.webhooks.constructEvent(rawBody, signature, config.webhookSecret);
+      const late = signatureTimeProblem(signature, Math.floor(Date.now() / 1000));
+      if (late) throw new Error(late);
+      const verified: unknown = stripe.webhooks.constructEvent(rawBody, signature, config.webhookSecret, WEBHOOK_TOLERANCE_SEC);
       return readProviderEvent(verified);
     },
   };

@@ -8,7 +8,7 @@ import { route, type ApiRouter } from './route';
 export function registerSystemRoutes(router: ApiRouter, deps: PlatformDeps) {
   const version = appVersion();
 
-  route(router, { method: 'GET', path: '/api/health', summary: 'Version, database and mail status', response: healthResponseSchema }, () => {
+  route(router, { method: 'GET', path: '/api/health', summary: 'ok or degraded; version, database and mail details for admins', response: healthResponseSchema }, ({ maybeUser }) => {
     let database: 'ok' | 'error' = 'ok';
     try {
       deps.db.get(sql`select 1`);
@@ -16,7 +16,10 @@ export function registerSystemRoutes(router: ApiRouter, deps: PlatformDeps) {
       database = 'error';
     }
     const mail = database === 'ok' ? deps.mail.status() : { pending: 0, failed: 0, lastError: null };
-    return { version, database, mail: { transport: deps.mail.transport, ...mail } };
+    const status = database === 'ok' && mail.lastError === null ? ('ok' as const) : ('degraded' as const);
+    // nothing internal to anyone else: the mail error names hosts and ports
+    if (maybeUser?.role !== 'admin') return { status };
+    return { status, version, database, mail: { transport: deps.mail.transport, ...mail } };
   });
 
   route(router, { method: 'GET', path: '/api/openapi.json', summary: 'This API as an OpenAPI 3.1 document' }, ({ res }) => {

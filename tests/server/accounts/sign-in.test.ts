@@ -2,7 +2,8 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, testPassword, type TestApp } from '../helpers/test-app';
 
-// Sign-in must be rate-limited (issue 2). Limit here: 3 attempts per 60 s per client address.
+// Sign-in must be rate-limited (issue 2). Limit here: 3 failed attempts per 60 s per client
+// address (issue 15: only failures count, so signing in right never uses up the limit).
 let t: TestApp;
 beforeAll(async () => {
   t = await createTestApp({ signInLimit: { window: 60, max: 3 } });
@@ -27,9 +28,10 @@ describe('sign-in', () => {
     await agent.get('/api/me').expect(401);
   });
 
-  it('after 3 attempts in the window, further attempts get 429 even with the right password', async () => {
-    // attempts 1 and 2 were used above
+  it('after 3 failed attempts in the window, further attempts get 429 even with the right password', async () => {
+    // failure 1 was above (the sign-in that worked did not count)
     await request(t.app).post('/api/auth/sign-in/email').send({ email: 'editor@test.squarewright.test', password: 'wrong-again' }).expect(401);
+    await request(t.app).post('/api/auth/sign-in/email').send({ email: 'editor@test.squarewright.test', password: 'wrong-thrice' }).expect(401);
     const limited = await request(t.app).post('/api/auth/sign-in/email').send({ email: 'editor@test.squarewright.test', password: testPassword });
     expect(limited.status).toBe(429);
     expect(limited.headers['x-retry-after']).toBeDefined();

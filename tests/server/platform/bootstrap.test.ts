@@ -27,7 +27,8 @@ describe('startServer', () => {
     const first = await startServer({ source: { ...base, DATA_DIR: dir }, seeders: [], quiet: true });
     const port = (first.httpServer.address() as AddressInfo).port;
     const health = await request(`http://127.0.0.1:${port}`).get('/api/health').expect(200);
-    expect(health.body.mail.transport).toBe('local-fake');
+    expect(health.body).toEqual({ status: 'ok' });
+    expect(first.deps.mail.transport).toBe('local-fake');
     expect((await request(first.app).get('/api/public/config')).body.demo).toBe(true);
     expect(first.deps.db.select({ id: user.id }).from(user).all()).toHaveLength(4);
     await first.close();
