@@ -53,6 +53,10 @@ describe('assigning printers', () => {
     const res = await admin.put(`/api/publications/${quadrant}/printers`).send(body).expect(200);
     expect(res.body.items).toEqual([{ id: oursId, name: 'Quadrant Printer', email: 'quadrant-printer@test.squarewright.test' }]);
     await admin.put(`/api/publications/${monthly}/printers`).send({ userIds: [theirsId] }).expect(200);
+    const choices = (await admin.get(`/api/publications/${quadrant}/printers`).expect(200)).body;
+    expect(choices.items.map((p: { id: string }) => p.id)).toEqual([oursId]);
+    expect(choices.candidates.map((p: { id: string }) => p.id).sort()).toEqual([oursId, theirsId].sort());
+    await editor.get(`/api/publications/${quadrant}/printers`).expect(403);
     const pubs = (await editor.get('/api/publications').expect(200)).body.items as { id: string; printers: { id: string }[] }[];
     expect(pubs.find((p) => p.id === quadrant)!.printers.map((p) => p.id)).toEqual([oursId]);
     expect(pubs.find((p) => p.id === monthly)!.printers.map((p) => p.id)).toEqual([theirsId]);
