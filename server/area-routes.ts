@@ -1,6 +1,6 @@
 import type { AppDeps } from './app-deps';
 import { registerAccountRoutes } from './areas/accounts/index';
-import { registerEditionRoutes, registerPublicationRoutes } from './areas/editions/index';
+import { registerEditionDueRoutes, registerEditionRoutes, registerPublicationRoutes } from './areas/editions/index';
 import { registerFoundryRoutes } from './areas/foundry/index';
 import { registerFeedRoutes, registerIntegrationRoutes } from './areas/integrations/index';
 import { registerTilingRoutes, registerSubmissionRoutes } from './areas/intake/index';
@@ -26,6 +26,8 @@ export const areaRoutes: ((router: ApiRouter, deps: AppDeps) => void)[] = [
   registerPuzzleRoutes,
   registerTemplateRoutes,
   registerPublicationRoutes,
+  // before registerEditionRoutes: /api/editions/due must not be read as /api/editions/:id
+  registerEditionDueRoutes,
   registerEditionRoutes,
   registerIntegrationRoutes,
   registerFeedRoutes,

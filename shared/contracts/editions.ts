@@ -340,6 +340,22 @@ export type EditionCheck = z.infer<typeof editionCheckSchema>;
 export const editionChecksSchema = z.object({ ok: z.boolean(), checks: z.array(editionCheckSchema), preflight: preflightSchema.nullable() });
 export type EditionChecks = z.infer<typeof editionChecksSchema>;
 
+/** GET /api/editions/due (editor): editions dated within the next days (or past their date) and not yet published, with what each still needs. */
+export const dueEditionSchema = z.object({
+  id: z.string(),
+  publicationTitle: z.string(),
+  number: z.number().int(),
+  date: z.string(),
+  /** days from today to the edition's date (negative: overdue) */
+  daysLeft: z.number().int(),
+  state: editionStateSchema,
+  /** what it still needs, in words ("2 more puzzles", "send it to proof", "the printer's answer on proof v2") */
+  needs: z.array(z.string()),
+});
+export type DueEdition = z.infer<typeof dueEditionSchema>;
+export const dueEditionsSchema = z.object({ days: z.number().int(), items: z.array(dueEditionSchema) });
+export const dueEditionsQuerySchema = z.object({ days: z.coerce.number({ error: 'days must be a whole number' }).int('days must be a whole number').min(1).max(90).default(14) }).strict();
+
 /** Which moves the server allows (also used by the client to show only possible actions). */
 export const editionTransitions: Record<EditionState, EditionState[]> = {
   draft: ['in_proof'],

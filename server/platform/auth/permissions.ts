@@ -78,6 +78,7 @@ export const permissions: Record<string, Access> = {
   'POST /api/editions/:id/proofs/:version/return': ['printer'],
   'POST /api/editions/:id/publish': ['editor'],
   'GET /api/editions/:id/publish-check': ['editor'],
+  'GET /api/editions/due': ['editor'],
   'GET /api/publications': ['editor'],
   'POST /api/publications': ['admin'],
   'PATCH /api/publications/:id': ['admin'],
