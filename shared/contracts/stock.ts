@@ -62,7 +62,8 @@ export const stockListQuerySchema = stockFilterSchema
 export type StockListQuery = z.infer<typeof stockListQuerySchema>;
 
 export const stockExportQuerySchema = stockFilterSchema
-  .extend({ limit: intParam(1, 100_000).default(10_000) })
+  // no limit: every row of the selection (streamed); `limit` asks for the first rows only
+  .extend({ limit: intParam(1, 10_000_000).optional() })
   .strict()
   .superRefine(rangeCheck);
 export type StockExportQuery = z.infer<typeof stockExportQuerySchema>;

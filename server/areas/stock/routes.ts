@@ -11,9 +11,11 @@ import {
   type StockItem,
 } from '../../../shared/contracts/stock';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { renderTilingPng, PNG_SIZES } from '../../platform/images/tiling-png';
+import { PNG_SIZES } from '../../platform/images/tiling-png';
+import { tilingPngOnWorker } from './png-job';
 import type { StockDeps } from './ports';
-import { exportStock, fillStockReducedKeys, getStockDetail, listStock, stockCodeFile, stockCsv, stockSummary, stockTiling } from './stock';
+import { exportBatches, fillStockReducedKeys, getStockDetail, listStock, stockCodeFileHead, stockCsvHead, stockCsvRows, stockSummary, stockTiling } from './stock';
+import { countStock } from './stock-filter';
 
 /** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
 const PNG_CACHE_MAX = 500;
@@ -36,36 +38,54 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
     () => stockSummary(deps.db, deps.stockUsage),
   );
 
-  /** An export route's answer: the filtered selection (at most `limit`) as a file. */
+  /**
+   * An export route's answer: the whole filtered selection (or the first `limit` rows) as a file,
+   * streamed in batches of 2,000 rows with a turn of the event loop between them (and waiting
+   * for the client when it reads slower), so a 100,000-row export does not hold up anyone else.
+   */
   const exportAs =
-    (fileName: string, type: string, write: (items: StockItem[]) => string) =>
-    ({ res, query }: { res: Response; query: StockExportQuery }) => {
+    (fileName: string, type: string, head: (count: number) => string, rows: (items: StockItem[]) => string) =>
+    async ({ res, query }: { res: Response; query: StockExportQuery }) => {
       const { limit, ...filter } = query;
-      res.status(200).attachment(fileName).type(type).send(write(exportStock(deps.db, filter, limit)));
+      const total = Math.min(countStock(deps.db, filter), limit ?? Infinity);
+      res.status(200).attachment(fileName).type(type).setHeader('X-Total-Count', String(total));
+      let gone = false;
+      res.on('close', () => (gone = true));
+      const write = async (text: string) => {
+        if (!res.write(text)) await new Promise<void>((r) => res.once('drain', () => r()).once('close', () => r()));
+      };
+      await write(head(total));
+      for (const batch of exportBatches(deps.db, filter, limit)) {
+        if (gone) return;
+        await write(rows(batch));
+        await new Promise<void>((r) => setImmediate(r));
+      }
+      res.end();
     };
 
   route(
     router,
-    { method: 'GET', path: '/api/stock/export.csv', summary: 'The filtered selection as CSV', tags, query: stockExportQuerySchema, produces: 'text/csv' },
-    exportAs('squarewright-stock.csv', 'text/csv; charset=utf-8', stockCsv),
+    { method: 'GET', path: '/api/stock/export.csv', summary: 'The whole filtered selection as CSV, streamed (limit: the first rows only); X-Total-Count says how many rows', tags, query: stockExportQuerySchema, produces: 'text/csv' },
+    exportAs('squarewright-stock.csv', 'text/csv; charset=utf-8', stockCsvHead, stockCsvRows),
   );
 
   route(
     router,
-    { method: 'GET', path: '/api/stock/export.bkp', summary: 'The filtered selection as a code file (one canonical Bouwkamp code a line)', tags, query: stockExportQuerySchema, produces: 'text/plain' },
-    exportAs('squarewright-stock.bkp', 'text/plain; charset=utf-8', (items) => stockCodeFile(items, deps.clock.now())),
+    { method: 'GET', path: '/api/stock/export.bkp', summary: 'The whole filtered selection as a code file (one canonical Bouwkamp code a line), streamed', tags, query: stockExportQuerySchema, produces: 'text/plain' },
+    exportAs('squarewright-stock.bkp', 'text/plain; charset=utf-8', (n) => stockCodeFileHead(n, deps.clock.now()), (items) => items.map((i) => `${i.canonicalCode}\n`).join('')),
   );
 
   route(
     router,
     { method: 'GET', path: '/api/stock/:id/image.png', summary: 'The tiling as a PNG with sizes written in the squares (?size=thumb for a thumbnail), cached by canonical key', tags, params: idParamsSchema, query: imageQuerySchema, produces: 'image/png' },
-    ({ res, params, query }) => {
+    async ({ res, params, query }) => {
       const { tiling, canonicalKey } = stockTiling(deps.db, params.id);
       const width = query.size === 'thumb' ? PNG_SIZES.thumbnail2x : PNG_SIZES.web;
       const key = `${canonicalKey}@${width}`;
       let png = pngCache.get(key);
       if (!png) {
-        png = renderTilingPng(tiling, { width, labels: true });
+        // drawn on a job worker: a page of thumbnails never holds up other requests
+        png = await tilingPngOnWorker(deps.jobs, tiling, { width, labels: true });
         if (pngCache.size >= PNG_CACHE_MAX) pngCache.delete(pngCache.keys().next().value!);
         pngCache.set(key, png);
       }

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
 import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
@@ -270,7 +270,33 @@ export interface ExportRow extends StockItem {
   squaresJson: string;
 }
 
-/** The filtered selection for export, newest first, at most `limit` rows. */
+/**
+ * The filtered selection for export, newest first, in batches of `batch` rows read by keyset
+ * (created_at, id): each batch is one short query, so an export of 100,000 rows never holds the
+ * thread for long; at most `limit` rows in all (every row when undefined).
+ */
+export function* exportBatches(db: DbOrTx, f: StockFilter, limit: number | undefined, batch = 2_000): Generator<StockItem[]> {
+  let left = limit ?? Infinity;
+  let after: { createdAt: Date; id: number } | null = null;
+  while (left > 0) {
+    const keyset: SQL | undefined = after ? sql`(${stock.createdAt} < ${after.createdAt.getTime()} or (${stock.createdAt} = ${after.createdAt.getTime()} and ${stock.id} < ${after.id}))` : undefined;
+    const rows: ItemRow[] = db
+      .select(itemColumns)
+      .from(stock)
+      .where(and(stockWhere(f), keyset))
+      .orderBy(desc(stock.createdAt), desc(stock.id))
+      .limit(Math.min(batch, left))
+      .all();
+    if (rows.length === 0) return;
+    left -= rows.length;
+    const last: ItemRow = rows[rows.length - 1]!;
+    after = { createdAt: last.createdAt, id: last.id };
+    yield rows.map(toItem);
+    if (rows.length < batch) return;
+  }
+}
+
+/** The filtered selection for export, newest first, at most `limit` rows, at once (tests; routes stream exportBatches). */
 export function exportStock(db: DbOrTx, f: StockFilter, limit: number): StockItem[] {
   return db
     .select(itemColumns)
@@ -287,17 +313,28 @@ function csvCell(v: unknown): string {
   return /[",\n\r]/.test(s) ? `"${s.replaceAll('"', '""')}"` : s;
 }
 
-export function stockCsv(items: StockItem[]): string {
-  const cols = ['id', 'canonicalKey', 'canonicalCode', 'width', 'height', 'order', 'square', 'perfect', 'simple', 'provenance', 'useCount', 'createdAt', 'acceptedAt'] as const;
-  const lines = [cols.join(',')];
-  for (const it of items) lines.push(cols.map((c) => csvCell(it[c])).join(','));
-  return lines.join('\r\n') + '\r\n';
+const csvColumns = ['id', 'canonicalKey', 'canonicalCode', 'width', 'height', 'order', 'square', 'perfect', 'simple', 'provenance', 'useCount', 'createdAt', 'acceptedAt'] as const;
+
+/** The CSV's header line. */
+export const stockCsvHead = () => csvColumns.join(',') + '\r\n';
+
+/** CSV lines of these items (no header). */
+export function stockCsvRows(items: StockItem[]): string {
+  let out = '';
+  for (const it of items) out += csvColumns.map((c) => csvCell(it[c])).join(',') + '\r\n';
+  return out;
 }
+
+export function stockCsv(items: StockItem[]): string {
+  return stockCsvHead() + stockCsvRows(items);
+}
+
+/** The code file's comment lines (`#`: our upload skips them). */
+export const stockCodeFileHead = (count: number, now: Date) => `# Squarewright stock export, ${count} tilings, ${now.toISOString()}\n# one canonical Bouwkamp code per line\n`;
 
 /** One canonical Bouwkamp code a line; `#` lines are comments (our upload reads this file back). */
 export function stockCodeFile(items: StockItem[], now: Date): string {
-  const head = [`# Squarewright stock export, ${items.length} tilings, ${now.toISOString()}`, '# one canonical Bouwkamp code per line'];
-  return [...head, ...items.map((i) => i.canonicalCode)].join('\n') + '\n';
+  return stockCodeFileHead(items.length, now) + items.map((i) => `${i.canonicalCode}\n`).join('');
 }
 
 /** Every canonical key in the stock. */
