@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { user } from '../../platform/auth/schema';
+import { job } from '../../platform/jobs/schema';
 import { stock, tilingColumns } from '../stock/schema';
 
 // Setters' submissions: verified on the way in, reviewed by an editor.
@@ -40,4 +41,28 @@ export const submission = sqliteTable(
     index('submission_key_idx').on(t.canonicalKey),
     index('submission_reduced_key_idx').on(t.reducedKey, t.status),
   ],
+);
+
+/**
+ * One line of an uploaded file as the upload job stored it (decision 051): its verdict and the
+ * submission it made. The job stores lines in small batches; a line is stored once (resuming
+ * an interrupted upload skips the lines already here).
+ */
+export const uploadLine = sqliteTable(
+  'upload_line',
+  {
+    jobId: text('job_id')
+      .notNull()
+      .references(() => job.id, { onDelete: 'cascade' }),
+    line: integer('line').notNull(),
+    verdict: text('verdict', { enum: ['valid', 'invalid', 'duplicate'] }).notNull(),
+    submissionId: integer('submission_id').references(() => submission.id, { onDelete: 'set null' }),
+    duplicateOf: text('duplicate_of', { enum: ['stock', 'pending', 'this-file'] }),
+    /** invalid lines: the engine's error (code, message, where), JSON */
+    errorJson: text('error_json'),
+    order: integer('order'),
+    width: integer('width'),
+    height: integer('height'),
+  },
+  (t) => [primaryKey({ columns: [t.jobId, t.line] })],
 );
