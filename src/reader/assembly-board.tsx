@@ -224,7 +224,7 @@ export function AssemblyBoard({ play, placements, wrong, locked, selected, onSel
               key={q.piece}
               role={q.starter ? 'img' : 'button'}
               tabIndex={q.starter || locked ? undefined : 0}
-              aria-label={q.starter ? `Starter piece ${q.s}, fixed at ${q.x}, ${q.y}` : `Piece ${q.s} at ${q.x}, ${q.y}${isWrong ? ', wrong' : ''}. Enter to move it, Delete to remove it.`}
+              aria-label={`${[label(q.s), isWrong && label(q.s) ? '\u2715' : ''].filter(Boolean).join(' ')}${label(q.s) ? ': ' : ''}${q.starter ? `starter piece ${q.s}, fixed at ${q.x}, ${q.y}` : `piece ${q.s} at ${q.x}, ${q.y}${isWrong ? ', wrong' : ''}. Enter to move it, Delete to remove it.`}`}
               data-piece={q.piece}
               data-size={q.s}
               className={q.starter || locked ? '' : 'cursor-grab focus:outline-none'}
@@ -244,9 +244,8 @@ export function AssemblyBoard({ play, placements, wrong, locked, selected, onSel
                 strokeWidth={isWrong ? 3 : 1}
                 vectorEffect="non-scaling-stroke"
               />
-              <text x={q.x + q.s / 2} y={q.y + q.s / 2} fontSize={fontSize(q.s)} textAnchor="middle" dominantBaseline="central" fill={isWrong ? '#a23a32' : INK} fontWeight={q.starter ? 700 : 400}>
-                {label(q.s)}
-                {isWrong && label(q.s) ? ' \u2715' : ''}
+              <text aria-hidden="true" x={q.x + q.s / 2} y={q.y + q.s / 2} fontSize={fontSize(q.s)} textAnchor="middle" dominantBaseline="central" fill={isWrong ? '#a23a32' : INK} fontWeight={q.starter ? 700 : 400}>
+                {[label(q.s), isWrong && label(q.s) ? '\u2715' : ''].filter(Boolean).join(' ')}
               </text>
             </g>
           );

@@ -89,6 +89,7 @@ export function DeductionBoard({ play, entries, wrong, locked, selected, onSelec
           const value = given ?? typed.get(i);
           const isWrong = wrong.has(i);
           const label = play.labels[i] ?? String(i + 1);
+          const shown = `${value ?? ''}${isWrong ? ' \u2715' : ''}`;
           return (
             <g
               key={i}
@@ -98,22 +99,24 @@ export function DeductionBoard({ play, entries, wrong, locked, selected, onSelec
               role="button"
               tabIndex={0}
               data-square={i}
-              aria-label={`Square ${label}: ${given !== undefined ? `given, ${given}` : value !== undefined ? `${value}${isWrong ? ', wrong' : ''}` : 'empty'}`}
+              aria-label={`${label}${value !== undefined ? ` ${shown}` : ''}: square ${label}, ${given !== undefined ? 'given' : value !== undefined ? (isWrong ? 'wrong' : 'entered') : 'empty'}`}
               className="cursor-pointer focus:outline-none"
               onFocus={() => onSelect(i)}
               onClick={() => focusCell(i)}
               onKeyDown={(e) => onCellKeyDown(e, i)}
             >
               <rect x={r.x} y={r.y} width={r.w} height={r.h} fill={isWrong ? '#f6e1de' : sel === i ? '#e9c9b6' : given !== undefined ? '#efeae0' : '#fffdf9'} stroke={isWrong ? '#a23a32' : '#1f2328'} strokeWidth={isWrong ? 3 : sel === i ? 2.5 : 1} vectorEffect="non-scaling-stroke" />
-              <text x={r.x + minSide(r) * 0.08} y={r.y + minSide(r) * 0.08} fontSize={minSide(r) * 0.22} dominantBaseline="hanging" fill="#5c6169">
-                {label}
+              {/* one text element, so what is seen reads as the start of the square's name: "E 6" */}
+              <text>
+                <tspan x={r.x + minSide(r) * 0.08} y={r.y + minSide(r) * 0.08} fontSize={Math.min(minSide(r) * 0.22, Math.max(W, H) / 22)} dominantBaseline="hanging" fill="#5c6169">
+                  {label}
+                </tspan>
+                {value !== undefined ? (
+                  <tspan x={r.x + r.w / 2} y={r.y + r.h / 2} fontSize={minSide(r) * 0.36} textAnchor="middle" dominantBaseline="central" fill={isWrong ? '#a23a32' : '#1f2328'} fontWeight={given !== undefined ? 700 : 400}>
+                    {` ${shown}`}
+                  </tspan>
+                ) : null}
               </text>
-              {value !== undefined ? (
-                <text x={r.x + r.w / 2} y={r.y + r.h / 2} fontSize={minSide(r) * 0.36} textAnchor="middle" dominantBaseline="central" fill={isWrong ? '#a23a32' : '#1f2328'} fontWeight={given !== undefined ? 700 : 400}>
-                  {value}
-                  {isWrong ? ' \u2715' : ''}
-                </text>
-              ) : null}
             </g>
           );
         })}

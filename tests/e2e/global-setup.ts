@@ -50,7 +50,8 @@ function buildAndCopy(target: string): void {
   const t0 = Date.now();
   const args = hasFlock() ? ['flock', '/tmp/squarewright-e2e-build.lock', 'sh', '-c', script] : ['sh', '-c', script];
   const [cmd, ...rest] = args as [string, ...string[]];
-  const r = spawnSync(cmd, rest, { cwd: root, stdio: ['ignore', 'pipe', 'pipe'], encoding: 'utf8', env: process.env });
+  // build as `npm start` does: vitest sets NODE_ENV=test, which would make Vite bundle React's development build
+  const r = spawnSync(cmd, rest, { cwd: root, stdio: ['ignore', 'pipe', 'pipe'], encoding: 'utf8', env: { ...process.env, NODE_ENV: 'production' } });
   if (r.status !== 0) {
     throw new Error(`e2e: building the app failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
   }

@@ -1,4 +1,7 @@
+import compression from 'compression';
 import type { Request, Response } from 'express';
+import { existsSync, readFileSync } from 'node:fs';
+import { fromRoot } from '../../platform/app-root';
 import { z } from 'zod';
 import { publicEditionParamsSchema, publicPuzzleParamsSchema, readerSlugSchema } from '../../../shared/contracts/reader';
 import { NotFound } from '../../platform/http/errors';
@@ -27,12 +30,29 @@ export function registerReaderPages(router: ApiRouter, deps: ReaderDeps) {
   const read: PageMode = { embed: false, assets };
   const embed: PageMode = { embed: true, assets };
 
+  // pages gzipped: most of a reader's first bytes on a slow link
+  router.express.use(['/read', '/embed'], compression());
+
+  // the publisher's height helper (public/embed/frame.js, copied into the built client): loaded
+  // by other sites' pages, so it may be read cross-origin (the rest of the app is same-origin only)
+  router.express.get('/embed/frame.js', (_req, res) => {
+    const file = [fromRoot('dist', 'client', 'embed', 'frame.js'), fromRoot('public', 'embed', 'frame.js')].find((f) => existsSync(f));
+    if (!file) {
+      res.status(404).type('text/plain').send('Not found');
+      return;
+    }
+    res.setHeader('Cross-Origin-Resource-Policy', 'cross-origin');
+    res.setHeader('Cache-Control', 'public, max-age=3600');
+    res.type('text/javascript').send(readFileSync(file, 'utf8'));
+  });
+
   const page = (path: string, mode: PageMode, handler: Handler) => {
     router.express.get(path, (req: Request, res: Response, next) => {
       try {
         const out = handler(req, mode);
         if (mode.embed) res.locals.frameAncestors = out.frameAncestors ?? [];
-        res.status(200).type('html').setHeader('Cache-Control', 'public, max-age=60').send(out.html);
+        // no-cache: revalidated each time (ETag), so a release, a solution or an embed origin shows at once
+        res.status(200).type('html').setHeader('Cache-Control', 'no-cache').send(out.html);
       } catch (err) {
         if (err instanceof NotFound || err instanceof z.ZodError) {
           if (mode.embed) res.locals.frameAncestors = [];

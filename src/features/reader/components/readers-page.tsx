@@ -78,7 +78,7 @@ export function ReadersPage() {
                       <td className="px-3 py-2 tabular">{p.timeMs ? `${durationText(p.timeMs.median)} (${durationText(p.timeMs.q1)} to ${durationText(p.timeMs.q3)})` : 'no solves yet'}</td>
                       <td className="px-3 py-2 text-right tabular">{percentText(p.revealRate)}</td>
                       <td className="px-3 py-2">
-                        <Button size="sm" onClick={() => setAdjusting(p)} aria-label={`Adjust the grade of ${p.title}`}>
+                        <Button size="sm" onClick={() => setAdjusting(p)} aria-label={`Adjust grade of ${p.title}`}>
                           Adjust grade
                         </Button>
                       </td>
@@ -119,9 +119,10 @@ function EmbedCard({ puzzles }: { puzzles: PuzzleSolveStats[] }) {
       ) : (
         [...editions.values()].map((e) => (
           <details key={e.path} className="rounded-md border border-rule px-3 py-2">
-            <summary className="cursor-pointer font-semibold">
-              {e.title}: <a href={e.path}>{e.path}</a>
-            </summary>
+            <summary className="cursor-pointer font-semibold">{e.title}</summary>
+            <p className="mt-2 text-sm">
+              Public page: <a href={e.path}>{e.path}</a>
+            </p>
             <Snippet label={`Embed ${e.title}`} text={embedSnippet(origin, e.path.replace(/^\/read\//, '/embed/'), e.title)} />
             {e.puzzles.map((p) => (
               <Snippet key={p.path} label={`Embed ${p.title}`} text={embedSnippet(origin, p.path!.replace(/^\/read\//, '/embed/'), p.title)} />
