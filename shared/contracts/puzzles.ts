@@ -133,6 +133,8 @@ export const puzzleDetailSchema = puzzleSummarySchema.extend({
   /** what the engine said beyond the verdict (fewest starters proved, minimal givens, ...) */
   notes: z.array(z.string()),
   lastRecheck: z.object({ holds: z.boolean(), reasons: z.array(z.string()), at: z.string() }).nullable(),
+  /** the latest re-check that did not finish (it changed nothing: the certificate in force stays) */
+  lastUnfinishedRecheck: z.object({ state: z.enum(['failed', 'cancelled', 'interrupted']), at: z.string() }).nullable().optional(),
   job: puzzleJobSchema.nullable(),
 });
 export type PuzzleDetail = z.infer<typeof puzzleDetailSchema>;

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ne, sql, type SQL } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import {
   type PuzzleCreate,
@@ -21,7 +21,7 @@ import { stock } from '../stock/index';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { issuesText } from '../../platform/db/stored-json';
 import { certificateInputOf, DEFAULT_LEVEL, nodeSha256, PUZZLE_JOB_KIND, puzzleJobParamsSchema, puzzleJobSummarySchema, type Placed, type PuzzleJobInput, type PuzzleJobParams, type PuzzleJobSummary } from './rules';
-import { certificateOf, givensOf, lastRecheckOf, levelOf, levelText, notesOf, secondOf, startersOf, stepsOf } from './stored';
+import { certificateOf, givensOf, lastRecheckOf, levelOf, levelText, notesOf, secondOf, startersOf, stepsOf, type StoredRecheck } from './stored';
 import { defineJobSink, type JobRecord, type Jobs } from '../../platform/jobs/port';
 import type { PuzzleForPrint, PuzzleSource } from '../editions/ports';
 import type { StockPort, StockUsage } from '../stock/ports';
@@ -69,11 +69,27 @@ function currentInputHash(kind: 'assembly' | 'deduction', tiling: Tiling, level:
 
 // ---- the job and its result ------------------------------------------------------------
 
-/** A proof of this revision that ends without a result (only while it is still the one running: a PATCH cancels the previous proof). */
-function endProof(db: DbOrTx, puzzleId: number, revision: number, status: 'cancelled' | 'failed', why?: string): void {
+/**
+ * A proof of this revision that ends without a result (only while it is still the one running:
+ * a PATCH cancels the previous proof). A RE-CHECK that ends so demotes nothing: the puzzle goes
+ * back to its certificate's verdict (the certificate in force stays) and the unfinished attempt
+ * is recorded beside it (recheckJson.unfinished).
+ */
+function endProof(db: DbOrTx, puzzleId: number, revision: number, status: 'cancelled' | 'failed', why?: string, task?: PuzzleJobParams['task'], jobState?: 'failed' | 'cancelled' | 'interrupted'): void {
+  const current = and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving'));
+  if (task === 'recheck') {
+    const r = db.select({ id: puzzle.id, certificateJson: puzzle.certificateJson, recheckJson: puzzle.recheckJson }).from(puzzle).where(current).get();
+    const cert = r ? certificateOf(r) : null;
+    if (r && cert) {
+      const previous = lastRecheckOf(r) ?? {};
+      const recheck: StoredRecheck = { ...previous, unfinished: { state: jobState ?? status, at: new Date().toISOString() } };
+      db.update(puzzle).set({ status: cert.verdict, recheckJson: JSON.stringify(recheck), updatedAt: new Date() }).where(current).run();
+      return;
+    }
+  }
   db.update(puzzle)
     .set({ status, updatedAt: new Date(), ...(why === undefined ? {} : { notesJson: JSON.stringify([why]) }) })
-    .where(and(eq(puzzle.id, puzzleId), eq(puzzle.revision, revision), eq(puzzle.status, 'proving')))
+    .where(current)
     .run();
 }
 
@@ -82,9 +98,9 @@ function endProof(db: DbOrTx, puzzleId: number, revision: number, status: 'cance
  * stored. A summary that does not parse fails the proof, stores none of it and says why in
  * the puzzle's notes; a cancelled job marks only its own revision cancelled.
  */
-export function finishProof(tx: DbOrTx, puzzleId: number, revision: number, summary: unknown, state: 'done' | 'cancelled'): void {
+export function finishProof(tx: DbOrTx, puzzleId: number, revision: number, summary: unknown, state: 'done' | 'cancelled', task?: PuzzleJobParams['task']): void {
   if (state === 'cancelled' || summary === null) {
-    endProof(tx, puzzleId, revision, 'cancelled');
+    endProof(tx, puzzleId, revision, 'cancelled', undefined, task, 'cancelled');
     return;
   }
   const parsed = puzzleJobSummarySchema.safeParse(summary);
@@ -93,7 +109,7 @@ export function finishProof(tx: DbOrTx, puzzleId: number, revision: number, summ
     return;
   }
   const issues = issuesText(parsed.error);
-  endProof(tx, puzzleId, revision, 'failed', `the proof's result was refused and nothing of it was stored (${issues})`);
+  endProof(tx, puzzleId, revision, 'failed', `the proof's result was refused and nothing of it was stored (${issues})`, task, 'failed');
 }
 
 /** Store a finished proof (in the job's final transaction); ignored when the puzzle changed since. */
@@ -135,8 +151,8 @@ export const puzzleProofSink = defineJobSink({
   retryable: false,
   onFinish(summary, tx, state, job) {
     const p = puzzleJobParamsSchema.parse(job.params);
-    if (state === 'done' || state === 'cancelled') finishProof(tx, p.puzzleId, p.revision, summary, state);
-    else endProof(tx, p.puzzleId, p.revision, 'failed');
+    if (state === 'done' || state === 'cancelled') finishProof(tx, p.puzzleId, p.revision, summary, state, p.task);
+    else endProof(tx, p.puzzleId, p.revision, 'failed', undefined, p.task, state === 'interrupted' ? 'interrupted' : 'failed');
   },
 });
 
@@ -277,9 +293,16 @@ function usesOf(deps: PuzzlesStore, ids: number[]): Map<number, PuzzleSummary['u
 
 type SummaryRow = Pick<PuzzleRow, 'id' | 'kind' | 'title' | 'status' | 'grade' | 'level' | 'stockId' | 'certificateJson' | 'inputHash' | 'createdAt' | 'updatedAt' | 'jobId'> & { tilingKey: string; order: number; width: number; height: number };
 
-/** The status to show: a proof whose job failed or was interrupted (server restart) is 'failed'. */
-function effectiveStatus(r: Pick<PuzzleRow, 'status'>, job: JobRecord | null): PuzzleStatus {
-  if (r.status === 'proving' && job && (job.state === 'failed' || job.state === 'interrupted')) return 'failed';
+/**
+ * The status to show: a proof whose job failed or was interrupted (server restart) is 'failed';
+ * a re-check that ended so is the certificate's verdict again (a re-check never demotes).
+ */
+function effectiveStatus(r: Pick<PuzzleRow, 'id' | 'status' | 'certificateJson'>, job: JobRecord | null): PuzzleStatus {
+  if (r.status === 'proving' && job && (job.state === 'failed' || job.state === 'interrupted' || job.state === 'cancelled')) {
+    const task = puzzleJobParamsSchema.safeParse(job.params);
+    const cert = task.success && task.data.task === 'recheck' ? certificateOf(r) : null;
+    return cert ? cert.verdict : job.state === 'cancelled' ? 'cancelled' : 'failed';
+  }
   return r.status;
 }
 
@@ -332,12 +355,30 @@ export function getPuzzle(deps: PuzzlesStore, runner: Jobs, id: number): PuzzleD
     staleReasons: staleReasons(r),
     second: secondOf(r),
     notes: notesOf(r),
-    lastRecheck: lastRecheckOf(r),
+    ...recheckView(lastRecheckOf(r)),
     job: jobOf(job),
   };
 }
 
-const printableWhere = (): SQL => and(eq(puzzle.status, 'unique'), eq(puzzle.certEngineVersion, PUZZLE_ENGINE_VERSION), sql`${puzzle.certInputHash} = ${puzzle.inputHash}`)!;
+/** The stored re-checks as the detail shows them: the last finished one, and an unfinished attempt after it. */
+function recheckView(stored: StoredRecheck | null): Pick<PuzzleDetail, 'lastRecheck' | 'lastUnfinishedRecheck'> {
+  const finished = stored && stored.holds !== undefined && stored.at !== undefined ? { holds: stored.holds, reasons: stored.reasons ?? [], at: stored.at } : null;
+  return { lastRecheck: finished, lastUnfinishedRecheck: stored?.unfinished ?? null };
+}
+
+/**
+ * Printable = what staleReasons calls current, in SQL: a certificate with the verdict unique,
+ * of the engine in use, for the puzzle as it is now, and no proof running. (Not `status =
+ * 'unique'`: a proof that failed or was cancelled after an unchanged input leaves the
+ * certificate in force, and staleReasons agrees.)
+ */
+const printableWhere = (): SQL =>
+  and(
+    sql`json_extract(${puzzle.certificateJson}, '$.verdict') = 'unique'`,
+    ne(puzzle.status, 'proving'),
+    eq(puzzle.certEngineVersion, PUZZLE_ENGINE_VERSION),
+    sql`${puzzle.certInputHash} = ${puzzle.inputHash}`,
+  )!;
 
 const sortColumns = { createdAt: puzzle.createdAt, updatedAt: puzzle.updatedAt, grade: puzzle.grade, order: stock.order, id: puzzle.id } as const;
 

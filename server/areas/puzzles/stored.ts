@@ -20,8 +20,16 @@ function parseColumn<T>(column: { name: string }, schema: z.ZodType<T>, rowId: n
   return parseStoredJson(schema, text, { table: getTableName(puzzle), rowId, column: column.name });
 }
 
-/** A re-check as stored: its outcome and when it ran. */
-const storedRecheckSchema = recheckOutcomeSchema.extend({ at: z.string() });
+/**
+ * Re-checks as stored: the outcome of the last one that finished and when it ran (absent
+ * before the first), and the latest attempt that did not finish (failed, cancelled or cut off
+ * by a server stop), which changed nothing else: the certificate in force stays.
+ */
+const storedRecheckSchema = recheckOutcomeSchema
+  .extend({ at: z.string() })
+  .partial()
+  .extend({ unfinished: z.object({ state: z.enum(['failed', 'cancelled', 'interrupted']), at: z.string() }).optional() });
+export type StoredRecheck = z.infer<typeof storedRecheckSchema>;
 
 /** The level column's text for a level (Deduction) or none (Assembly); levelOf reads it back. */
 export const levelText = (level: PuzzleLevel | null): string | null => (level === null ? null : JSON.stringify(level));

@@ -18,6 +18,8 @@ import { LayoutPackageCard } from './layout-package-card';
 import { AssemblyPreview, ChooseSquares, DeductionPreview } from './puzzle-drawings';
 import { kindLabel, levelLabel, levelOptions, parseLevel, statusLabel, statusTone } from './puzzle-labels';
 
+const unfinishedWords = { failed: 'it failed', cancelled: 'it was cancelled', interrupted: 'the server stopped while it ran' } as const;
+
 const key = (x: number, y: number) => `${x},${y}`;
 
 /** /puzzles/:id (editor): the workbench of one puzzle. */
@@ -186,6 +188,11 @@ function CertificateCard({ p }: { p: PuzzleDetail }) {
       {p.lastRecheck ? (
         <Alert tone={p.lastRecheck.holds ? 'success' : 'warning'} title={p.lastRecheck.holds ? `Re-checked ${formatDateTime(p.lastRecheck.at)}: it holds` : `Re-checked ${formatDateTime(p.lastRecheck.at)}: it did not hold, a fresh certificate was stored`}>
           {p.lastRecheck.reasons.length > 0 ? <ul className="list-disc pl-5">{p.lastRecheck.reasons.map((r) => <li key={r}>{r}</li>)}</ul> : 'The recomputation reached the same verdict and counts for the same input.'}
+        </Alert>
+      ) : null}
+      {p.lastUnfinishedRecheck ? (
+        <Alert tone="neutral" title={`Re-check of ${formatDateTime(p.lastUnfinishedRecheck.at)} did not finish (${unfinishedWords[p.lastUnfinishedRecheck.state]})`}>
+          The certificate above stays in force; re-check again when you like.
         </Alert>
       ) : null}
     </Card>
