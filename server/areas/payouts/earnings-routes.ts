@@ -3,7 +3,7 @@ import { monthSchema, statementSchema, statementSendResponseSchema } from '../..
 import { earningsSchema, payoutDetailsInputSchema, payoutDetailsResponseSchema } from '../../../shared/contracts/payouts';
 import type { MoneyDeps } from './ports';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { buildStatement, statementCsv } from './ledger';
+import { buildStatement, editionNamesOf, statementCsv } from './ledger';
 import { earningsOf, refreshPayoutDetails, sendStatement, startPayoutDetails } from './payouts';
 import { moneyErrors, payoutsDepsOrFail } from './payments-common';
 import { statementDepsFrom } from './runtime';
@@ -24,7 +24,10 @@ export function registerEarningsRoutes(router: ApiRouter, deps: MoneyDeps) {
     router,
     { method: 'GET', path: '/api/earnings/statements/:month.csv', summary: 'My statement for one month as CSV', tags: ['earnings'], params: monthParams, produces: 'text/csv' },
     ({ params, user, res }) => {
-      const csv = moneyErrors(() => statementCsv(buildStatement(deps.db, user.id, params.month)));
+      const csv = moneyErrors(() => {
+        const statement = buildStatement(deps.db, user.id, params.month);
+        return statementCsv(statement, editionNamesOf(deps.db, statement));
+      });
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="squarewright-statement-${params.month}.csv"`);
       res.status(200).send(csv);

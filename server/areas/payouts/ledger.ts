@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, eq, like, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, like, sql } from 'drizzle-orm';
 import {
   ledgerCorrectionInputSchema,
   publicationFeesInputSchema,
@@ -14,6 +14,7 @@ import type { DbOrTx } from '../../platform/db/client';
 import type { FeeRecorder } from '../editions/ports';
 import { user } from '../../platform/auth/schema';
 import { ledgerEntry, payout } from './schema';
+import { edition, publication } from '../editions/index';
 
 // The setters' fee ledger. Append-only: fees are written by the publish step, corrections
 // by editors, and nothing is ever updated or deleted.
@@ -223,18 +224,41 @@ function csvField(value: string): string {
   return /[",\r\n]/.test(safe) ? `"${safe.replaceAll('"', '""')}"` : safe;
 }
 
-function describe(entry: LedgerEntry): string {
-  if (entry.kind === 'fee') return `Fee for ${entry.puzzleKind ?? 'puzzle'} ${entry.puzzleId ?? ''} in edition ${entry.editionId ?? ''}`.trim();
+/** Editions by id as people name them: the publication's title and the edition's number (for statements). */
+export type EditionNames = Map<string, { publication: string; number: number }>;
+
+/** The names of the editions a statement's entries refer to (read-only join on the editions area's tables). */
+export function editionNamesOf(db: DbOrTx, statement: Statement): EditionNames {
+  const ids = [...new Set(statement.entries.map((e) => e.editionId).filter((x): x is string => x !== null && x !== undefined))];
+  if (ids.length === 0) return new Map();
+  const rows = db
+    .select({ id: edition.id, number: edition.number, title: publication.title })
+    .from(edition)
+    .innerJoin(publication, eq(publication.id, edition.publicationId))
+    .where(inArray(edition.id, ids))
+    .all();
+  return new Map(rows.map((r) => [r.id, { publication: r.title, number: r.number }]));
+}
+
+function editionText(names: EditionNames, id: string | null | undefined): string {
+  if (!id) return '';
+  const n = names.get(id);
+  return n ? `${n.publication} No. ${n.number}` : 'an edition no longer on file';
+}
+
+function describe(entry: LedgerEntry, names: EditionNames): string {
+  if (entry.kind === 'fee') return `Fee for ${entry.puzzleKind ?? 'a'} puzzle ${entry.puzzleId ?? ''} in ${editionText(names, entry.editionId)}`.trim();
   return `Correction: ${entry.reason ?? ''}`;
 }
 
-/** The statement as CSV (header row, one row per entry, then a total row per currency). */
-export function statementCsv(statement: Statement): string {
+/** The statement as CSV (header row, one row per entry, then a total row per currency); editions and publications by name, never by internal id. */
+export function statementCsv(statement: Statement, names: EditionNames = new Map()): string {
   const header = ['date', 'kind', 'description', 'edition', 'publication', 'puzzle', 'puzzle_kind', 'currency', 'amount', 'amount_minor'];
   const lines = [header.join(',')];
   for (const e of statement.entries) {
+    const n = e.editionId ? names.get(e.editionId) : undefined;
     lines.push(
-      [e.date, e.kind, describe(e), e.editionId ?? '', e.publicationId ?? '', e.puzzleId ?? '', e.puzzleKind ?? '', e.currency, toDecimalString(e.amountMinor, e.currency), String(e.amountMinor)]
+      [e.date, e.kind, describe(e, names), e.editionId ? (n ? `No. ${n.number}` : editionText(names, e.editionId)) : '', n?.publication ?? '', e.puzzleId ?? '', e.puzzleKind ?? '', e.currency, toDecimalString(e.amountMinor, e.currency), String(e.amountMinor)]
         .map(csvField)
         .join(','),
     );

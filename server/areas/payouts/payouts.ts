@@ -240,6 +240,7 @@ function applyProviderPayout(deps: PayoutsDeps, tx: DbOrTx, payoutId: string, re
       const p = tx.select({ amountMinor: payout.amountMinor, currency: payout.currency }).from(payout).where(eq(payout.id, payoutId)).get();
       if (p) deps.events.emit(tx, 'payout.paid', { payout: { id: payoutId, amountMinor: p.amountMinor, currency: p.currency, paidAt: now.toISOString() } });
     }
+    if (ended) mailPaid(deps, tx, payoutId, now);
     return ended;
   }
   if (remote.status === 'failed' || remote.status === 'canceled') {
@@ -433,6 +434,21 @@ function statementMailData(db: DbOrTx, setterId: string, month: string, publicUr
   const totals = statement.totals.map((t) => formatMoney(t.amountMinor, t.currency)).join(', ') || 'nothing';
   const paid = statement.paid.map((t) => formatMoney(t.amountMinor, t.currency)).join(', ') || 'nothing';
   return { statement, data: { name: statement.setterName, month, lines, totals, paid, link: `${publicUrl}/earnings` } };
+}
+
+/** "You have been paid": the amount and the statement of the month it was paid in, mailed to the setter in the transaction that marks the payout paid. */
+function mailPaid(deps: Pick<PayoutsDeps, 'publicUrl' | 'kickMail'>, tx: DbOrTx, payoutId: string, now: Date): void {
+  const p = tx
+    .select({ setterId: payout.setterId, amountMinor: payout.amountMinor, currency: payout.currency, email: user.email })
+    .from(payout)
+    .innerJoin(user, eq(user.id, payout.setterId))
+    .where(eq(payout.id, payoutId))
+    .get();
+  if (!p) return;
+  const month = now.toISOString().slice(0, 7);
+  const { data } = statementMailData(tx, p.setterId, month, deps.publicUrl);
+  queueMail(tx, { to: p.email, template: 'payout-paid', data: { ...data, amount: formatMoney(p.amountMinor, p.currency), date: now.toISOString().slice(0, 10) } }, now);
+  deps.kickMail?.();
 }
 
 /** What statements need: no provider. */
