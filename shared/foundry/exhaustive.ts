@@ -7,9 +7,9 @@
 // dual pair only the graph with fewer vertices is solved, and of a pair with as many vertices
 // as faces the one whose canonical code is not larger [common practice]. Squares only: the
 // square test 2 tau(G / e) = tau(G) and Gambini's filter come before any layout.
-import { classifyTiling, solvePlaneNetwork, verifyTiling, type PlaneGraph, type Tiling } from '../tiling/index';
+import { solvePlaneNetwork, type PlaneGraph, type Tiling } from '../tiling/index';
 import { FoundryInputError } from './errors';
-import { describeTiling, type FoundryRunControl } from './found-tiling';
+import { factsOf, foundTiling, type FoundryRunControl } from './found-tiling';
 import { forEachPlaneMap } from './generate-maps';
 import { MapCanonizer } from './map-canonical';
 import { MapSolver } from './map-solver';
@@ -182,19 +182,18 @@ export function exhaustiveTilings(opts: ExhaustiveOptions): ExhaustiveSummary {
         continue;
       }
       if (squaresOnly && t.W !== t.H) continue;
-      const v = verifyTiling(t);
-      if (!v.ok) throw new Error(`a solved network did not verify: ${v.message}`);
+      // one decode verifies the exact cover, classifies and gives the canonical code
+      const f = factsOf(t);
+      if (!f) throw new Error('a solved network did not verify');
       key ??= reps.key(h);
       if (!reps.owns(t, key)) continue;
-      const cls = classifyTiling(t);
-      const ft = describeTiling(t, cls.simple ? { method: 'exhaustive', graph: Array.from(key, (ch) => ch.charCodeAt(0)), pole: [tail[d]!, head[d]!] } : {}, cls);
-      if (!ft) throw new Error('a solved network did not verify');
-      if (ofGraph.has(ft.key)) continue;
-      ofGraph.add(ft.key);
-      if (!cls.simple) {
+      if (ofGraph.has(f.key)) continue;
+      ofGraph.add(f.key);
+      if (!f.classification.simple) {
         summary.compound++;
         continue;
       }
+      const ft = foundTiling(f, { method: 'exhaustive', graph: Array.from(key, (ch) => ch.charCodeAt(0)), pole: [tail[d]!, head[d]!] });
       found++;
       if (ft.perfect) summary.simplePerfect++;
       else summary.simpleImperfect++;

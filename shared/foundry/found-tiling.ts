@@ -1,4 +1,5 @@
-import { canonicalCode, canonicalKey, classifyTiling, verifyTiling, type Classification, type Tiling } from '../tiling/index';
+import { TilingInputError, type Classification, type Tiling } from '../tiling/index';
+import { tilingFacts, type TilingFacts } from '../tiling/tiling-facts';
 
 /** A tiling the foundry made, verified and classified. */
 export interface FoundTiling {
@@ -27,13 +28,22 @@ export interface FoundryRunControl {
   onFound?: (t: FoundTiling) => void;
 }
 
-/** Re-verify (exact cover) and classify; null when the tiling does not verify. */
-export function describeTiling(t: Tiling, origin: Record<string, unknown>, cls?: Classification): FoundTiling | null {
-  if (!verifyTiling(t).ok) return null;
-  const c = cls ?? classifyTiling(t);
+/** The verified facts of t (one decode: verification, classification, canonical code), or null when t is not a tiling. */
+export function factsOf(t: Tiling): TilingFacts | null {
+  try {
+    return tilingFacts(t);
+  } catch (e) {
+    if (e instanceof TilingInputError) return null;
+    throw e;
+  }
+}
+
+/** A found tiling from its facts. */
+export function foundTiling(f: TilingFacts, origin: Record<string, unknown>): FoundTiling {
+  const c: Classification = f.classification;
   return {
-    key: canonicalKey(t),
-    code: canonicalCode(t),
+    key: f.key,
+    code: f.code,
     order: c.order,
     width: Math.max(c.width, c.height),
     height: Math.min(c.width, c.height),
@@ -41,7 +51,13 @@ export function describeTiling(t: Tiling, origin: Record<string, unknown>, cls?:
     simple: c.simple,
     square: c.square,
     maxSize: c.maxSize,
-    tiling: t,
+    tiling: f.tiling,
     origin,
   };
+}
+
+/** Re-verify (exact cover) and classify; null when the tiling does not verify. */
+export function describeTiling(t: Tiling, origin: Record<string, unknown>): FoundTiling | null {
+  const f = factsOf(t);
+  return f ? foundTiling(f, origin) : null;
 }

@@ -5,8 +5,8 @@
 // 2. Two rectangles a x b sharing exactly one size c that sits in a corner of each: overlap
 //    them on that square -> a squared square of side a + b - c, adding squares a - c and b - c.
 // Every result is rebuilt from its squares and verified by the tiling engine before it is offered.
-import { classifyTiling, orientations, tilingFromSquares, TilingInputError, type Square, type Tiling } from '../tiling/index';
-import { describeTiling, type FoundryRunControl } from './found-tiling';
+import { orientations, tilingFromSquares, TilingInputError, type Square, type Tiling } from '../tiling/index';
+import { factsOf, foundTiling, type FoundryRunControl } from './found-tiling';
 
 export interface JoinPart {
   /** the stock's id or key, kept in the origin */
@@ -105,10 +105,11 @@ export function joinStock(parts: readonly JoinPart[], opts: JoinOptions = {}): J
   const s: JoinSummary = { parts: parts.length, pairs: 0, found: 0, perfect: 0, rejectedImperfect: 0, ms: 0, stopped: false };
   const seen = new Set<string>();
   const offer = (t: Tiling, origin: Record<string, unknown>) => {
-    const cls = classifyTiling(t);
-    if (perfectOnly && !cls.perfect) { s.rejectedImperfect++; return; }
-    const ft = describeTiling(t, origin, cls);
-    if (!ft || seen.has(ft.key)) return;
+    const f = factsOf(t);
+    if (!f) return;
+    if (perfectOnly && !f.classification.perfect) { s.rejectedImperfect++; return; }
+    const ft = foundTiling(f, origin);
+    if (seen.has(ft.key)) return;
     seen.add(ft.key);
     s.found++;
     if (ft.perfect) s.perfect++;

@@ -2,9 +2,9 @@
 // edges from the tiling engine (randomCNet: a wheel grown by random face and vertex splits),
 // a random pole edge, an exact solve, classify, filter. Not uniform over graphs; reproducible
 // from the seed (mulberry32).
-import { classifyTiling, edgesOf, mulberry32, randomCNet, randomInt, solvePlaneNetwork } from '../tiling/index';
+import { edgesOf, mulberry32, randomCNet, randomInt, solvePlaneNetwork } from '../tiling/index';
 import { FoundryInputError } from './errors';
-import { describeTiling, type FoundryRunControl } from './found-tiling';
+import { factsOf, foundTiling, type FoundryRunControl } from './found-tiling';
 
 export const MAX_RANDOM_ORDER = 40;
 export const MIN_RANDOM_ORDER = 9;
@@ -81,10 +81,10 @@ export function randomTilings(o: RandomOptions): RandomSummary {
       (o.aspectMin !== undefined && long / short < o.aspectMin) ||
       (o.aspectMax !== undefined && long / short > o.aspectMax) ||
       (o.squaresOnly === true && t.W !== t.H)) { s.rejectedFilter++; continue; }
-    const cls = classifyTiling(t);
-    if (!cls.simple || !cls.perfect) { s.rejectedNotSimplePerfect++; continue; }
-    const ft = describeTiling(t, { method: 'random', seed: o.seed, try: s.tries, order, pole: [p, q] }, cls);
-    if (!ft) throw new Error('a solved random network did not verify');
+    const f = factsOf(t);
+    if (!f) throw new Error('a solved random network did not verify');
+    if (!f.classification.simple || !f.classification.perfect) { s.rejectedNotSimplePerfect++; continue; }
+    const ft = foundTiling(f, { method: 'random', seed: o.seed, try: s.tries, order, pole: [p, q] });
     if (seen.has(ft.key) || o.isKnown?.(ft.key) === true) { s.rejectedKnown++; continue; }
     seen.add(ft.key);
     s.found++;

@@ -1,102 +1,54 @@
 // Classification of a verified tiling. Compound = some proper sub-rectangle of two or more
 // squares is an exact union of squares; decided geometrically, not from the network's
-// 3-connectivity (engine.md sections 0 and 3). A candidate has the top-left corner of square i
-// and the bottom-right corner of square j; it is a union of squares exactly when no square
-// crosses its boundary, i.e. each of its four sides lies inside one maximal segment. With the
-// segments precomputed, each candidate costs O(1), so the whole test is O(n^2).
+// 3-connectivity (engine.md sections 0 and 3): the rectangle spanned by the top-left corner of
+// square i and the bottom-right corner of square j is a union of squares exactly when each of
+// its four sides lies inside one maximal segment. The segments come from one skyline decode in
+// tiling-core.ts (O(1) per pair). A tiling that does not tile its frame is refused.
 
-import { maximalSegments } from './segments';
+import { core } from './tiling-core';
+import { TilingInputError } from './errors';
+import { verifyTiling } from './verify';
 import type { Classification, Rect, Tiling } from './types';
 
-export const MAX_LISTED_SUBRECTANGLES = 1000;
+export { MAX_LISTED_SUBRECTANGLES } from './tiling-core';
 
 function gcdN(a: number, b: number): number {
   while (b !== 0) [a, b] = [b, a % b];
   return a;
 }
 
-/** Visits proper sub-rectangles of >= 2 squares; stop early when visit returns false. */
-function forEachSubRectangle(t: Tiling, visit: (r: Rect) => boolean): void {
-  const sq = t.squares;
-  const n = sq.length;
-  if (n < 2) return;
-  const h = maximalSegments(t, false);
-  const v = maximalSegments(t, true);
-  for (let i = 0; i < n; i++) {
-    const a = sq[i]!;
-    const x1 = a.x;
-    const y1 = a.y;
-    const topEnd = h.end[h.before[i]!]!; // the top side must run inside the segment through a's top
-    const leftEnd = v.end[v.before[i]!]!; // the left side inside the segment through a's left side
-    for (let j = 0; j < n; j++) {
-      if (j === i) continue;
-      const b = sq[j]!;
-      const x2 = b.x + b.s;
-      const y2 = b.y + b.s;
-      if (x2 <= x1 || y2 <= y1 || x2 > topEnd || y2 > leftEnd) continue;
-      if (x1 === 0 && y1 === 0 && x2 === t.W && y2 === t.H) continue;
-      if (h.start[h.after[j]!]! > x1 || v.start[v.after[j]!]! > y1) continue;
-      if (!visit({ x: x1, y: y1, w: x2 - x1, h: y2 - y1 })) return;
-    }
-  }
+/** Loads t into the core; throws TilingInputError when t does not tile its frame. */
+export function loadVerified(t: Tiling): void {
+  if (core.load(t)) return;
+  const v = verifyTiling(t);
+  throw new TilingInputError('invalid-tiling', v.ok ? 'the squares do not tile the rectangle' : v.message, v.ok || v.square === undefined ? undefined : { square: v.square + 1 });
 }
 
 /** True when no proper sub-rectangle of two or more squares is a union of squares. */
 export function isSimple(t: Tiling): boolean {
-  let simple = true;
-  forEachSubRectangle(t, () => {
-    simple = false;
-    return false;
-  });
-  return simple;
+  loadVerified(t);
+  return core.isSimple();
 }
 
-/** The proper sub-rectangles of a tiling (two or more squares each), up to `limit`. */
-export function subRectangles(t: Tiling, limit = MAX_LISTED_SUBRECTANGLES): { rects: Rect[]; truncated: boolean } {
+/** The proper sub-rectangles of a tiling (two or more squares each), up to `limit`, in reading order of their corners. */
+export function subRectangles(t: Tiling, limit = 1000): { rects: Rect[]; truncated: boolean } {
+  loadVerified(t);
   const rects: Rect[] = [];
   let truncated = false;
-  forEachSubRectangle(t, (r) => {
+  core.subRectangles((x, y, w, h) => {
     if (rects.length >= limit) {
       truncated = true;
       return false;
     }
-    rects.push(r);
+    rects.push({ x, y, w, h });
     return true;
   });
   return { rects, truncated };
 }
 
 export function classifyTiling(t: Tiling): Classification {
-  const sq = t.squares;
-  let g = 0;
-  let minSize = Infinity;
-  let maxSize = 0;
-  const seen = new Set<number>();
-  let perfect = true;
-  let trivialCompound = false;
-  for (const q of sq) {
-    g = gcdN(g, q.s);
-    if (q.s < minSize) minSize = q.s;
-    if (q.s > maxSize) maxSize = q.s;
-    if (seen.has(q.s)) perfect = false;
-    seen.add(q.s);
-    if (sq.length > 1 && (q.s === t.W || q.s === t.H)) trivialCompound = true;
-  }
-  const { rects, truncated } = subRectangles(t);
-  return {
-    order: sq.length,
-    width: t.W,
-    height: t.H,
-    square: t.W === t.H,
-    perfect,
-    simple: rects.length === 0,
-    trivialCompound,
-    subRectangles: rects,
-    subRectanglesTruncated: truncated,
-    gcd: g,
-    minSize: sq.length > 0 ? minSize : 0,
-    maxSize,
-  };
+  loadVerified(t);
+  return core.classify();
 }
 
 /** The reduced ("prime") form: every size, position and side divided by the gcd of the sizes. */

@@ -4,7 +4,8 @@
 
 import type { Square, Tiling } from './types';
 import { sortKeys } from './sort-keys';
-import { toBouwkamp } from './bouwkamp';
+import { core } from './tiling-core';
+import { loadVerified } from './classify';
 
 /** Indices of squares in Bouwkamp reading order (top y, then left x), for corners (xs[i], ys[i]). */
 function readingIndices(xs: ArrayLike<number>, ys: ArrayLike<number>, W: number, H: number): Int32Array {
@@ -95,41 +96,9 @@ export function orientations(t: Tiling, opts?: { all?: boolean }): Tiling[] {
   return out;
 }
 
-/**
- * The lexicographically largest orientation with W >= H. The first size of an orientation is
- * its top-left corner square, so only the orientations whose corner square is largest need
- * sorting (for a perfect tiling that is usually one).
- */
+/** The lexicographically largest orientation with W >= H (tiling-core.ts; one decode). */
 export function canonicalTiling(t: Tiling): Tiling {
-  const sq = t.squares;
-  const cands: ReturnType<typeof coordinates>[] = [];
-  let top = -1;
-  for (const [tr, fx, fy] of GROUP) {
-    const W = tr ? t.H : t.W;
-    const H = tr ? t.W : t.H;
-    if (W < H) continue;
-    const c = coordinates(t, tr, fx, fy);
-    const first = c.corner >= 0 ? sq[c.corner]!.s : -1;
-    if (first > top) {
-      top = first;
-      cands.length = 0;
-    }
-    if (first === top) cands.push(c);
-  }
-  let best: ReturnType<typeof transformed> | null = null;
-  for (const c of cands) {
-    const o = { ...c, order: readingIndices(c.xs, c.ys, c.W, c.H) };
-    if (best === null) {
-      best = o;
-      continue;
-    }
-    for (let i = 0; i < sq.length; i++) {
-      const d = sq[o.order[i]!]!.s - sq[best.order[i]!]!.s;
-      if (d > 0) best = o;
-      if (d !== 0) break;
-    }
-  }
-  return build(t, best!);
+  return canonicalForm(t).tiling;
 }
 
 /** The canonical orientation with its code and stock key, from one canonicalisation. */
@@ -144,23 +113,19 @@ export interface CanonicalTilingForm {
 
 /** The canonical orientation, code and key at the cost of one canonicalisation. */
 export function canonicalForm(t: Tiling): CanonicalTilingForm {
-  const c = canonicalTiling(t);
-  return { tiling: c, code: toBouwkamp(c, { header: true }), key: keyOf(c) };
-}
-
-function keyOf(c: Tiling): string {
-  const sq = c.squares;
-  let s = `${c.W}x${c.H}:`;
-  for (let i = 0; i < sq.length; i++) s += i === 0 ? `${sq[i]!.s}` : `,${sq[i]!.s}`;
-  return s;
+  loadVerified(t);
+  const c = core.canonical(true);
+  return { tiling: c.tiling!, code: c.code, key: c.key };
 }
 
 /** Canonical Bouwkamp code with header, e.g. "9 33 32 (18,15)(7,8)(14,4)(10,1)(9)". */
 export function canonicalCode(t: Tiling): string {
-  return toBouwkamp(canonicalTiling(t), { header: true });
+  loadVerified(t);
+  return core.canonical(false).code;
 }
 
 /** Stock key, e.g. "33x32:18,15,7,8,14,4,10,1,9". */
 export function canonicalKey(t: Tiling): string {
-  return keyOf(canonicalTiling(t));
+  loadVerified(t);
+  return core.canonical(false).key;
 }

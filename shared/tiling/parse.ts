@@ -7,6 +7,8 @@
 
 import { TilingInputError } from './errors';
 import { MAX_SIDE, MAX_SQUARES, verifyTiling } from './verify';
+import { readFast } from './read-fast';
+import { core } from './tiling-core';
 import type { Square, Tiling } from './types';
 
 export const MAX_INPUT_LENGTH = 65_536;
@@ -293,6 +295,17 @@ export function decodeSizes(sizes: readonly number[], W: number, H: number, grou
 
 /** Parses and decodes one code (Bouwkamp, table code or explicit-squares JSON) into a verified tiling. */
 export function parseTiling(input: string): Tiling {
+  // a well-formed code takes the fast reader (a decoded code tiles its frame by construction)
+  if (typeof input === 'string' && readFast(input)) return core.tiling();
+  return readCarefully(input);
+}
+
+/**
+ * The careful reader behind parseTiling: every format, and the precise error (what and
+ * where) for every problem. The fast reader (read-fast.ts) answers only for well-formed
+ * codes; tests check the two agree.
+ */
+export function readCarefully(input: string): Tiling {
   if (typeof input !== 'string') throw new TilingInputError('not-text', 'the code must be text');
   if (input.length > MAX_INPUT_LENGTH) {
     throw new TilingInputError('too-long', `the input has ${input.length} characters; at most ${MAX_INPUT_LENGTH} (64 kB) are accepted`);
