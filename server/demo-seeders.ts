@@ -2,6 +2,7 @@ import type { AppDeps } from './app-deps';
 import { seedDemoEditions, seedDemoPublications } from './areas/editions/index';
 import { seedDemoFoundry } from './areas/foundry/index';
 import { seedDemoStock } from './areas/intake/index';
+import { seedDemoWebhooks } from './areas/integrations/index';
 import { seedDemoPayouts } from './areas/payouts/index';
 import { seedDemoPuzzles } from './areas/puzzles/index';
 import { seedDemoSolves } from './areas/reader/index';
@@ -12,6 +13,8 @@ import { seedDemoSolves } from './areas/reader/index';
 export type DemoSeeder = { name: string; seed: (deps: AppDeps) => Promise<void> | void };
 
 export const seeders: DemoSeeder[] = [
+  // first: the local receiver's endpoint, so the other seeders' events show as deliveries
+  { name: 'webhooks', seed: seedDemoWebhooks },
   // stock first: puzzles and editions are made from stock tilings
   { name: 'stock', seed: seedDemoStock },
   { name: 'foundry', seed: seedDemoFoundry },

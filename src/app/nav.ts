@@ -15,6 +15,7 @@ const editorNav: readonly NavItem[] = [
   { label: 'Foundry', to: '/foundry' },
   { label: 'Payouts', to: '/payouts' },
   { label: 'Readers', to: '/readers' },
+  { label: 'API keys', to: '/api-keys' },
 ];
 
 /**
@@ -39,6 +40,7 @@ export const navByRole: Record<Role, readonly NavItem[]> = {
     { label: 'Publications', to: '/admin/publications' },
     { label: 'Reader edition', to: '/admin/reader' },
     { label: 'Templates', to: '/admin/templates' },
+    { label: 'Webhooks', to: '/admin/webhooks' },
     { label: 'Mailbox (local)', to: '/admin/mailbox' },
   ],
 };

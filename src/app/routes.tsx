@@ -27,6 +27,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: 'puzzles', title: 'Puzzles', roles: editors, summary: 'Assembly and Deduction puzzles with their certificates.', page: lazyPage(() => import('../features/puzzles/components/puzzles-page'), 'PuzzlesPage') },
   { path: 'puzzles/new', title: 'Make a puzzle', roles: editors, page: lazyPage(() => import('../features/puzzles/components/new-puzzle-page'), 'NewPuzzlePage') },
   { path: 'puzzles/:id', title: 'Puzzle', roles: editors, page: lazyPage(() => import('../features/puzzles/components/puzzle-page'), 'PuzzlePage') },
+  { path: 'api-keys', title: 'API keys', roles: editors, page: lazyPage(() => import('../features/integrations/components/api-keys-page'), 'ApiKeysPage') },
   { path: 'editions', title: 'Editions', roles: editors, page: lazyPage(() => import('../features/editions/components/editions-page'), 'EditionsPage') },
   { path: 'editions/:id', title: 'Edition', roles: editors, page: lazyPage(() => import('../features/editions/components/edition-page'), 'EditionPage') },
   { path: 'foundry', title: 'Foundry', roles: editors, summary: 'Mint new tilings when the stock runs low.', page: lazyPage(() => import('../features/foundry/components/foundry-page'), 'FoundryPage') },
@@ -43,6 +44,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: 'admin/publications', title: 'Publications', roles: admins, page: lazyPage(() => import('../features/publications/components/publications-page'), 'PublicationsPage') },
   { path: 'admin/reader', title: 'Reader edition', roles: admins, page: lazyPage(() => import('../features/reader/components/reader-settings-page'), 'ReaderSettingsPage') },
   { path: 'admin/templates', title: 'Templates', roles: admins, page: lazyPage(() => import('../features/templates/components/templates-page'), 'TemplatesPage') },
+  { path: 'admin/webhooks', title: 'Webhooks', roles: admins, page: lazyPage(() => import('../features/integrations/components/webhooks-page'), 'WebhooksPage') },
   { path: 'admin/mailbox', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mailbox-page'), 'MailboxPage') },
   { path: 'admin/mailbox/:id', title: 'Mailbox (local)', roles: admins, page: lazyPage(() => import('../features/mailbox/components/mail-page'), 'MailPage') },
 ];

@@ -4,3 +4,4 @@ export { registerFeedRoutes, registerIntegrationRoutes } from './routes';
 export { createWebhookSender, emitEvent, type WebhookSender, type WebhookSenderOptions } from './outbox';
 export { sign, verifySignature, signatureHeader, timestampHeader } from './signing';
 export { localReceiverPath } from './receiver';
+export { seedDemoWebhooks } from './demo-seed';

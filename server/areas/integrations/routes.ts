@@ -96,7 +96,7 @@ export function registerIntegrationRoutes(router: ApiRouter, deps: IntegrationsD
       status: 201,
       examples: { request: { url: exampleEndpoint.url, description: exampleEndpoint.description, events: ['edition.published'] }, response: { endpoint: exampleEndpoint, secret: 'whsq_3m0xxxxxxxxxxxxxxxxxxxxxxxxxxxxx' } },
     },
-    ({ user, body }) => createEndpoint(deps, user, body),
+    ({ user, body }) => createEndpoint(deps, user.id, body),
   );
 
   route(

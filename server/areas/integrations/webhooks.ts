@@ -1,6 +1,5 @@
 import { randomBytes, randomUUID } from 'node:crypto';
 import { and, count, desc, eq } from 'drizzle-orm';
-import type { SessionUser } from '../../../shared/contracts/auth';
 import type { z } from 'zod';
 import type {
   WebhookDelivery,
@@ -48,12 +47,12 @@ function endpointRow(db: DbOrTx, id: string): EndpointRow {
 }
 
 /** A new endpoint with a fresh signing secret (returned this once). */
-export function createEndpoint(deps: Pick<PlatformDeps, 'db' | 'clock'>, who: SessionUser, body: WebhookEndpointBody): { endpoint: WebhookEndpoint; secret: string } {
+export function createEndpoint(deps: Pick<PlatformDeps, 'db' | 'clock'>, createdBy: string | null, body: WebhookEndpointBody): { endpoint: WebhookEndpoint; secret: string } {
   const secret = `whsq_${randomBytes(24).toString('base64url')}`;
   const id = randomUUID();
   deps.db
     .insert(webhookEndpoint)
-    .values({ id, url: body.url, description: body.description, eventsJson: JSON.stringify([...new Set(body.events)]), secret, active: true, createdBy: who.id, createdAt: deps.clock.now() })
+    .values({ id, url: body.url, description: body.description, eventsJson: JSON.stringify([...new Set(body.events)]), secret, active: true, createdBy, createdAt: deps.clock.now() })
     .run();
   return { endpoint: toEndpoint(endpointRow(deps.db, id), new Map()), secret };
 }

@@ -7,12 +7,12 @@ import { meAs, renderApp, stubFetch } from './render-app';
 
 // The navigation each role must see, from the product's screen specification
 // (docs: screens.md / issue 2 "navigation per role"), written out here independently.
-const editorNav = ['Home', 'Review queue', 'Stock', 'Puzzles', 'Editions', 'Foundry', 'Payouts', 'Readers'];
+const editorNav = ['Home', 'Review queue', 'Stock', 'Puzzles', 'Editions', 'Foundry', 'Payouts', 'Readers', 'API keys'];
 const expected: Record<Role, string[]> = {
   setter: ['Home', 'Submit', 'My submissions', 'Earnings'],
   editor: editorNav,
   printer: ['Proofs', 'Press files'],
-  admin: [...editorNav, 'Users', 'Publications', 'Reader edition', 'Templates', 'Mailbox (local)'],
+  admin: [...editorNav, 'Users', 'Publications', 'Reader edition', 'Templates', 'Webhooks', 'Mailbox (local)'],
 };
 
 describe('navigation per role', () => {
