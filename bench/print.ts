@@ -9,6 +9,10 @@ import { renderEditionPdf } from '../server/areas/print/render-edition';
 import { foundryTilings } from '../server/areas/print/sample-edition';
 import { getPageTemplate } from '../server/areas/print/templates';
 import type { EditionDocument, PuzzlePrint } from '../server/areas/print/types';
+import { templatePressDefaults } from '../shared/contracts/templates';
+import { toPdfX, PT_PER_MM } from '../server/areas/print/pdfx';
+import { preflightPdf } from '../server/areas/print/preflight';
+
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
 
@@ -41,6 +45,22 @@ async function main() {
   }
   const ok = (ms: number, target: number) => (ms < target ? `under ${target} ms` : `OVER ${target} ms`);
   console.log(`print: 12-puzzle A4 edition, ${first.pages} pages, ${(first.pdf.length / 1024).toFixed(0)} kB: cold ${cold.toFixed(0)} ms (${ok(cold, 3000)}), warm median ${median(warm).toFixed(0)} ms (${ok(median(warm), 3000)})`);
+
+  // The PDF/X share of a render: the press post-processing (pdfx.ts) and the preflight of the finished file.
+  const press = { ...templatePressDefaults(template), profileSha256: null };
+  const [layout, renderer] = await Promise.all([import('../server/areas/print/edition-layout'), import('@react-pdf/renderer')]);
+  const raw = await renderer.renderToBuffer(layout.buildEditionLayout(doc, { stamp: 'PROOF' }).element as Parameters<typeof renderer.renderToBuffer>[0]);
+  const post: number[] = [];
+  const pre: number[] = [];
+  for (let i = 0; i < 5; i++) {
+    t0 = performance.now();
+    const pdf = await toPdfX(raw, { press, trimPt: { width: template.trim.widthMm * PT_PER_MM, height: template.trim.heightMm * PT_PER_MM }, bleedPt: template.bleedMm * PT_PER_MM, title: 'bench', createdAt: new Date() });
+    post.push(performance.now() - t0);
+    t0 = performance.now();
+    await preflightPdf({ template, press, pdf, fontsRegistered: [], pageSizePt: { width: 0, height: 0 }, metrics: { smallestSquareMm: null, smallestDigitPt: null, omittedLabels: [], illegibleGivens: [] } });
+    pre.push(performance.now() - t0);
+  }
+  console.log(`print: of that, PDF/X post-processing median ${median(post).toFixed(0)} ms, preflight of the finished file median ${median(pre).toFixed(0)} ms`);
 
   const t = tilings[0]!;
   for (const width of [640, 1280]) {
