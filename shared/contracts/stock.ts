@@ -20,7 +20,10 @@ export function sortParam<const K extends readonly [string, ...string[]]>(keys: 
 export const provenanceSchema = z.enum(['setter', 'foundry', 'demo']);
 export type Provenance = z.infer<typeof provenanceSchema>;
 
-const intParam = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+const intParam = (min: number, max: number) =>
+  z.coerce
+    .number({ error: 'must be a whole number, e.g. 12' })
+    .pipe(z.number().int('must be a whole number, e.g. 12').min(min, `must be at least ${min}`).max(max, `must be at most ${max}`));
 const boolParam = z.enum(['true', 'false']).transform((v) => v === 'true');
 
 export const stockSortKeys = ['createdAt', 'order', 'width', 'height', 'id'] as const;

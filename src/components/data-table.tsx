@@ -41,6 +41,7 @@ export function dataTableColumnHelper<T extends RowData>() {
  */
 export type DataTableFilter =
   | { id: string; label: string; kind: 'text'; placeholder?: string; width?: FilterWidth }
+  | { id: string; label: string; kind: 'number'; placeholder?: string; width?: FilterWidth }
   | { id: string; label: string; kind: 'select'; options: readonly SelectOption[]; anyLabel?: string; width?: FilterWidth };
 export type FilterWidth = 'narrow' | 'normal' | 'wide';
 const filterWidth: Record<FilterWidth, string> = { narrow: 'w-28', normal: 'min-w-40', wide: 'min-w-64' };
@@ -283,12 +284,17 @@ function FilterControl({ filter, value, onChange }: { filter: DataTableFilter; v
       />
     );
   }
+  if (filter.kind === 'number') {
+    return <DebouncedText label={filter.label} placeholder={filter.placeholder} value={value} onChange={onChange} className={filterWidth[filter.width ?? 'narrow']} wholeNumber />;
+  }
   return <DebouncedText label={filter.label} placeholder={filter.placeholder} value={value} onChange={onChange} className={filterWidth[filter.width ?? 'wide']} />;
 }
 
 /** Text filter that writes to the URL 300 ms after typing stops. */
-function DebouncedText({ label, placeholder, value, onChange, className }: { label: string; placeholder?: string | undefined; value: string; onChange: (v: string) => void; className: string }) {
+function DebouncedText({ label, placeholder, value, onChange, className, wholeNumber = false }: { label: string; placeholder?: string | undefined; value: string; onChange: (v: string) => void; className: string; wholeNumber?: boolean }) {
   const [draft, setDraft] = useState(value);
+  // a number filter says what is wrong beside the field and sends nothing until it reads as a whole number
+  const invalid = wholeNumber && !/^\d{0,12}$/.test(draft.trim());
   const [seen, setSeen] = useState(value);
   if (value !== seen) {
     // the URL changed from elsewhere (back button, clear): follow it
@@ -296,9 +302,20 @@ function DebouncedText({ label, placeholder, value, onChange, className }: { lab
     setDraft(value);
   }
   useEffect(() => {
-    if (draft === value) return;
-    const timer = setTimeout(() => onChange(draft), 300);
+    if (draft === value || invalid) return;
+    const timer = setTimeout(() => onChange(wholeNumber ? draft.trim() : draft), 300);
     return () => clearTimeout(timer);
-  }, [draft, value, onChange]);
-  return <TextField type="search" label={label} placeholder={placeholder} value={draft} onChange={(e) => setDraft(e.target.value)} className={className} />;
+  }, [draft, value, onChange, invalid, wholeNumber]);
+  return (
+    <TextField
+      type="search"
+      inputMode={wholeNumber ? 'numeric' : undefined}
+      label={label}
+      placeholder={placeholder}
+      value={draft}
+      onChange={(e) => setDraft(e.target.value)}
+      className={className}
+      error={invalid ? 'a whole number, e.g. 12' : undefined}
+    />
+  );
 }

@@ -71,8 +71,8 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
 
   route(
     router,
-    { method: 'GET', path: '/api/stock/export.bkp', summary: 'The whole filtered selection as a code file (one canonical Bouwkamp code a line), streamed', tags, query: stockExportQuerySchema, produces: 'text/plain' },
-    exportAs('squarewright-stock.bkp', 'text/plain; charset=utf-8', (n) => stockCodeFileHead(n, deps.clock.now()), (items) => items.map((i) => `${i.canonicalCode}\n`).join('')),
+    { method: 'GET', path: '/api/stock/export.txt', summary: 'The whole filtered selection as a code file (one canonical Bouwkamp code a line), streamed', tags, query: stockExportQuerySchema, produces: 'text/plain' },
+    exportAs('squarewright-stock.txt', 'text/plain; charset=utf-8', (n) => stockCodeFileHead(n, deps.clock.now()), (items) => items.map((i) => `${i.canonicalCode}\n`).join('')),
   );
 
   route(

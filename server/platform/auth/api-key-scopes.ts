@@ -10,7 +10,7 @@ export const apiKeyScopeOfRoute: Record<string, ApiKeyScope> = {
   'GET /api/stock': 'stock:read',
   'GET /api/stock/:id': 'stock:read',
   'GET /api/stock/:id/image.png': 'stock:read',
-  'GET /api/stock/export.bkp': 'stock:read',
+  'GET /api/stock/export.txt': 'stock:read',
   'GET /api/stock/export.csv': 'stock:read',
   'GET /api/stock/summary': 'stock:read',
   'GET /api/submissions': 'submissions:read',

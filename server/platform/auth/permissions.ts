@@ -39,7 +39,7 @@ export const permissions: Record<string, Access> = {
   'GET /api/stock': ['editor'],
   'GET /api/stock/:id': ['editor'],
   'GET /api/stock/:id/image.png': ['editor'],
-  'GET /api/stock/export.bkp': ['editor'],
+  'GET /api/stock/export.txt': ['editor'],
   'GET /api/stock/export.csv': ['editor'],
   'GET /api/stock/summary': ['editor'],
   // puzzles (editors make and prove them; printers and setters see none of it)

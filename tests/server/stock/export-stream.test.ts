@@ -41,7 +41,7 @@ describe('stock exports', () => {
     const r = await editor.get('/api/stock/export.csv?provenance=foundry&limit=2500').buffer(true).expect(200);
     expect(r.headers['x-total-count']).toBe('2500');
     expect(r.text.trimEnd().split('\r\n')).toHaveLength(1 + 2500);
-    const bkp = await editor.get('/api/stock/export.bkp?provenance=demo').buffer(true).expect(200);
+    const bkp = await editor.get('/api/stock/export.txt?provenance=demo').buffer(true).expect(200);
     expect(bkp.text.split('\n')[0]).toMatch(/^# Squarewright stock export, 1 tilings, /);
     expect(bkp.text.split('\n').filter((l) => l && !l.startsWith('#'))).toHaveLength(1);
   });

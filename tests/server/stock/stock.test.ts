@@ -115,7 +115,7 @@ describe('GET /api/stock', () => {
   it('is for editors and admins: setters and printers get 403, anonymous 401', async () => {
     for (const role of ['setter', 'printer'] as const) {
       const a = await t.signInAs(role);
-      for (const path of ['/api/stock', `/api/stock/${ids.o9}`, '/api/stock/export.csv', '/api/stock/export.bkp', '/api/stock/summary']) {
+      for (const path of ['/api/stock', `/api/stock/${ids.o9}`, '/api/stock/export.csv', '/api/stock/export.txt', '/api/stock/summary']) {
         await a.get(path).expect(403);
       }
     }
@@ -160,7 +160,7 @@ describe('exports and summary', () => {
   });
 
   it('exports a code file that our upload reads back: every line verifies', async () => {
-    const r = await editor.get('/api/stock/export.bkp?orderMin=10&orderMax=10').expect(200);
+    const r = await editor.get('/api/stock/export.txt?orderMin=10&orderMax=10').expect(200);
     const codes = r.text.split('\n').filter((l) => l && !l.startsWith('#'));
     expect(codes.sort()).toEqual([...order10Codes].sort());
     for (const c of codes) expect(classifyTiling(parseTiling(c)).perfect).toBe(true);

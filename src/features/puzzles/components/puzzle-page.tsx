@@ -100,7 +100,7 @@ function Workbench({ p }: { p: PuzzleDetail }) {
               : 'Press squares to place them in the frame as starter pieces, or take them out. Every change is proved again before the puzzle can print.'}
           </p>
           <ChooseSquares tiling={p.tiling} chosen={chosen} onToggle={toggle} what={what} disabled={update.isPending} />
-          <p className="text-sm tabular-nums">{chosen.size} {what} chosen{draft !== null ? ' (not yet proved)' : ''}</p>
+          <p className="text-sm tabular-nums">{chosen.size} {chosen.size === 1 ? (p.kind === 'deduction' ? 'given' : 'starter piece') : what} chosen{draft !== null ? ' (not yet proved)' : ''}</p>
           {p.kind === 'deduction' ? (
             <div className="flex flex-wrap items-end gap-4">
               <SelectField label="Level" options={levelOptions} value={String(draftLevel ?? p.level ?? 3)} onChange={(e) => setDraftLevel(parseLevel(e.target.value) ?? null)} />

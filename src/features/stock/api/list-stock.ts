@@ -27,6 +27,6 @@ export function useStockSummary() {
 }
 
 /** Link to an export of the filtered selection (the browser downloads it with the session cookie). */
-export function stockExportUrl(kind: 'csv' | 'bkp', filters: Record<string, QueryValue>): string {
+export function stockExportUrl(kind: 'csv' | 'txt', filters: Record<string, QueryValue>): string {
   return buildUrl(`/api/stock/export.${kind}`, filters);
 }

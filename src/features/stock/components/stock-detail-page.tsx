@@ -10,6 +10,48 @@ import { formatDate, formatDateTime } from '../../../lib/format';
 
 const eventText = { submitted: 'Submitted', accepted: 'Accepted into the stock', added: 'Added' } as const;
 
+const modeText: Record<string, string> = { exhaustive: 'an exhaustive run', random: 'a random run', joining: 'a joining run' };
+
+/** Where a stock tiling came from, in words (never its stored parameters as JSON). */
+function Provenance({ provenance, params }: { provenance: 'setter' | 'foundry' | 'demo'; params: Record<string, unknown> | null }) {
+  const p = params ?? {};
+  if (provenance === 'setter') {
+    const sub = typeof p.submissionId === 'number' ? p.submissionId : null;
+    return (
+      <p>
+        From a setter:{' '}
+        {sub !== null ? (
+          <Link className="underline" to={`/review?status=all&open=${sub}`}>
+            the submission it was accepted from
+          </Link>
+        ) : (
+          'accepted from a submission'
+        )}
+        .
+      </p>
+    );
+  }
+  if (provenance === 'foundry') {
+    const run = typeof p.runId === 'string' ? p.runId : null;
+    const mode = typeof p.mode === 'string' ? (modeText[p.mode] ?? 'a run') : 'a run';
+    const order = typeof p.order === 'number' ? ` of order ${p.order}` : typeof p.orderMin === 'number' ? ` of orders ${p.orderMin} to ${String(p.orderMax)}` : '';
+    return (
+      <p>
+        Made by the foundry in{' '}
+        {run ? (
+          <Link className="underline" to={`/foundry/runs/${run}`}>
+            {`${mode}${order}`}
+          </Link>
+        ) : (
+          `${mode}${order}`
+        )}
+        .
+      </p>
+    );
+  }
+  return <p>Demo data of Larkspur &amp; Quill Press, made by our own engine.</p>;
+}
+
 /** /stock/:id (editor): drawing, Smith diagram, codes, class, provenance, history, "make a puzzle". */
 export function StockDetailPage() {
   const { id } = useParams();
@@ -21,7 +63,11 @@ export function StockDetailPage() {
   return (
     <Page
       title={`Stock tiling ${d.id}`}
-      description={<Link to="/stock">← Back to the stock</Link>}
+      description={
+        <Link className="underline" to="/stock">
+          ← Back to the stock
+        </Link>
+      }
       actions={<ButtonLink to={`/puzzles/new?stockId=${d.id}`} variant="primary">Make a puzzle</ButtonLink>}
     >
       <div className="grid gap-4 lg:grid-cols-2">
@@ -39,7 +85,7 @@ export function StockDetailPage() {
         </Card>
         <Card title="Provenance and history">
           <div className="flex flex-col gap-2 text-sm">
-            <p>From: <strong>{d.provenance}</strong>{d.params ? <code className="ml-2 text-xs text-ink-muted">{JSON.stringify(d.params)}</code> : null}</p>
+            <Provenance provenance={d.provenance} params={d.params} />
             <ol className="flex flex-col gap-1">
               {d.history.events.map((e, i) => (
                 <li key={i}>{formatDateTime(e.at)}: {eventText[e.kind]}{e.submissionId ? ` (submission ${e.submissionId})` : ''}{e.note ? `, ${e.note}` : ''}</li>
@@ -47,7 +93,7 @@ export function StockDetailPage() {
             </ol>
             <p className="font-semibold">Puzzles derived</p>
             {d.history.puzzles.length ? (
-              <ul>{d.history.puzzles.map((p) => <li key={p.id}><Link to={`/puzzles/${p.id}`}>{p.kind} {p.id}</Link>{p.grade ? `, grade ${p.grade}` : ''}, {formatDate(p.createdAt)}</li>)}</ul>
+              <ul>{d.history.puzzles.map((p) => <li key={p.id}><Link className="underline" to={`/puzzles/${p.id}`}>{p.kind === 'assembly' ? 'Assembly' : 'Deduction'} puzzle {p.id}</Link>{p.grade ? `, grade ${p.grade}` : ''}, {formatDate(p.createdAt)}</li>)}</ul>
             ) : <p className="text-ink-muted">None yet.</p>}
             <p className="font-semibold">Editions used in</p>
             {d.history.editions.length ? (

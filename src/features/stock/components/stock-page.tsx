@@ -40,7 +40,7 @@ export function StockPage() {
       actions={
         <>
           <a className={buttonClasses('secondary')} href={stockExportUrl('csv', filters)} download>Export CSV</a>
-          <a className={buttonClasses('secondary')} href={stockExportUrl('bkp', filters)} download>Export codes</a>
+          <a className={buttonClasses('secondary')} href={stockExportUrl('txt', filters)} download>Export codes</a>
         </>
       }
     >
@@ -56,12 +56,12 @@ export function StockPage() {
         {...pageQueryProps(list)}
         onRowActivate={(r) => navigate(`/stock/${r.id}`)}
         filters={[
-          { id: 'orderMin', label: 'Order from', kind: 'text' },
-          { id: 'orderMax', label: 'Order to', kind: 'text' },
-          { id: 'widthMin', label: 'Width from', kind: 'text' },
-          { id: 'widthMax', label: 'Width to', kind: 'text' },
-          { id: 'heightMin', label: 'Height from', kind: 'text' },
-          { id: 'heightMax', label: 'Height to', kind: 'text' },
+          { id: 'orderMin', label: 'Order from', kind: 'number' },
+          { id: 'orderMax', label: 'Order to', kind: 'number' },
+          { id: 'widthMin', label: 'Width from', kind: 'number' },
+          { id: 'widthMax', label: 'Width to', kind: 'number' },
+          { id: 'heightMin', label: 'Height from', kind: 'number' },
+          { id: 'heightMax', label: 'Height to', kind: 'number' },
           { id: 'square', label: 'Square only', kind: 'select', options: yesNo },
           { id: 'perfect', label: 'Perfect', kind: 'select', options: yesNo },
           { id: 'simple', label: 'Simple', kind: 'select', options: yesNo },

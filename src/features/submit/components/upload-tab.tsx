@@ -89,12 +89,12 @@ export function UploadReportView({ report }: { report: UploadReport }) {
               {l.error ? (
                 <span>
                   {l.error.message}
-                  {whereText(l.error.where) ? <span className="text-ink-muted"> ({whereText(l.error.where)})</span> : null}
+                  {whereText(l.error.where, { withLine: false }) ? <span className="text-ink-muted"> ({whereText(l.error.where, { withLine: false })} of line {l.line})</span> : null}
                 </span>
               ) : l.duplicateOf ? (
-                <span>{dupText[l.duplicateOf]}{l.submissionId ? ` – sent as submission ${l.submissionId}, flagged` : ' – not sent again'}</span>
+                <span>{dupText[l.duplicateOf]}{l.submissionId ? ' – sent for review, flagged as a duplicate' : ' – not sent again'}</span>
               ) : (
-                <span>submission {l.submissionId}</span>
+                <span>sent for review</span>
               )}
             </td>
           </tr>

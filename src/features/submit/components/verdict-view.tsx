@@ -4,10 +4,11 @@ import { TilingDrawing } from '../../../components/tiling-drawing';
 import { TilingCode, TilingFacts } from '../../../components/tiling-facts';
 
 /** Where an engine error is, in words: "line 1, column 25, group 3, element 6". */
-export function whereText(where: Record<string, unknown> | undefined): string {
+export function whereText(where: Record<string, unknown> | undefined, options: { withLine?: boolean } = {}): string {
   if (!where) return '';
   const parts: string[] = [];
-  for (const k of ['line', 'column', 'group', 'element', 'square'] as const) {
+  // an upload checks each line on its own: the engine's "line 1" is the file's line, shown beside it
+  for (const k of options.withLine === false ? (['column', 'group', 'element', 'square'] as const) : (['line', 'column', 'group', 'element', 'square'] as const)) {
     const v = where[k];
     if (typeof v === 'number') parts.push(`${k} ${v}`);
   }
