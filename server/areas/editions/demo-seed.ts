@@ -35,8 +35,8 @@ export function saturdayOnOrBefore(d: Date): Date {
 }
 
 /**
- * Demo editions of Larkspur & Quill Press: The Saturday Quadrant No. 40 (last week's,
- * published), No. 41 (this week's, dated the Saturday on or before today, in proof: it may
+ * Demo editions of Larkspur & Quill Press: The Saturday Quadrant No. 39 (two weeks ago,
+ * published, when six puzzles are printable), No. 40 (last week's, published), No. 41 (this week's, dated the Saturday on or before today, in proof: it may
  * be published once approved), No. 42 (next week's, draft, due within 7 days) and Squared
  * Away Monthly No. 12 (draft). The round is
  * driven through the real services when the puzzle store offers printable puzzles;
@@ -53,6 +53,10 @@ export async function seedDemoEditions(deps: EditionsDeps): Promise<void> {
   const day = (offset: number) => isoDay(new Date(next.getTime() + offset * 86_400_000));
   const intro = (n: number) =>
     plainRichText(`Welcome to No. ${n} of The Saturday Quadrant from Larkspur & Quill Press.`, 'Every rectangle below is cut into squares of whole-number sides. Solutions appear in next week\u2019s column.');
+  // No. 39 (two weeks ago, published before No. 40) only when there are puzzles for it: readers then
+  // have three weeks of editions to play, and its solutions are public (No. 40 is out)
+  const printable = deps.puzzles.listPrintablePuzzleIds(deps.db);
+  const e39 = printable.length >= 6 ? createEdition(deps, editorUser, { publicationId: quadrant.id, number: 39, date: day(-14), introduction: intro(39) }) : null;
   const e40 = createEdition(deps, editorUser, { publicationId: quadrant.id, number: 40, date: day(-7), introduction: intro(40) });
   const e41 = createEdition(deps, editorUser, { publicationId: quadrant.id, number: 41, date: day(0), introduction: intro(41) });
   createEdition(deps, editorUser, { publicationId: quadrant.id, number: 42, date: day(7), introduction: intro(42) });
@@ -69,6 +73,12 @@ export async function seedDemoEditions(deps: EditionsDeps): Promise<void> {
   // floor: the demo desk sends them past the preflight with a recorded reason.
   const send = { override: { reason: 'Demo: the smallest pieces are cut from card at the press; agreed with the printer.' } };
   try {
+    if (e39) {
+      updateEdition(deps, e39.id, { slots: [{ puzzleId: ids[4]!, instructions: instr }, { puzzleId: ids[5]!, instructions: instr }] });
+      await sendToProof(deps, editorUser, e39.id, send);
+      await approveProof(deps, printerUser, e39.id, 1);
+      publishEdition(deps, editorUser, e39.id);
+    }
     updateEdition(deps, e40.id, { slots: [{ puzzleId: ids[0]!, instructions: instr }, { puzzleId: ids[1]!, instructions: instr }] });
     updateEdition(deps, e41.id, { slots: [{ puzzleId: ids[2]!, instructions: instr }, { puzzleId: ids[3]!, instructions: instr }] });
     await sendToProof(deps, editorUser, e40.id, send);

@@ -50,12 +50,13 @@ describe('demo puzzles', () => {
     expect(seedMs).toBeLessThan(5000);
   });
 
-  it('let the editions seeder publish one edition and send another to proof', async () => {
+  it('let the editions seeder publish two editions and send another to proof', async () => {
     await seedDemoEditions(t.deps);
     const states = listEditions(t.deps, admin, {}).map((e) => `${e.publicationTitle} ${e.number} ${e.state}`).sort();
+    expect(states).toContain('The Saturday Quadrant 39 published');
     expect(states).toContain('The Saturday Quadrant 40 published');
     expect(states).toContain('The Saturday Quadrant 41 in_proof');
-    expect(usedInEditions().length).toBe(4);
+    expect(usedInEditions().length).toBe(6);
   });
 
   it("show on each stock tiling's history the editions its puzzles went into", () => {
