@@ -192,8 +192,8 @@ class MapWalker {
   private walkRoots(): void {
     for (let k = 3; 2 * k <= this.m && !this.stopped; k++) {
       const root = mapFromPlaneGraph(wheel(k), this.pool[2 * k]!);
-      // a wheel above the shard level is a subtree of its own
-      this.enter(root, 2 * k, 2 * k > this.level);
+      // a wheel at or above the shard level is a subtree of its own (counted once, in its shard)
+      this.enter(root, 2 * k, 2 * k >= this.level);
     }
   }
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { canonicalForm, canonicalGraphKey, edgeOrbits } from '../../../shared/foundry/canonical-graph';
 import { countPlaneGraphs, graphFromKey, planeGraphsWithEdges } from '../../../shared/foundry/generate-graphs';
+import { forEachPlaneMap } from '../../../shared/foundry/generate-maps';
 import { dualOf, edgeCount, facesOf, mulberry32, wheel, type PlaneGraph } from '../../../shared/tiling/index';
 import { isThreeConnected } from '../tiling/helpers';
 import { referenceGraphKeys } from './reference-generator';
@@ -48,6 +49,17 @@ describe('3-connected planar graph generation', () => {
       expect(parts.sort()).toEqual(all);
       // Source: OEIS A002840.
       expect(all.length).toBe(A002840[m - 6]);
+    }
+  });
+
+  it('counts the same with progress reported and with shards, wheels included (m = 6..14)', () => {
+    // Source: OEIS A002840. The progress pass once visited a wheel with exactly m edges twice.
+    for (let m = 6; m <= 14; m++) {
+      let withProgress = 0;
+      forEachPlaneMap(m, () => withProgress++, { onProgress: () => undefined });
+      let sharded = 0;
+      for (let index = 0; index < 3; index++) forEachPlaneMap(m, () => sharded++, { shard: { index, count: 3 } });
+      expect([m, withProgress, sharded]).toEqual([m, A002840[m - 6], A002840[m - 6]]);
     }
   });
 
