@@ -82,6 +82,21 @@ describe('foundation API', () => {
     const res = await request(t.app).get('/api/openapi.json').expect(200);
     expect(res.body.openapi).toBe('3.1.0');
     expect(Object.keys(res.body.paths)).toEqual(expect.arrayContaining(['/api/health', '/api/invitations/{token}/accept', '/api/admin/users/{id}', '/api/auth/sign-in/email']));
-    expect(res.body.paths['/api/invitations']?.post?.requestBody?.content?.['application/json']?.schema?.properties?.role?.enum).toEqual(['admin', 'editor', 'setter', 'printer']);
+    // Schemas are named components (issue 18): follow each local $ref to the component it names.
+    const resolve = (node: unknown): Record<string, unknown> => {
+      let n = node as Record<string, unknown> | undefined;
+      for (let hops = 0; typeof n?.$ref === 'string'; hops += 1) {
+        expect(hops, String(n.$ref)).toBeLessThan(10);
+        const [, name] = /^#\/components\/schemas\/(\w+)$/.exec(n.$ref) ?? [];
+        expect(name, String(n.$ref)).toBeDefined();
+        n = res.body.components.schemas[name!];
+        expect(n, String(name)).toBeDefined();
+      }
+      return n ?? {};
+    };
+    const body = resolve(res.body.paths['/api/invitations']?.post?.requestBody?.content?.['application/json']?.schema);
+    expect(body.required).toEqual(expect.arrayContaining(['email', 'role']));
+    const role = resolve((body.properties as Record<string, unknown> | undefined)?.role);
+    expect(role.enum).toEqual(['admin', 'editor', 'setter', 'printer']);
   });
 });
