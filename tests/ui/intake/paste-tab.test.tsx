@@ -68,7 +68,7 @@ describe('Submit: paste code', () => {
           body: {
             id: 7, setterId: 'u1', setterName: 'Demo', title: 'Mine', note: null, source: 'paste', code: order9Code,
             canonicalCode: order9Code, canonicalKey: '33x32:18,15,7,8,14,4,10,1,9', width: 33, height: 32, order: 9,
-            square: false, perfect: true, simple: true, status: 'pending', duplicateOf: null, editorNote: null, stockId: null,
+            square: false, perfect: true, simple: true, status: 'pending', duplicateOf: null, sameAs: null, editorNote: null, stockId: null,
             createdAt: '2026-12-02T01:00:00.000Z', reviewedAt: null,
           },
         };
