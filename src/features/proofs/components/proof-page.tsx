@@ -9,6 +9,8 @@ import { Card, Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useApproveProof, useReturnProof } from '../api/decide-proof';
+import { PreflightPages } from './preflight-pages';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
 
 /** /proofs/:id (printer): the proof, its preflight, approve or return with notes. */
 export function ProofPage() {
@@ -18,6 +20,7 @@ export function ProofPage() {
   const ret = useReturnProof(id);
   const [notes, setNotes] = useState('');
   const [notesError, setNotesError] = useState<string | undefined>();
+  const [approving, setApproving] = useState(false);
   if (edition.isPending) return <Loading />;
   if (edition.error) return <ErrorAlert error={edition.error} />;
   const e = edition.data;
@@ -38,10 +41,11 @@ export function ProofPage() {
           {pending.preflight.warnings.length > 0 ? (
             <ul className="list-disc pl-5 text-sm text-ink-soft">
               {pending.preflight.warnings.map((w, i) => (
-                <li key={i}>{w.message}</li>
+                <li key={i}>{`${w.code.startsWith('error:') ? 'Error' : 'Warning'}: ${w.message}`}</li>
               ))}
             </ul>
           ) : null}
+          <PreflightPages preflight={pending.preflight} />
           <p className="text-xs text-ink-muted">
             SHA-256 <code className="break-all">{pending.sha256}</code>
           </p>
@@ -49,10 +53,23 @@ export function ProofPage() {
             <a className={buttonClasses('secondary')} href={`/api/editions/${e.id}/proofs/${pending.version}.pdf?download=1`}>
               {`Download proof v${pending.version}`}
             </a>
-            <Button variant="primary" busy={approve.isPending} onClick={() => approve.mutate(pending.version)}>
+            <Button variant="primary" busy={approve.isPending} onClick={() => setApproving(true)}>
               Approve for press
             </Button>
           </div>
+          <ConfirmDialog
+            open={approving}
+            title={`Approve proof v${pending.version} for press?`}
+            confirmLabel={`Approve proof v${pending.version}`}
+            busy={approve.isPending}
+            error={approve.error}
+            onCancel={() => setApproving(false)}
+            onConfirm={() => approve.mutate(pending.version, { onSuccess: () => setApproving(false) })}
+          >
+            <p>{`The press file of ${e.publicationTitle} No. ${e.number} is made from proof v${pending.version} (${pending.pages} page(s)) without the PROOF stamp, and the desk is mailed. The proof can no longer be returned.`}</p>
+            {pending.preflight.ok ? null : <p className="font-medium text-danger">The preflight of this proof found errors: read them above before you approve.</p>}
+            <p>Check every page of the proof before it goes to press.</p>
+          </ConfirmDialog>
           <form
             className="flex flex-col gap-2"
             noValidate
