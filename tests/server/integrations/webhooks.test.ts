@@ -1,6 +1,8 @@
 import { createHmac, timingSafeEqual } from 'node:crypto';
+import { readFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eventEnvelopeSchema } from '../../../shared/contracts/integrations';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -34,6 +36,21 @@ function receiverAccepts(secret: string, headers: { timestamp: string; signature
   const a = Buffer.from(expected);
   const b = Buffer.from(headers.signature);
   return a.length === b.length && timingSafeEqual(a, b);
+}
+
+type Verify = (secret: string, headers: Record<string, string | string[] | undefined>, rawBody: string) => boolean;
+
+/** The README's own snippet (section "Integrations", the js block), run as written, with node:crypto. */
+function readmeVerify(): Verify {
+  const readme = readFileSync(join(import.meta.dirname, '../../../README.md'), 'utf8');
+  const section = readme.slice(readme.indexOf('## Integrations'), readme.indexOf('<!-- integrations:end -->'));
+  const code = /```js\n([\s\S]*?)```/.exec(section)?.[1] ?? '';
+  expect(code).toContain("import { createHmac, timingSafeEqual } from 'node:crypto';");
+  expect(code).toContain('function verify(secret, headers, rawBody)');
+  const body = code.replace(/^import .*$/m, '');
+  // the point is to run the documented text itself
+  const make = new Function('createHmac', 'timingSafeEqual', `${body}\nreturn verify;`) as (h: typeof createHmac, e: typeof timingSafeEqual) => Verify;
+  return make(createHmac, timingSafeEqual);
 }
 
 type Caught = { headers: Record<string, string | string[] | undefined>; body: string };
@@ -93,6 +110,13 @@ describe('a delivery', () => {
     expect(receiverAccepts(secret, { ...headers, signature: headers.signature.replace(/.$/, (c) => (c === '0' ? '1' : '0')) }, got.body)).toBe(false);
     expect(receiverAccepts('whsq_wrong', headers, got.body)).toBe(false);
     expect(receiverAccepts(secret, headers, got.body, Number(headers.timestamp) + 301)).toBe(false);
+    // the README's snippet, run as printed, agrees: the delivery checks, a tampered one does not
+    const verify = readmeVerify();
+    expect(verify(secret, got.headers, got.body)).toBe(true);
+    expect(verify(secret, got.headers, got.body.replace('"101"', '"102"'))).toBe(false);
+    expect(verify(secret, { ...got.headers, 'squarewright-signature': headers.signature.replace(/.$/, (c) => (c === '0' ? '1' : '0')) }, got.body)).toBe(false);
+    expect(verify('whsq_wrong', got.headers, got.body)).toBe(false);
+    expect(verify(secret, { ...got.headers, 'squarewright-timestamp': String(Number(headers.timestamp) - 400) }, got.body)).toBe(false);
     // visible: delivered, one attempt with the endpoint's answer
     const list = await admin.get(`/api/webhooks/deliveries?endpointId=${endpoint.id}`).expect(200);
     expect(list.body.items[0]).toMatchObject({ status: 'delivered', attempts: 1, eventType: 'submission.reviewed', lastAttempt: { status: 204 } });
