@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { sessionUserSchema } from './auth';
 import { isoDateTimeSchema, roleSchema } from './common';
 
 // Admin user management and the Mailbox (local).
@@ -22,6 +23,12 @@ export const updateUserBodySchema = z
   .refine((v) => v.role !== undefined || v.active !== undefined, 'give role or active');
 export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
 export const updateUserResponseSchema = z.object({ user: adminUserSchema });
+
+/**
+ * GET /api/session (public): who is signed in, or null. The app asks this at start-up
+ * instead of GET /api/me, whose 401 for a signed-out visitor the browser logs as an error.
+ */
+export const sessionResponseSchema = z.object({ user: sessionUserSchema.nullable() });
 
 /** An invitation not yet accepted (GET /api/invitations, admin): resend it (a new link, a new week) or revoke it (the link stops working). */
 export const pendingInvitationSchema = z.object({

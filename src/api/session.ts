@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { meResponseSchema, type SessionUser } from '../../shared/contracts/auth';
-import { apiRequest, isApiError } from '../lib/api-client';
+import type { SessionUser } from '../../shared/contracts/auth';
+import { sessionResponseSchema } from '../../shared/contracts/users';
+import { apiRequest } from '../lib/api-client';
 
 // The session user is app-wide (the router's loader, the layout, and any feature that
 // needs to know who is signed in), so its one endpoint file lives here, not in a feature.
@@ -8,15 +9,13 @@ import { apiRequest, isApiError } from '../lib/api-client';
 /** Keys: ['session'] (all), ['session', 'me']. */
 export const sessionKeys = { all: ['session'] as const, me: () => [...sessionKeys.all, 'me'] as const };
 
-/** GET /api/me: the signed-in user, or null when there is no session (401). */
+/**
+ * GET /api/session: the signed-in user, or null when there is no session. (Not /api/me:
+ * its 401 for a signed-out visitor shows as an error in the browser's console.)
+ */
 export async function getMe(signal?: AbortSignal): Promise<SessionUser | null> {
-  try {
-    const body = await apiRequest('/api/me', { schema: meResponseSchema, signal });
-    return body.user;
-  } catch (error) {
-    if (isApiError(error, 401)) return null;
-    throw error;
-  }
+  const body = await apiRequest('/api/session', { schema: sessionResponseSchema, signal });
+  return body.user;
 }
 
 /** Invalidate sessionKeys.me() (or clear the client) on sign-in and sign-out. */

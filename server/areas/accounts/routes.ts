@@ -17,6 +17,7 @@ import {
   invitationIdParamSchema,
   invitationListResponseSchema,
   resendInvitationResponseSchema,
+  sessionResponseSchema,
   updateUserBodySchema,
   updateUserResponseSchema,
 } from '../../../shared/contracts/users';
@@ -35,6 +36,8 @@ export function registerAccountRoutes(router: ApiRouter, deps: PlatformDeps) {
   );
 
   route(router, { method: 'GET', path: '/api/me', summary: 'The signed-in user', response: meResponseSchema }, ({ user }) => ({ user }));
+
+  route(router, { method: 'GET', path: '/api/session', summary: 'The signed-in user, or null when there is no session (never 401: the app asks this at start-up)', response: sessionResponseSchema }, ({ maybeUser }) => ({ user: maybeUser }));
 
   // better-auth's endpoints the client uses (served by better-auth, documented here)
   const authDoc = (path: string, summary: string, body?: typeof signInBodySchema | typeof requestPasswordResetBodySchema | typeof resetPasswordBodySchema) =>

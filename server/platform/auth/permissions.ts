@@ -14,6 +14,7 @@ export const permissions: Record<string, Access> = {
   'GET /api/public/config': 'public',
   'GET /api/openapi.json': 'public',
   'GET /api/me': 'signed-in',
+  'GET /api/session': 'public',
   'POST /api/invitations': ['admin'],
   'GET /api/invitations': ['admin'],
   'POST /api/invitations/:id/resend': ['admin'],

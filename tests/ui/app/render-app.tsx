@@ -32,7 +32,10 @@ export function stubFetch(routes: Record<string, Handler | { status?: number; bo
     }
     const call = { method, path: url.pathname, body };
     calls.push(call);
-    const route = routes[`${method} ${url.pathname}`];
+    const key = `${method} ${url.pathname}`;
+    // The app asks GET /api/session ({ user } or { user: null }, never 401); tests keep stubbing
+    // it as 'GET /api/me' (meAs / noSession), read here the way the server answers /api/session.
+    const route = routes[key] ?? (key === 'GET /api/session' ? sessionFromMe(routes['GET /api/me']) : undefined);
     const answer = typeof route === 'function' ? await route(call) : route;
     const status = answer?.status ?? (answer ? 200 : 404);
     const payload = answer ? answer.body : { error: { code: 'not_found', message: `no stub for ${method} ${url.pathname}` } };
@@ -45,7 +48,16 @@ export function stubFetch(routes: Record<string, Handler | { status?: number; bo
   return { calls, fetchStub };
 }
 
-/** A session user of the given role, as GET /api/me answers. */
+/** GET /api/session from a 'GET /api/me' stub: its user, or { user: null } where /api/me says 401. */
+function sessionFromMe(me: Handler | { status?: number; body?: unknown } | undefined): Handler | undefined {
+  if (!me) return undefined;
+  return async (call) => {
+    const answer = typeof me === 'function' ? await me(call) : me;
+    return answer.status === 401 ? { body: { user: null } } : answer;
+  };
+}
+
+/** A session user of the given role, as GET /api/me (and GET /api/session) answer. */
 export function meAs(role: Role) {
   return { body: { user: { id: `u-${role}`, email: `${role}@demo.squarewright.test`, name: `Demo ${role}`, role } } };
 }
