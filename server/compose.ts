@@ -7,6 +7,7 @@ import { submissionHistory } from './areas/intake/index';
 import { createWebhookSender, type WebhookSenderOptions } from './areas/integrations/index';
 import { feeRecorder, paymentsProviderFromEnv } from './areas/payouts/index';
 import { foundryRunSink } from './areas/foundry/index';
+import { uploadSink } from './areas/intake/index';
 import { createPuzzleSource, createStockUsage, puzzleProofSink } from './areas/puzzles/index';
 import { publishedContent } from './areas/reader/index';
 import { stockPort } from './areas/stock/index';
@@ -37,7 +38,7 @@ export type BuildDepsInput = {
 
 /** The app's job system: every job kind's server half (where its results go) with the kinds the workers run. */
 export function createAppJobs(o: { db: Db; env: Env; log?: Logger; graceMs?: number; sliceMs?: number; events?: EventSink }): Jobs {
-  const sinks = [foundryRunSink(stockPort, o.events), puzzleProofSink];
+  const sinks = [foundryRunSink(stockPort, o.events), puzzleProofSink, uploadSink(stockPort, o.env)];
   return createJobs({ db: o.db, kinds: jobKindNames, sinks, env: o.env, ...(o.log ? { log: o.log } : {}), ...(o.graceMs ? { graceMs: o.graceMs } : {}), ...(o.sliceMs ? { sliceMs: o.sliceMs } : {}) });
 }
 

@@ -10,6 +10,7 @@ export const jobKinds: Record<string, () => Promise<{ handler: AnyJobHandler }>>
   'puzzle-prove': () => import('./areas/puzzles/prove-job'),
   'print-render': () => import('./areas/print/render-job'),
   'tiling-png': () => import('./areas/stock/png-job'),
+  'intake-upload': () => import('./areas/intake/upload-job'),
   'test-count': () => import('./platform/jobs/test-count-job'),
 };
 

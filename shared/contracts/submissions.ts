@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { jobProgressSchema, jobRetrySchema, jobStateSchema } from './jobs';
 import { numericIdParamSchema, pageOf } from './common';
 import { sortParam } from './stock';
 import { duplicateOfSchema, MAX_CODE_LENGTH, smithDrawingSchema, squaresInputSchema, tilingErrorSchema, tilingSchema, classificationSchema, tilingFactsSchema } from './tilings';
@@ -142,3 +143,23 @@ export const uploadReportSchema = z.object({
   summary: z.object({ valid: z.number().int(), invalid: z.number().int(), duplicate: z.number().int(), created: z.number().int() }),
 });
 export type UploadReport = z.infer<typeof uploadReportSchema>;
+
+/**
+ * An upload is checked and stored by a job (decision 051): POST /api/submissions/upload answers
+ * at once with it, GET /api/submissions/uploads/:id follows it. `summary` counts the lines stored
+ * so far; `report` lists them once the job has ended (done, cancelled, failed or interrupted).
+ */
+export const uploadJobSchema = z.object({
+  id: z.string(),
+  fileName: z.string(),
+  state: jobStateSchema,
+  progress: jobProgressSchema.nullable(),
+  error: z.string().nullable(),
+  retry: jobRetrySchema,
+  summary: uploadReportSchema.shape.summary.extend({ lines: z.number().int() }),
+  report: uploadReportSchema.nullable(),
+  createdAt: z.string(),
+});
+export type UploadJob = z.infer<typeof uploadJobSchema>;
+export const uploadIdParamsSchema = z.object({ id: z.uuid({ error: 'upload id must be a UUID' }) });
+export const uploadRetrySchema = z.object({ how: z.enum(['resume', 'restart']).default('resume') }).strict();

@@ -4,3 +4,4 @@ export { registerSubmissionRoutes } from './routes';
 export { registerTilingRoutes } from './check-routes';
 export { seedDemoStock } from './demo-seed';
 export { fillSubmissionReducedKeys, submissionHistory } from './submissions';
+export { uploadSink } from './uploads';

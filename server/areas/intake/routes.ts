@@ -11,7 +11,9 @@ import {
   submissionListQuerySchema,
   submissionListSchema,
   submissionSchema,
-  uploadReportSchema,
+  uploadIdParamsSchema,
+  uploadJobSchema,
+  uploadRetrySchema,
 } from '../../../shared/contracts/submissions';
 import type { IntakeDeps } from './ports';
 import { Unprocessable } from '../../platform/http/errors';
@@ -23,9 +25,9 @@ import {
   listSubmissions,
   reviewSubmission,
   fillSubmissionReducedKeys,
-  uploadSubmissions,
   type Actor,
 } from './submissions';
+import { cancelUpload, getUpload, retryUpload, startUpload } from './uploads';
 
 export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
   // submissions stored before migration 0017 get their reduced key once (nothing to do on a new database)
@@ -45,20 +47,38 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
     {
       method: 'POST',
       path: '/api/submissions/upload',
-      summary: 'Upload a .txt or .bkp file of codes (field "file", one code a line, at most 5 MB and 20,000 lines); per-line report; one transaction',
+      summary: 'Upload a .txt or .bkp file of codes (field "file", one code a line, at most 5 MB and 20,000 lines); answers at once with the upload job that checks and stores the lines (follow it at GET /api/submissions/uploads/:id)',
       tags,
       bodyType: 'multipart',
       // the file and the multipart framing around it
       maxBodyBytes: MAX_UPLOAD_BYTES + 64 * 1024,
       middleware: [upload.single('file')],
-      response: uploadReportSchema,
-      status: 201,
+      response: uploadJobSchema,
+      status: 202,
     },
     ({ req, user }) => {
       const file = req.file;
       if (!file) throw new Unprocessable('no file: send the codes as multipart form data in the field "file"', { path: 'file' });
-      return uploadSubmissions(deps, user, file.originalname, file.buffer);
+      return startUpload(deps, user, file.originalname, file.buffer);
     },
+  );
+
+  route(
+    router,
+    { method: 'GET', path: '/api/submissions/uploads/:id', summary: 'An upload: state, progress (lines checked, rate, time left; then storing), counts so far; the per-line report once it has ended', tags, params: uploadIdParamsSchema, response: uploadJobSchema },
+    ({ user, params }) => getUpload(deps, user, params.id),
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions/uploads/:id/cancel', summary: 'Cancel an upload: it stops within 2 s; the lines stored so far stay', tags, params: uploadIdParamsSchema, response: uploadJobSchema },
+    ({ user, params }) => cancelUpload(deps, user, params.id),
+  );
+
+  route(
+    router,
+    { method: 'POST', path: '/api/submissions/uploads/:id/retry', summary: 'Run a cancelled, interrupted or failed upload again: resume (lines stored are skipped) or restart', tags, params: uploadIdParamsSchema, body: uploadRetrySchema, response: uploadJobSchema },
+    ({ user, params, body }) => retryUpload(deps, user, params.id, body.how),
   );
 
   route(

@@ -7,10 +7,8 @@ import type {
   SubmissionDetail,
   SubmissionList,
   SubmissionListQuery,
-  UploadLine,
-  UploadReport,
 } from '../../../shared/contracts/submissions';
-import { MAX_TITLE, MAX_UPLOAD_LINES, submissionTitle } from '../../../shared/contracts/submissions';
+import { submissionTitle } from '../../../shared/contracts/submissions';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { user } from '../../platform/auth/schema';
 import { submission } from './schema';
@@ -80,10 +78,15 @@ export function duplicateOf(stock: StockPort, db: DbOrTx, t: { reducedKey: strin
   return d.stock ? 'stock' : d.pending.length > 0 ? 'pending' : null;
 }
 
-function insertSubmission(
+/** What a submission row stores of a checked tiling (a TilingAnalysis, or an upload line checked on a job worker). */
+export type SubmissionFacts = Pick<TilingAnalysis, 'canonicalCode' | 'canonicalKey' | 'reducedKey' | 'tiling'> & {
+  classification: Pick<TilingAnalysis['classification'], 'order' | 'square' | 'perfect' | 'simple'>;
+};
+
+export function insertSubmission(
   tx: DbOrTx,
-  actor: Actor,
-  a: TilingAnalysis,
+  actor: Pick<Actor, 'id'>,
+  a: SubmissionFacts,
   fields: { code: string; title?: string | null; note?: string | null; source: 'paste' | 'sketch' | 'file' },
   dup: 'stock' | 'pending' | null,
 ): number {
@@ -124,87 +127,6 @@ export function createSubmission(deps: IntakeStore, actor: Actor, input: CreateS
     return insertSubmission(tx, actor, a, { code, title: input.title, note: input.note, source: input.source }, dup);
   });
   return getSubmission(deps, actor, id);
-}
-
-export interface UploadHooks {
-  /** called before each line's row is written, inside the transaction (tests inject a crash here) */
-  beforeWrite?(line: number): void;
-}
-
-/** Split an upload into numbered code lines; blank lines and `#` comments are skipped. */
-export function codeLines(text: string): { line: number; code: string }[] {
-  const out: { line: number; code: string }[] = [];
-  const lines = text.split(/\r\n|\r|\n/);
-  if (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
-  if (lines.length > MAX_UPLOAD_LINES) {
-    throw new Unprocessable(`the file has ${lines.length} lines; at most ${MAX_UPLOAD_LINES} are read in one upload`, {
-      path: 'file',
-      lines: lines.length,
-      limit: MAX_UPLOAD_LINES,
-    });
-  }
-  lines.forEach((raw, i) => {
-    const code = raw.trim();
-    if (code === '' || code.startsWith('#')) return;
-    out.push({ line: i + 1, code });
-  });
-  return out;
-}
-
-function captionOf(code: string): string | null {
-  const i = code.indexOf('*');
-  if (i < 0) return null;
-  const t = code.slice(i + 1).trim().slice(0, MAX_TITLE);
-  return t || null;
-}
-
-/**
- * POST /api/submissions/upload: a text file of codes, one a line. Every line is checked
- * first (no database work); then ONE transaction writes all valid lines, so a failure
- * half-way leaves nothing written.
- */
-export function uploadSubmissions(deps: IntakeStore, actor: Actor, fileName: string, buf: Buffer, hooks: UploadHooks = {}): UploadReport {
-  const { db } = deps;
-  if (!/\.(txt|bkp)$/i.test(fileName)) {
-    throw new Unprocessable(`"${fileName}" is not a .txt or .bkp file`, { path: 'file', fileName });
-  }
-  if (buf.includes(0)) throw new Unprocessable(`"${fileName}" is not a text file (it contains NUL bytes)`, { path: 'file' });
-  const text = new TextDecoder('utf-8', { fatal: false }).decode(buf).replace(/^\uFEFF/, '');
-  const entries = codeLines(text);
-  const checked = entries.map((e) => ({ ...e, r: analyseCode(e.code) }));
-  const lines: UploadLine[] = db.transaction((tx) => {
-    const seen = new Set<string>();
-    const report: UploadLine[] = [];
-    for (const e of checked) {
-      if (!e.r.ok) {
-        report.push({ line: e.line, verdict: 'invalid', error: e.r.error });
-        continue;
-      }
-      const a = e.r.analysis;
-      const size = { order: a.classification.order, width: a.tiling.W, height: a.tiling.H };
-      // the same tiling at any scale earlier in this file
-      if (seen.has(a.reducedKey)) {
-        report.push({ line: e.line, verdict: 'duplicate', duplicateOf: 'this-file', ...size });
-        continue;
-      }
-      seen.add(a.reducedKey);
-      const dup = duplicateOf(deps.stock, tx, a);
-      hooks.beforeWrite?.(e.line);
-      const id = insertSubmission(tx, actor, a, { code: e.code, title: captionOf(e.code), source: 'file' }, dup);
-      report.push(
-        dup
-          ? { line: e.line, verdict: 'duplicate', duplicateOf: dup, submissionId: id, ...size }
-          : { line: e.line, verdict: 'valid', submissionId: id, ...size },
-      );
-    }
-    return report;
-  });
-  const summary = { valid: 0, invalid: 0, duplicate: 0, created: 0 };
-  for (const l of lines) {
-    summary[l.verdict] += 1;
-    if (l.submissionId !== undefined) summary.created += 1;
-  }
-  return { fileName, lines, summary };
 }
 
 const columns = {

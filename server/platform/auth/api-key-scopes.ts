@@ -17,6 +17,9 @@ export const apiKeyScopeOfRoute: Record<string, ApiKeyScope> = {
   'GET /api/submissions/:id': 'submissions:read',
   'POST /api/submissions': 'submissions:write',
   'POST /api/submissions/upload': 'submissions:write',
+  'GET /api/submissions/uploads/:id': 'submissions:read',
+  'POST /api/submissions/uploads/:id/cancel': 'submissions:write',
+  'POST /api/submissions/uploads/:id/retry': 'submissions:write',
   'POST /api/submissions/:id/accept': 'submissions:write',
   'POST /api/submissions/:id/reject': 'submissions:write',
   'POST /api/submissions/bulk': 'submissions:write',
@@ -36,4 +39,5 @@ export const apiKeyScopeOfRoute: Record<string, ApiKeyScope> = {
   'GET /api/foundry/runs/:id/results': 'foundry:read',
   'POST /api/foundry/runs': 'foundry:write',
   'POST /api/foundry/runs/:id/cancel': 'foundry:write',
+  'POST /api/foundry/runs/:id/retry': 'foundry:write',
 };

@@ -57,6 +57,9 @@ export const permissions: Record<string, Access> = {
   'POST /api/submissions/:id/reject': ['editor'],
   'POST /api/submissions/bulk': ['editor'],
   'POST /api/submissions/upload': ['setter'],
+  'GET /api/submissions/uploads/:id': ['setter'],
+  'POST /api/submissions/uploads/:id/cancel': ['setter'],
+  'POST /api/submissions/uploads/:id/retry': ['setter'],
   'POST /api/tilings/check': ['setter', 'editor'],
   // foundry (editors and admins only)
   'GET /api/foundry/runs': ['editor'],

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { scaleText } from '../../../shared/contracts/tilings';
 import { gcdOfKey, reducedFormOf } from '../../../server/areas/stock/tiling-analysis';
 import { canonicalForm, parseTiling } from '../../../shared/tiling/index';
+import { uploaded } from './upload-helper';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { order10Codes } from '../../fixtures/intake/order10';
 
@@ -90,7 +91,7 @@ describe('a copy at 2x', () => {
     // its own stock row does not count; the 2x twin still waiting does
     expect(list[0]).toMatchObject({ duplicateOf: 'pending', sameAs: null });
     const file = `${order10Codes[2]}\n${scaled(order10Codes[2]!, 5)}\n`;
-    const res = await setter.post('/api/submissions/upload').attach('file', Buffer.from(file), 'codes.txt').expect(201);
-    expect(res.body.lines.map((l: { verdict: string; duplicateOf?: string }) => `${l.verdict}:${l.duplicateOf ?? ''}`)).toEqual(['valid:', 'duplicate:this-file']);
+    const report = await uploaded(setter, Buffer.from(file), 'codes.txt');
+    expect(report.lines.map((l) => `${l.verdict}:${l.duplicateOf ?? ''}`)).toEqual(['valid:', 'duplicate:this-file']);
   });
 });

@@ -37,6 +37,25 @@ describe('the foundry page', () => {
     await expect.poll(() => calls.some((c) => c.method === 'POST' && c.path.endsWith('/cancel'))).toBe(true);
   });
 
+  it('offers Resume and Restart for a run the server stopped, and sends the choice', async () => {
+    const interrupted: Run = { ...running, state: 'interrupted', retry: { resume: true, restart: true }, finishedAt: '2026-12-02T01:00:09.000Z' };
+    const { calls } = stubFetch({
+      'GET /api/me': meAs('editor'),
+      'GET /api/foundry/runs': { body: { items: [interrupted, { ...running, id: '22222222-2222-4222-8222-222222222222', state: 'done', retry: { resume: false, restart: false } }] } },
+      [`POST /api/foundry/runs/${running.id}/retry`]: { body: { ...running, state: 'queued', progress: null } },
+    });
+    renderApp('/foundry');
+    const row = await screen.findByRole('row', { name: `Run ${running.id}` }, { timeout: 10_000 });
+    expect(within(row).getByText('Interrupted')).toBeTruthy();
+    expect(within(row).queryByRole('button', { name: 'Cancel' })).toBeNull();
+    // a finished run offers neither
+    const done = screen.getByRole('row', { name: 'Run 22222222-2222-4222-8222-222222222222' });
+    expect(within(done).queryByRole('button', { name: /Resume|Restart/ })).toBeNull();
+    expect(within(row).getByRole('button', { name: `Restart run ${running.id}` })).toBeTruthy();
+    await userEvent.click(within(row).getByRole('button', { name: `Resume run ${running.id}` }));
+    await expect.poll(() => calls.find((c) => c.method === 'POST' && c.path.endsWith('/retry'))?.body).toEqual({ how: 'resume' });
+  });
+
   it('checks the parameters with the shared contract before sending anything', async () => {
     const { calls } = stubFetch({
       'GET /api/me': meAs('editor'),

@@ -11,3 +11,12 @@ export async function cancelRun(id: string) {
 export function useCancelRun() {
   return useInvalidatingMutation(cancelRun, [foundryKeys.all]);
 }
+
+/** POST /api/foundry/runs/:id/retry (editor): an interrupted, failed or cancelled run again; resume keeps its finished shards. */
+export async function retryRun({ id, how }: { id: string; how: 'resume' | 'restart' }) {
+  return apiRequest(`/api/foundry/runs/${encodeURIComponent(id)}/retry`, { method: 'POST', body: { how }, schema: runSchema });
+}
+
+export function useRetryRun() {
+  return useInvalidatingMutation(retryRun, [foundryKeys.all]);
+}

@@ -7,7 +7,7 @@ import { FramedTable } from '../../../components/framed-table';
 import { Loading, Page } from '../../../components/page';
 import { StatusBadge } from '../../../components/status-badge';
 import { formatDateTime } from '../../../lib/format';
-import { useCancelRun } from '../api/cancel-run';
+import { useCancelRun, useRetryRun } from '../api/cancel-run';
 import { isActive, useRuns } from '../api/list-runs';
 import { RunForm } from './run-form';
 import { RunProgress } from './run-progress';
@@ -33,6 +33,7 @@ const stateLabel: Record<RunState, string> = {
 export function FoundryPage() {
   const runs = useRuns();
   const cancel = useCancelRun();
+  const retry = useRetryRun();
   return (
     <Page
       title="Foundry"
@@ -42,6 +43,7 @@ export function FoundryPage() {
       <section aria-labelledby="runs-heading" className="flex flex-col gap-3">
         <h2 id="runs-heading" className="text-lg font-semibold text-ink">Runs</h2>
         <ErrorAlert error={cancel.error} title="Could not cancel" />
+        <ErrorAlert error={retry.error} title="Could not run it again" />
         {runs.isPending ? (
           <Loading />
         ) : runs.error ? (
@@ -51,7 +53,14 @@ export function FoundryPage() {
         ) : (
           <FramedTable caption="Foundry runs" headings={['Run', 'State', 'Perfect found', 'Imperfect found', 'New in stock', 'Started', '']} ruledHead>
             {runs.data.map((run) => (
-              <RunRow key={run.id} run={run} cancelling={cancel.isPending && cancel.variables === run.id} onCancel={() => cancel.mutate(run.id)} />
+              <RunRow
+                key={run.id}
+                run={run}
+                cancelling={cancel.isPending && cancel.variables === run.id}
+                onCancel={() => cancel.mutate(run.id)}
+                retrying={retry.isPending && retry.variables?.id === run.id}
+                onRetry={(how) => retry.mutate({ id: run.id, how })}
+              />
             ))}
           </FramedTable>
         )}
@@ -60,7 +69,7 @@ export function FoundryPage() {
   );
 }
 
-function RunRow({ run, cancelling, onCancel }: { run: Run; cancelling: boolean; onCancel: () => void }) {
+function RunRow({ run, cancelling, onCancel, retrying, onRetry }: { run: Run; cancelling: boolean; onCancel: () => void; retrying: boolean; onRetry: (how: 'resume' | 'restart') => void }) {
   return (
     <tr className="border-b border-rule align-top last:border-b-0" aria-label={`Run ${run.id}`}>
       <td className="min-w-72 px-3 py-2">
@@ -82,6 +91,17 @@ function RunRow({ run, cancelling, onCancel }: { run: Run; cancelling: boolean; 
           {isActive(run) ? (
             <Button size="sm" variant="danger" busy={cancelling} onClick={onCancel}>
               Cancel
+            </Button>
+          ) : null}
+          {/* an interrupted (server stopped), failed or cancelled run: on from its finished shards, or from the start */}
+          {run.retry.resume ? (
+            <Button size="sm" variant="primary" busy={retrying} onClick={() => onRetry('resume')} aria-label={`Resume run ${run.id}`}>
+              Resume
+            </Button>
+          ) : null}
+          {run.retry.restart ? (
+            <Button size="sm" busy={retrying} onClick={() => onRetry('restart')} aria-label={`Restart run ${run.id}`}>
+              Restart
             </Button>
           ) : null}
         </div>
