@@ -77,6 +77,7 @@ describe('the OpenAPI 3.1 document', () => {
         if (scope) expect(op.security, key).toContainEqual({ apiKey: [scope] });
         else expect(op.security, key).toHaveLength(1);
         for (const status of ['401', '403', '429']) expect(op.responses[status]?.$ref, `${key} ${status}`).toMatch(/^#\/components\/responses\//);
+        if (path.includes('{')) expect(op.responses['404']?.$ref, `${key} 404`).toBe('#/components/responses/NotFound');
         if (method !== 'get') for (const status of ['409', '422']) expect(op.responses[status], `${key} ${status}`).toBeDefined();
         if (op.requestBody) for (const status of ['400', '413']) expect(op.responses[status], `${key} ${status}`).toBeDefined();
       }
