@@ -2,6 +2,11 @@ import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 
+// The two builds' entries, typed alike (two different object shapes in one conditional do not
+// type-check as Rollup's input).
+const serverEntries: Record<string, string> = { index: 'server/index.ts', 'job-worker': 'server/worker-entry.ts' };
+const clientEntries: Record<string, string> = { index: 'index.html', 'reader-play': 'src/reader/main.tsx', 'reader-embed': 'src/reader/embed-height.ts', reader: 'src/reader/reader.css' };
+
 // Client build goes to dist/client. The server is bundled separately with
 // `vite build --ssr --outDir dist/server` with the entries listed below (see package.json).
 export default defineConfig(({ isSsrBuild }) => ({
@@ -16,9 +21,9 @@ export default defineConfig(({ isSsrBuild }) => ({
         // public/ belongs to the client build only.
         copyPublicDir: false,
         rollupOptions: {
-          // Extra server entries (worker threads) are listed here by the job runner. The build runs
+          // Extra server entries (worker threads) are listed in serverEntries above. The build runs
           // `vite build --ssr` without an entry argument, which would override this list.
-          input: { index: 'server/index.ts', 'job-worker': 'server/worker-entry.ts' },
+          input: serverEntries,
           output: { entryFileNames: '[name].js', format: 'es' },
         },
       }
@@ -29,7 +34,7 @@ export default defineConfig(({ isSsrBuild }) => ({
         // staff app): the server finds the built files in .vite/manifest.json (server/areas/reader/page-assets.ts)
         manifest: true,
         rollupOptions: {
-          input: { index: 'index.html', 'reader-play': 'src/reader/main.tsx', 'reader-embed': 'src/reader/embed-height.ts', reader: 'src/reader/reader.css' },
+          input: clientEntries,
         },
       },
   ssr: { noExternal: [] },
