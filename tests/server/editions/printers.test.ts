@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { isAllowed, permissions } from '../../../server/platform/auth/permissions';
 import { plainRichText } from '../../../shared/contracts/editions';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { TILING_33x32 } from '../print/fixtures/sample-edition';
@@ -90,6 +91,29 @@ describe('a proof of The Saturday Quadrant', () => {
     await theirs.post(`/api/editions/${editionId}/proofs/1/return`).send({ notes: 'Not mine to return.' }).expect(404);
     await theirs.post(`/api/editions/${editionId}/proofs/1/approve`).expect(404);
     // nothing changed by the attempts
+    expect((await editor.get(`/api/editions/${editionId}`).expect(200)).body).toMatchObject({ state: 'in_proof', proofs: [{ version: 1, status: 'pending' }] });
+  });
+
+  it('answers the printer of another publication on every route the permission table opens to printers as for an unknown edition', async () => {
+    // Derived from the table, so a printer route added later is covered too: every route a
+    // printer may call that takes an id is an edition route, and each answers a guessed id of
+    // an edition of another publication exactly as it answers an id that does not exist.
+    const zeros = '00000000-0000-0000-0000-000000000000';
+    const printerRoutes = Object.entries(permissions)
+      .filter(([key, access]) => key.includes(':') && access !== 'public' && isAllowed(access, 'printer'))
+      .map(([key]) => key);
+    expect(printerRoutes.every((k) => k.includes(' /api/editions/:id'))).toBe(true);
+    expect(printerRoutes.length).toBeGreaterThanOrEqual(5);
+    for (const key of printerRoutes) {
+      const [method, path] = key.split(' ') as ['GET' | 'POST', string];
+      const url = (id: string) => path.replace(':id', id).replace(/:([A-Za-z_][A-Za-z0-9_]*)/g, '1');
+      const call = (id: string) => (method === 'GET' ? theirs.get(url(id)) : theirs.post(url(id)).send({ notes: 'Not mine to return.' }));
+      const [guessed, unknown] = [await call(editionId), await call(zeros)];
+      expect(guessed.status, key).toBe(404);
+      expect(guessed.body.error.code, key).toBe(unknown.body.error.code);
+      // the same reply the routes give our own printer for an id that does not exist
+      expect(unknown.status, key).toBe(404);
+    }
     expect((await editor.get(`/api/editions/${editionId}`).expect(200)).body).toMatchObject({ state: 'in_proof', proofs: [{ version: 1, status: 'pending' }] });
   });
 
