@@ -9,6 +9,7 @@ export const jobKinds: Record<string, () => Promise<{ handler: AnyJobHandler }>>
   'foundry-run': () => import('./areas/foundry/run-job'),
   'puzzle-prove': () => import('./areas/puzzles/prove-job'),
   'print-render': () => import('./areas/print/render-job'),
+  'print-layout-package': () => import('./areas/print/layout-package-job'),
   'tiling-png': () => import('./areas/stock/png-job'),
   'intake-upload': () => import('./areas/intake/upload-job'),
   'test-count': () => import('./platform/jobs/test-count-job'),

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { editionIdParamsSchema } from '../../../shared/contracts/editions';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import { route, type ApiRouter } from '../../platform/http/route';
-import { buildLayoutPackage, getPageTemplate, type PackageEntry } from '../print/index';
+import { getPageTemplate, layoutPackageOnWorker, type PackageEntry } from '../print/index';
 import { loadEditionDocument, toPuzzlePrint, toSolutionPrint } from './edition-document';
 import { getEditionRow } from './editions';
 import type { EditionsDeps } from './ports';
@@ -54,7 +54,7 @@ export function registerLayoutPackageRoutes(router: ApiRouter, deps: EditionsDep
         solution: toSolutionPrint(puzzle, slot),
       }));
       const press = built.doc.press ?? pressSettingsFor(pub);
-      const { zip } = await buildLayoutPackage({
+      const { zip } = await layoutPackageOnWorker(deps.jobs, {
         title: `${pub.title} No. ${r.number}`,
         template: built.doc.template,
         press,
@@ -85,7 +85,7 @@ export function registerLayoutPackageRoutes(router: ApiRouter, deps: EditionsDep
       if (!template) throw new Unprocessable(`The publication's page template "${pub.templateId}" is not installed.`);
       const press = pressSettingsFor(pub);
       const stem = `${slug(pub.title)}-puzzle${puzzle.id}`;
-      const { zip } = await buildLayoutPackage({
+      const { zip } = await layoutPackageOnWorker(deps.jobs, {
         title: `${pub.title}: ${puzzle.title || `puzzle ${puzzle.id}`}`,
         template,
         press,
