@@ -320,14 +320,22 @@ function errorResponses(): Record<string, Json> {
   return out;
 }
 
+/** The form of an upload route without a body schema: one file in the field "file" (the convention of every upload route). */
+const uploadFormSchema = {
+  type: 'object',
+  properties: { file: { type: 'string', contentMediaType: 'application/octet-stream', description: 'the file, sent as a multipart part named "file"' } },
+  required: ['file'],
+};
+
 function errorsFor(r: OpenApiRoute): number[] {
   const codes: number[] = [];
   const write = r.method !== 'GET';
-  if (r.params || r.query || r.body || r.access === 'public (better-auth)') codes.push(400);
+  const hasBody = r.body !== undefined || r.bodyType === 'multipart';
+  if (r.params || r.query || hasBody || r.access === 'public (better-auth)') codes.push(400);
   if (r.access !== 'public' && r.access !== 'public (better-auth)') codes.push(401, 403);
   if (r.params) codes.push(404);
   if (write) codes.push(409);
-  if (r.body) codes.push(413);
+  if (hasBody) codes.push(413);
   if (write) codes.push(422);
   codes.push(429);
   return codes;
@@ -457,6 +465,9 @@ export class OpenApiCollector {
             ? { 'multipart/form-data': { schema: inline(r.body) } }
             : { 'application/json': { schema: { $ref: `${refPrefix}${inputName(body!)}` }, ...exampleFor(given.request, r.body, inputName(body!), 'request') } };
         op.requestBody = { required: true, content };
+      } else if (r.bodyType === 'multipart') {
+        // upload routes read their file with multer (upload.single('file')), not through a zod body
+        op.requestBody = { required: true, content: { 'multipart/form-data': { schema: uploadFormSchema } } };
       }
       const p = toOpenApiPath(r.path);
       paths[p] = { ...paths[p], [r.method.toLowerCase()]: op };

@@ -84,6 +84,18 @@ describe('the OpenAPI 3.1 document', () => {
     }
   });
 
+  it('documents each upload route\u2019s form (a file in the field "file") and its 400 and 413', () => {
+    const uploads = t.app.api.openapi.routes.filter((r) => r.bodyType === 'multipart');
+    expect(uploads.map((r) => `${r.method} ${r.path}`)).toContain('POST /api/submissions/upload');
+    for (const r of uploads) {
+      const op = doc.paths[r.path.replace(/:(\w+)/g, '{$1}')]![r.method.toLowerCase()]!;
+      const form = (op.requestBody as { content: Record<string, { schema: { properties: Record<string, unknown>; required: string[] } }> } | undefined)?.content['multipart/form-data'];
+      expect(form?.schema.properties.file, `${r.method} ${r.path}`).toBeDefined();
+      expect(form?.schema.required).toContain('file');
+      for (const status of ['400', '413']) expect(op.responses[status]?.$ref, `${r.method} ${r.path} ${status}`).toMatch(/^#\/components\/responses\//);
+    }
+  });
+
   it('answers errors in our one error shape, with an example of each', () => {
     const statuses = { BadRequest: 'bad_request', Unauthorized: 'unauthorized', Forbidden: 'forbidden', NotFound: 'not_found', Conflict: 'conflict', PayloadTooLarge: 'payload_too_large', Unprocessable: 'unprocessable', TooManyRequests: 'rate_limited' };
     for (const [name, code] of Object.entries(statuses)) {
