@@ -64,6 +64,17 @@ describe('revoking and expiry', () => {
     expect(res.body.error).toMatchObject({ code: 'unauthorized' });
   });
 
+  it('an admin revokes an editor\u2019s key, and its next request answers 401', async () => {
+    const { secret, apiKey } = await makeKey(['stock:read'], 'left behind');
+    await request(t.app).get('/api/stock/summary').set(bearer(secret)).expect(200);
+    const admin = await t.signInAs('admin');
+    const revoked = await admin.post(`/api/api-keys/${apiKey.id}/revoke`).send({}).expect(200);
+    expect(revoked.body).toMatchObject({ id: apiKey.id, status: 'revoked' });
+    await request(t.app).get('/api/stock/summary').set(bearer(secret)).expect(401);
+    const mine = (await editor.get('/api/api-keys').expect(200)).body.items as { id: string; status: string }[];
+    expect(mine.find((k) => k.id === apiKey.id)?.status).toBe('revoked');
+  });
+
   it('an expired key, an unknown key and a malformed header answer 401', async () => {
     const { secret, apiKey } = await makeKey(['stock:read'], 'expiring');
     t.db.update(apikey).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(apikey.id, apiKey.id)).run();

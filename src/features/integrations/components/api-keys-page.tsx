@@ -20,7 +20,7 @@ import { SecretOnce } from './secret-once';
 const scopeWords: Record<ApiKeyScope, string> = {
   'stock:read': 'Read the stock (list, details, images, exports)',
   'submissions:read': 'Read submissions',
-  'submissions:write': 'Check tilings, review submissions (and submit, for setters)',
+  'submissions:write': 'Check tilings, accept and reject submissions',
   'puzzles:read': 'Read puzzles',
   'puzzles:write': 'Make and change puzzles',
   'editions:read': 'Read editions, publications and the published-content feed',
