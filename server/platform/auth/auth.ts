@@ -140,8 +140,18 @@ export function createAuth(options: AuthOptions) {
       useSecureCookies: env.PUBLIC_URL.startsWith('https://'),
       defaultCookieAttributes: { httpOnly: true, sameSite: 'lax' },
     },
-    logger: { disabled: env.LOG_LEVEL === 'silent' || env.NODE_ENV === 'test' },
+    logger: { disabled: env.LOG_LEVEL === 'silent' || env.NODE_ENV === 'test', log: betterAuthLog },
   });
+}
+
+/**
+ * better-auth's own log lines, as it writes them, except one: an unknown, expired or revoked API
+ * key is the caller's mistake (route() answers 401 in our words), not an error of the server.
+ */
+export function betterAuthLog(level: 'debug' | 'info' | 'warn' | 'error', message: string, ...args: unknown[]): void {
+  if (message.startsWith('Failed to validate API key')) return;
+  const write = level === 'error' ? console.error : level === 'warn' ? console.warn : console.log;
+  write(`${new Date().toISOString()} ${level.toUpperCase()} [Better Auth]: ${message}`, ...args);
 }
 
 export type Auth = ReturnType<typeof createAuth>;

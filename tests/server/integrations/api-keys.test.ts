@@ -1,7 +1,8 @@
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { betterAuthLog } from '../../../server/platform/auth/auth';
 import { apikey } from '../../../server/platform/auth/schema';
 import { scopesToPermissions } from '../../../server/platform/auth/api-keys';
 import { createTestApp, type TestApp } from '../helpers/test-app';
@@ -62,6 +63,19 @@ describe('revoking and expiry', () => {
     expect(revoked.body.status).toBe('revoked');
     const res = await request(t.app).get('/api/stock/summary').set(bearer(secret)).expect(401);
     expect(res.body.error).toMatchObject({ code: 'unauthorized' });
+  });
+
+  it('a refused key is not logged as a server error (better-auth\u2019s other lines still are)', () => {
+    const error = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    try {
+      betterAuthLog('error', 'Failed to validate API key:', new Error('API Key is disabled'));
+      expect(error).not.toHaveBeenCalled();
+      betterAuthLog('error', 'Something else went wrong');
+      expect(error).toHaveBeenCalledTimes(1);
+      expect(String(error.mock.calls[0]![0])).toContain('ERROR [Better Auth]: Something else went wrong');
+    } finally {
+      error.mockRestore();
+    }
   });
 
   it('an admin revokes an editor\u2019s key, and its next request answers 401', async () => {
