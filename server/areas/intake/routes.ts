@@ -47,7 +47,7 @@ export function registerSubmissionRoutes(router: ApiRouter, deps: IntakeDeps) {
     {
       method: 'POST',
       path: '/api/submissions/upload',
-      summary: 'Upload a .txt or .bkp file of codes (field "file", one code a line, at most 5 MB and 20,000 lines); answers at once with the upload job that checks and stores the lines (follow it at GET /api/submissions/uploads/:id)',
+      summary: 'Upload a plain-text file of codes, whatever its name (field "file", one code a line, at most 5 MB and 20,000 lines); answers at once with the upload job that checks and stores the lines (follow it at GET /api/submissions/uploads/:id)',
       tags,
       bodyType: 'multipart',
       // the file and the multipart framing around it

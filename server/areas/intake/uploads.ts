@@ -9,6 +9,7 @@ import { appRoot } from '../../platform/app-root';
 import type { Db, DbOrTx } from '../../platform/db/client';
 import { parseStoredJson } from '../../platform/db/stored-json';
 import type { Env } from '../../platform/env';
+import { notPlainTextReason } from '../../../shared/contracts/code-list';
 import { Conflict, NotFound, Unprocessable } from '../../platform/http/errors';
 import { defineJobSink, type JobRecord, type Jobs, type JobSink } from '../../platform/jobs/port';
 import type { StockPort } from '../stock/ports';
@@ -90,8 +91,9 @@ export function uploadSink(stock: StockPort, env: Pick<Env, 'DATA_DIR'>): JobSin
  * count); then a job checks and stores its lines. Answers at once.
  */
 export function startUpload(deps: { jobs: Jobs; env: Pick<Env, 'DATA_DIR'>; db: Db }, actor: SessionUser, fileName: string, buf: Buffer): UploadJob {
-  if (!/\.(txt|bkp)$/i.test(fileName)) throw new Unprocessable(`"${fileName}" is not a .txt or .bkp file`, { path: 'file', fileName });
-  if (buf.includes(0)) throw new Unprocessable(`"${fileName}" is not a text file (it contains NUL bytes)`, { path: 'file' });
+  // accepted by its content, whatever its name: plain text, one code a line
+  const notText = notPlainTextReason(buf);
+  if (notText) throw new Unprocessable(`"${fileName}" cannot be read as a list of codes: ${notText}`, { path: 'file', fileName });
   const text = new TextDecoder('utf-8', { fatal: false }).decode(buf).replace(/^\uFEFF/, '');
   const lines = text.split(/\r\n|\r|\n/);
   const n = lines.length > 0 && lines[lines.length - 1] === '' ? lines.length - 1 : lines.length;

@@ -125,15 +125,30 @@ describe('POST /api/submissions/upload', () => {
     expect(rows()).toBe(before);
   });
 
-  it('refuses more than 20,000 lines with 422, and files that are not .txt or .bkp', async () => {
+  it('refuses more than 20,000 lines with 422, and files that are not plain text, whatever their name', async () => {
     const setter = await as('setter');
     const many = Buffer.from(`${'#\n'.repeat(20_001)}`);
     const res = await setter.post('/api/submissions/upload').attach('file', many, 'many.bkp').expect(422);
     expect(res.body.error.message).toMatch(/20001 lines/);
-    const wrong = await setter.post('/api/submissions/upload').attach('file', Buffer.from(order9bCode), 'codes.pdf').expect(422);
-    expect(wrong.body.error.message).toMatch(/not a \.txt or \.bkp/);
+    // a PDF's bytes (NUL bytes) and Latin-1 bytes that are not UTF-8 are not a code list, even named .txt
+    const pdf = Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.from([0, 1, 2, 0]), Buffer.from(order9bCode)]);
+    const wrong = await setter.post('/api/submissions/upload').attach('file', pdf, 'codes.txt').expect(422);
+    expect(wrong.body.error.message).toMatch(/cannot be read as a list of codes: it is not plain text/);
+    const latin1 = await setter.post('/api/submissions/upload').attach('file', Buffer.from([0x4d, 0xfc, 0x6c, 0x6c, 0x65, 0x72, 0x0a]), 'list').expect(422);
+    expect(latin1.body.error.message).toMatch(/not plain text in UTF-8/);
     const none = await setter.post('/api/submissions/upload').field('x', '1').expect(422);
     expect(none.body.error.message).toMatch(/field "file"/);
+  });
+
+  it('accepts a plain-text code list by its content, whatever its name (our own export is .txt)', async () => {
+    const setter = await as('setter');
+    // the published order-12 rectangle 112 x 99 (the tiling catalogue in tests/fixtures/puzzle), under a name no extension rule would allow
+    const code = '12 112 99 (56,27,29)(25,2)(31)(17,8)(43,13)(39)(30)';
+    const first = await uploaded(setter, Buffer.from(`# one code a line\n${code}\n`), 'finds.dat');
+    expect(first.lines.map((l) => l.verdict)).toEqual(['valid']);
+    // and without any extension: read as well (now a duplicate of the pending one)
+    const again = await uploaded(setter, Buffer.from(`${code}\n`), 'codes-without-extension');
+    expect(again.lines.map((l) => `${l.verdict}:${l.duplicateOf ?? ''}`)).toEqual(['duplicate:pending']);
   });
 
   it('is for setters only', async () => {

@@ -100,7 +100,7 @@ describe('Submit: upload a file', () => {
     const user = userEvent.setup();
     renderTab();
     await user.upload(screen.getByLabelText('or choose a file'), new File([order9Code], 'codes.txt', { type: 'text/plain' }));
-    expect(sent).toHaveLength(1);
+    await waitFor(() => expect(sent).toHaveLength(1));
     expect(sent[0]!.url).toBe('/api/submissions/upload');
     const bar = await screen.findByRole('progressbar', { name: 'Checking codes.txt' });
     expect(bar.getAttribute('aria-valuenow')).toBe('30'); // 12 of 40
@@ -114,6 +114,21 @@ describe('Submit: upload a file', () => {
     expect(done.textContent).toContain('repeats an earlier line of this file');
     expect(screen.queryByRole('progressbar')).toBeNull();
     expect(calls.every((c) => c.method === 'GET')).toBe(true);
+  });
+
+  it('takes a plain-text list whatever its name, and refuses one that is not text before sending it', async () => {
+    const sent = stubXhr({ status: 202, body: job({ state: 'queued' }) });
+    stubFetch(() => ({ status: 200, body: job({ state: 'queued' }) }));
+    const user = userEvent.setup({ applyAccept: false });
+    renderTab();
+    // a PDF's bytes under a .txt name: NUL bytes, not a code list
+    await user.upload(screen.getByLabelText('or choose a file'), new File([new Uint8Array([0x25, 0x50, 0x44, 0x46, 0, 1, 2])], 'codes.txt'));
+    expect(await screen.findByText(/"codes\.txt" cannot be read as a list of codes: it is not plain text/)).toBeTruthy();
+    expect(sent).toHaveLength(0);
+    // a code list with no .txt in its name is sent as it is
+    await user.upload(screen.getByLabelText('or choose a file'), new File([order9Code], 'finds.dat'));
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect((sent[0]!.file as File).name).toBe('finds.dat');
   });
 
   it('Cancel stops it and says how much was stored; the upload can go on from where it stopped', async () => {

@@ -1,6 +1,7 @@
 import { useId, useState, type DragEvent } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { UploadJob, UploadLine, UploadReport } from '../../../../shared/contracts/submissions';
+import { notPlainTextReason } from '../../../../shared/contracts/code-list';
 import { MAX_UPLOAD_BYTES, MAX_UPLOAD_LINES } from '../../../../shared/contracts/submissions';
 import { Alert, ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
@@ -16,7 +17,7 @@ const dupText = { stock: 'already in the stock', pending: 'already waiting for r
 const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
 
 /**
- * Upload a .txt or .bkp file of codes, one a line. The server answers at once with an upload
+ * Upload a plain-text file of codes, one a line, whatever its name (read by its content). The server answers at once with an upload
  * job (kept in the address as ?upload=ID, so a reload follows it still): its lines are checked
  * on a worker and stored as they come, with progress, a Cancel, and the per-line report at the end.
  */
@@ -33,18 +34,20 @@ export function UploadTab() {
   function follow(id: string) {
     setSearch((prev) => { const n = new URLSearchParams(prev); n.set('upload', id); return n; }, { replace: true });
   }
-  function send(file: File | undefined) {
+  async function send(file: File | undefined) {
     setLocalError(null);
     if (!file) return;
-    if (!/\.(txt|bkp)$/i.test(file.name)) return setLocalError(`"${file.name}" is not a .txt or .bkp file.`);
     if (file.size > MAX_UPLOAD_BYTES) return setLocalError(`"${file.name}" is larger than 5 MB.`);
+    // read by its content, whatever its name: plain text, one code a line (the server asks the same)
+    const notText = notPlainTextReason(new Uint8Array(await file.arrayBuffer()));
+    if (notText) return setLocalError(`"${file.name}" cannot be read as a list of codes: ${notText}.`);
     setSending({ loaded: 0, total: file.size });
     upload.mutate(file, { onSuccess: (u) => follow(u.id), onSettled: () => setSending(null) });
   }
   function onDrop(e: DragEvent) {
     e.preventDefault();
     setOver(false);
-    send(e.dataTransfer.files[0]);
+    void send(e.dataTransfer.files[0]);
   }
   const busy = sending !== null || (job.data !== undefined && isUploadActive(job.data));
 
@@ -61,12 +64,12 @@ export function UploadTab() {
       >
         <p className="font-semibold text-ink">Drop a file of codes here</p>
         <p className="text-sm text-ink-muted">
-          A .txt or .bkp file, one Bouwkamp or table code a line; blank lines and lines starting with # are skipped. At most 5 MB and {MAX_UPLOAD_LINES.toLocaleString('en-GB')} lines.
+          A plain-text file (any name, e.g. our own squarewright-stock.txt), one Bouwkamp or table code a line; blank lines and lines starting with # are skipped. At most 5 MB and {MAX_UPLOAD_LINES.toLocaleString('en-GB')} lines.
         </p>
         <label htmlFor={inputId} className="cursor-pointer font-semibold text-accent underline">
           or choose a file
         </label>
-        <input id={inputId} type="file" accept=".txt,.bkp,text/plain" className="sr-only" disabled={busy} onChange={(e) => send(e.target.files?.[0] ?? undefined)} />
+        <input id={inputId} type="file" className="sr-only" disabled={busy} onChange={(e) => void send(e.target.files?.[0] ?? undefined)} />
       </div>
       {sending ? <ProgressBar label="Uploading" value={sending.loaded} max={sending.total} detail={`${Math.round(sending.loaded / 1024)} of ${Math.round(sending.total / 1024)} kB`} /> : null}
       {localError ? <Alert tone="danger" title="Not uploaded">{localError}</Alert> : null}
