@@ -1,10 +1,11 @@
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useEffect, useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { z } from 'zod';
 import { editionCreateSchema, type EditionSummary } from '../../../../shared/contracts/editions';
-import { useEditions } from '../../../api/editions';
+import { useQuery } from '@tanstack/react-query';
+import { editionListQueryOptions, useEditions } from '../../../api/editions';
 import { usePublications } from '../../../api/publications';
 import { ErrorAlert } from '../../../components/alert';
 import { Button } from '../../../components/button';
@@ -92,12 +93,24 @@ const newEditionForm = editionCreateSchema.pick({ publicationId: true, date: tru
 });
 type NewEdition = z.input<typeof newEditionForm>;
 
+/** The number a new edition of a publication takes by default: one after its highest, or 1 for its first. */
+export function nextEditionNumber(items: readonly Pick<EditionSummary, 'number'>[]): number {
+  return items.reduce((max, e) => Math.max(max, e.number), 0) + 1;
+}
+
 function NewEditionForm() {
   const pubs = usePublications();
   const create = useCreateEdition();
   const navigate = useNavigate();
   const form = useForm<NewEdition, unknown, z.output<typeof newEditionForm>>({ resolver: zodResolver(newEditionForm), defaultValues: { publicationId: '', number: 1, date: '' } });
   const { errors } = form.formState;
+  const publicationId = useWatch({ control: form.control, name: 'publicationId' });
+  // the publication's editions (every month): the number defaults to the next one
+  const ofPublication = useQuery({ ...editionListQueryOptions({ publicationId }), enabled: publicationId !== '' });
+  const next = publicationId && ofPublication.data ? nextEditionNumber(ofPublication.data) : null;
+  useEffect(() => {
+    if (next !== null && !form.getFieldState('number').isDirty) form.setValue('number', next);
+  }, [next, form]);
   return (
     <Card title="New edition">
       <ErrorAlert error={pubs.error} />
@@ -110,7 +123,14 @@ function NewEditionForm() {
         })}
       >
         <SelectField label="Publication" placeholder="Choose…" options={(pubs.data ?? []).map((p) => ({ value: p.id, label: p.title }))} error={errors.publicationId?.message} {...form.register('publicationId')} />
-        <TextField label="Number" type="number" min={1} error={errors.number?.message} {...form.register('number')} />
+        <TextField
+          label="Number"
+          type="number"
+          min={1}
+          hint={next !== null ? (next > 1 ? `The next after No. ${next - 1}.` : 'Its first edition.') : undefined}
+          error={errors.number?.message}
+          {...form.register('number')}
+        />
         <TextField label="Date" type="date" error={errors.date?.message} {...form.register('date')} />
         <ErrorAlert error={create.error} title="Could not create the edition" />
         <Button type="submit" variant="primary" busy={create.isPending}>
