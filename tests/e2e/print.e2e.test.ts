@@ -1,5 +1,6 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
@@ -7,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { puzzleDetailSchema, type PuzzleDetail } from '../../shared/contracts/puzzles';
 import { verifyTiling } from '../../shared/tiling/index';
 import { seriousAxeViolations } from './helpers/axe';
-import { screenshot, signIn, useBrowser } from './helpers/browser';
+import { baseUrl, screenshot, signIn, useBrowser } from './helpers/browser';
 import { waitForMail } from './helpers/mailbox';
 
 // The proof round in a real browser against the built app in demo mode (issue 7 item 8): the
@@ -67,6 +68,54 @@ async function derivePuzzle(editor: Page, kind: 'assembly' | 'deduction', notSto
   return { id, kind, stockId, tiling: api.tiling };
 }
 
+/**
+ * Send to proof from the edition page: the dialog says what will happen; preflight floor errors
+ * (a half-scale Assembly piece under the template's floor) need the editor's reason.
+ */
+async function sendToProof(editor: Page, version: number): Promise<void> {
+  const send = editor.getByRole('button', { name: 'Send to proof' });
+  await expect.poll(() => send.isEnabled(), { timeout: 60_000 }).toBe(true);
+  await send.click();
+  const dialog = editor.getByRole('dialog', { name: /to proof\?$/ });
+  await dialog.waitFor();
+  const confirm = dialog.getByRole('button', { name: new RegExp(`^Send proof v${version}( anyway)?$`) });
+  if ((await dialog.getByRole('textbox').count()) > 0) await dialog.getByRole('textbox').fill('Test: the small pieces are cut from card.');
+  await confirm.click();
+  await editor.getByText(`Proof v${version} is with the printer.`, { exact: false }).waitFor({ timeout: 60_000 });
+}
+
+/** Clicks a download link and returns the file the browser saved, with the name it suggested. */
+async function download(page: Page, link: ReturnType<Page['getByRole']>): Promise<{ name: string; file: string }> {
+  const [dl] = await Promise.all([page.waitForEvent('download', { timeout: 60_000 }), link.click()]);
+  const file = join(mkdtempSync(join(tmpdir(), 'sw-e2e-dl-')), dl.suggestedFilename());
+  await dl.saveAs(file);
+  return { name: dl.suggestedFilename(), file };
+}
+
+const hasUnzip = spawnSync('unzip', ['-v']).status === 0;
+
+/** The layout package's files, checked with unzip and pdfinfo against its manifest and the puzzles' tilings. */
+function checkPackage(zip: string, stems: string[], puzzles: Derived[]): void {
+  if (!hasUnzip || !hasPdftotext) return; // CI installs both (.ci/run); elsewhere the download itself is the check
+  expect(spawnSync('unzip', ['-tq', zip]).status).toBe(0);
+  const dir = mkdtempSync(join(tmpdir(), 'sw-e2e-pkg-'));
+  expect(spawnSync('unzip', ['-q', zip, '-d', dir]).status).toBe(0);
+  const manifest = JSON.parse(readFileSync(join(dir, 'manifest.json'), 'utf8')) as { files: { name: string; sha256: string; preflightOk?: boolean }[] };
+  const parts = ['puzzle.pdf', 'puzzle.svg', 'solution.pdf', 'solution.svg', 'instructions.txt', 'solution.txt'];
+  expect(manifest.files.map((f) => f.name).sort()).toEqual(stems.flatMap((s) => parts.map((p) => `${s}-${p}`)).sort());
+  for (const f of manifest.files) expect(createHash('sha256').update(readFileSync(join(dir, f.name))).digest('hex'), f.name).toBe(f.sha256);
+  stems.forEach((stem, i) => {
+    const squares = [...readFileSync(join(dir, `${stem}-solution.txt`), 'utf8').matchAll(/^[A-Z]+: (\d+) at (\d+), (\d+)$/gm)].map((m) => `${m[1]}@${m[2]},${m[3]}`);
+    expect(squares.sort()).toEqual(puzzles[i]!.tiling.squares.map((q) => `${q.s}@${q.x},${q.y}`).sort());
+    for (const part of ['puzzle', 'solution']) {
+      const info = spawnSync('pdfinfo', ['-box', join(dir, `${stem}-${part}.pdf`)], { encoding: 'utf8' }).stdout;
+      const box = (name: string) => info.match(new RegExp(`^${name}:\\s+(.+)$`, 'm'))?.[1]?.trim();
+      expect(box('TrimBox'), `${stem}-${part}.pdf`).toBe(box('MediaBox'));
+      expect(readFileSync(join(dir, `${stem}-${part}.svg`), 'utf8')).toMatch(/<svg[\s\S]*<\/svg>\s*$/);
+    }
+  });
+}
+
 describe('the proof round in the browser', () => {
   const harness = useBrowser();
 
@@ -119,15 +168,14 @@ describe('the proof round in the browser', () => {
       await editor.getByRole('button', { name: 'Add slot' }).click();
     }
     await editor.getByRole('button', { name: 'Move slot 2 up' }).click();
-    await editor.getByRole('button', { name: 'Save slots' }).click();
-    await editor.getByText('Slot 2', { exact: true }).waitFor();
+    await editor.getByRole('button', { name: 'Save changes' }).click();
+    await editor.getByText('Saved.', { exact: true }).waitFor();
     await expect.poll(async () => (await (await editor.request.get(`/api/editions/${id}`)).json()).slots.map((s: { puzzleId: string }) => s.puzzleId)).toEqual([deduction.id, assembly.id]);
     await editor.getByRole('button', { name: 'Run the checks again' }).click();
     await editor.getByText('Every puzzle has a current certificate.').waitFor({ timeout: 30_000 });
     // the reuse guard: the two tilings differ and no other Monthly edition used them
     await editor.getByText('No tiling repeats within 365 days in Squared Away Monthly.').waitFor();
-    await editor.getByRole('button', { name: 'Send to proof' }).click();
-    await editor.getByText('Proof v1 sent').waitFor({ timeout: 30_000 });
+    await sendToProof(editor, 1);
     await screenshot(editor, 'edition-in-proof');
 
     // The printer finds it, and returns it with a note.
@@ -148,15 +196,18 @@ describe('the proof round in the browser', () => {
     await intro.click();
     await editor.keyboard.press('Control+End');
     await editor.keyboard.type(' Printed for the new month.');
-    await editor.getByRole('button', { name: 'Save details' }).click();
-    await editor.getByText('Saved.').waitFor();
-    await editor.getByRole('button', { name: 'Send to proof' }).click();
-    await editor.getByText('Proof v2 sent').waitFor({ timeout: 30_000 });
+    await editor.getByRole('button', { name: 'Save changes' }).click();
+    await editor.getByText('Saved.', { exact: true }).waitFor();
+    await sendToProof(editor, 2);
 
     // The printer approves proof 2 and downloads the press file.
     await printer.goto(`/proofs/${id}`);
     await printer.getByRole('heading', { name: 'Proof v2' }).waitFor();
     await printer.getByRole('button', { name: 'Approve for press' }).click();
+    // it asks first, saying what the press file is made from
+    const approve = printer.getByRole('dialog', { name: 'Approve proof v2 for press?' });
+    await approve.getByText(/without the PROOF stamp/).waitFor();
+    await approve.getByRole('button', { name: 'Approve proof v2' }).click();
     await printer.getByText(/^Approved\./).waitFor({ timeout: 30_000 });
     await printer.goto('/press-files');
     await printer.getByRole('link', { name: 'Download press file' }).first().waitFor();
@@ -177,6 +228,23 @@ describe('the proof round in the browser', () => {
       for (const p of [assembly, deduction]) expect(text).toContain(`${[...p.tiling.squares].map((q) => q.s).sort((a, b) => b - a).join(', ')}.`);
       expect(text).not.toMatch(/PROOF/);
     }
+
+    // Package for layout, downloaded in the browser: the edition's zip from its page (named by
+    // publication and number, a file per slot named by slot) and one puzzle's from the puzzle
+    // page at The Saturday Quadrant's settings. unzip (Info-ZIP) reads them; every file's SHA-256
+    // matches the manifest; the solution text lists exactly the engine's squares; pdfinfo (poppler)
+    // finds each placeable PDF cut to the drawing (TrimBox = MediaBox).
+    await editor.goto(`/editions/${id}`);
+    await editor.getByRole('heading', { name: title, level: 1 }).waitFor();
+    const pkg = await download(editor, editor.getByRole('link', { name: 'Package for layout' }));
+    const stem = `squared-away-monthly-no${number}`;
+    expect(pkg.name).toBe(`${stem}-layout-package.zip`);
+    checkPackage(pkg.file, [`${stem}-slot1`, `${stem}-slot2`], [deduction, assembly]);
+    await editor.goto(`/puzzles/${deduction.id}`);
+    await editor.getByLabel('Settings of').selectOption({ label: 'The Saturday Quadrant (newspaper-column)' });
+    const one = await download(editor, editor.getByRole('link', { name: 'Download package (.zip)' }));
+    expect(one.name).toBe(`the-saturday-quadrant-puzzle${deduction.id}-layout-package.zip`);
+    checkPackage(one.file, [`the-saturday-quadrant-puzzle${deduction.id}`], [deduction]);
 
     // Mail went to the printer (proof ready) and to the editor (returned, approved).
     const adminContext = await harness.newContext();
@@ -203,25 +271,32 @@ describe('the proof round in the browser', () => {
   });
 
   it('shows the admin the publications and each template with a sample page, without serious accessibility findings', async () => {
-    const admin = harness.page();
-    await signIn(admin, 'admin');
-    await admin.goto('/admin/publications');
-    await admin.getByRole('button', { name: 'Edit The Saturday Quadrant' }).waitFor();
-    expect(await admin.getByText('Payouts are subject to local tax rules', { exact: false }).count()).toBeGreaterThan(0);
-    // axe-core WCAG 2.1 A/AA rules: no serious or critical finding
-    expect(await seriousAxeViolations(admin)).toEqual([]);
-    await screenshot(admin, 'admin-publications');
-    await admin.goto('/admin/templates');
-    for (const name of ['A4 magazine page', 'US Letter page', 'Newspaper column']) await admin.getByRole('heading', { name }).waitFor();
-    expect(await seriousAxeViolations(admin)).toEqual([]);
-    const sample = await admin.request.get('/api/templates/newspaper-column/sample.pdf');
-    expect(sample.ok()).toBe(true);
-    expect((await sample.body()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
-    await screenshot(admin, 'admin-templates');
-    const editor = await (await harness.newContext()).newPage();
-    await signIn(editor, 'editor');
-    await editor.goto('/editions');
-    await editor.getByRole('heading', { name: 'Editions', level: 1 }).waitFor();
-    expect(await seriousAxeViolations(editor)).toEqual([]);
+    // axe-core is injected as an inline script, which our CSP refuses: these contexts bypass it
+    const axeContext = () => harness.browser().newContext({ baseURL: baseUrl(), viewport: { width: 1280, height: 860 }, bypassCSP: true });
+    const contexts = [await axeContext(), await axeContext()];
+    try {
+      const admin = await contexts[0]!.newPage();
+      await signIn(admin, 'admin');
+      await admin.goto('/admin/publications');
+      await admin.getByRole('button', { name: 'Edit The Saturday Quadrant' }).waitFor();
+      expect(await admin.getByText('Payouts are subject to local tax rules', { exact: false }).count()).toBeGreaterThan(0);
+      // axe-core WCAG 2.1 A/AA rules: no serious or critical finding
+      expect(await seriousAxeViolations(admin)).toEqual([]);
+      await screenshot(admin, 'admin-publications');
+      await admin.goto('/admin/templates');
+      for (const name of ['A4 magazine page', 'US Letter page', 'Newspaper column']) await admin.getByRole('heading', { name }).waitFor();
+      expect(await seriousAxeViolations(admin)).toEqual([]);
+      const sample = await admin.request.get('/api/templates/newspaper-column/sample.pdf');
+      expect(sample.ok()).toBe(true);
+      expect((await sample.body()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+      await screenshot(admin, 'admin-templates');
+      const editor = await contexts[1]!.newPage();
+      await signIn(editor, 'editor');
+      await editor.goto('/editions');
+      await editor.getByRole('heading', { name: 'Editions', level: 1 }).waitFor();
+      expect(await seriousAxeViolations(editor)).toEqual([]);
+    } finally {
+      for (const c of contexts) await c.close();
+    }
   });
 });

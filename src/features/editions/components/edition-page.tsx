@@ -323,7 +323,7 @@ function SendDialog({ edition, checks, open, onClose }: { edition: Edition; chec
       }}
       onConfirm={(reason) => send.mutate({ updatedAt: edition.updatedAt, ...(reason ? { override: { reason } } : {}) }, { onSuccess: onClose })}
     >
-      <p>{`Proof v${version} is made from the edition as saved (${edition.slots.length} puzzle(s)), stamped PROOF, stored with its SHA-256, and mailed to every printer.`}</p>
+      <p>{`Proof v${version} is made from the edition as saved (${edition.slots.length} puzzle(s)), stamped PROOF, stored with its SHA-256, and mailed to the printers of ${edition.publicationTitle}.`}</p>
       <p>The edition is then locked until the printer approves or returns the proof.</p>
       {soft.length > 0 ? (
         <Alert tone="warning" title="The preflight found errors">
