@@ -14,6 +14,7 @@ import type { TestProject } from 'vitest/node';
 // concurrent rebuild of dist/ cannot change the files this run serves.
 //   E2E_SKIP_BUILD=1   reuse dist/ when it exists
 //   E2E_KEEP_DATA=1    keep the temporary data folder (its path is printed)
+//   E2E_HEALTH_TIMEOUT_MS  how long to wait for the demo server to be healthy (default 120 s: seeding proves puzzles)
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -69,7 +70,7 @@ function makeAppRoot(): string {
   return appRoot;
 }
 
-async function waitForHealth(baseUrl: string, child: ChildProcess, output: () => string, timeoutMs = 60_000): Promise<void> {
+async function waitForHealth(baseUrl: string, child: ChildProcess, output: () => string, timeoutMs = Number(process.env.E2E_HEALTH_TIMEOUT_MS ?? 120_000)): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`e2e: the server exited with ${child.exitCode} before it was healthy:\n${output()}`);
