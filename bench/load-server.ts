@@ -2,7 +2,7 @@
 // load generator never shares its event loop). A production-mode app on a fresh DATA_DIR with
 // BENCH_STOCK tilings (default 50,000), job threads as `npm start` has them (JOB_WORKERS
 // default). It answers the parent over IPC:
-//   { type: 'mark' }    -> { type: 'usage', cpuMs, mainBusyMs, wallMs } since the last mark
+//   { type: 'mark' }    -> { type: 'usage', cpuMs, mainBusyMs, wallMs, loopP99Ms, loopMaxMs } since the last mark
 //                          (process CPU of all its threads; main-thread busy time from the event
 //                          loop's utilisation)
 //   { type: 'render' }  -> a 12-puzzle A4 proof rendered on a job worker, as the proof route does
@@ -13,7 +13,7 @@ import http from 'node:http';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { performance } from 'node:perf_hooks';
+import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import type { AddressInfo } from 'node:net';
 import { createApp } from '../server/app';
 import { buildDeps } from '../server/compose';
@@ -53,6 +53,9 @@ await renderOnWorker(deps.jobs, benchEdition(), { stamp: 'PROOF', proofVersion: 
 let cpu = process.cpuUsage();
 let elu = performance.eventLoopUtilization();
 let at = performance.now();
+// how late the event loop ran its timers: one long synchronous piece of work shows as a high max
+const delay = monitorEventLoopDelay({ resolution: 10 });
+delay.enable();
 
 process.on('message', (m: { type: string }) => {
   void (async () => {
@@ -60,7 +63,8 @@ process.on('message', (m: { type: string }) => {
       const c = process.cpuUsage(cpu);
       const e = performance.eventLoopUtilization(elu);
       const now = performance.now();
-      send({ type: 'usage', cpuMs: (c.user + c.system) / 1000, mainBusyMs: e.active, wallMs: now - at });
+      send({ type: 'usage', cpuMs: (c.user + c.system) / 1000, mainBusyMs: e.active, wallMs: now - at, loopP99Ms: delay.percentile(99) / 1e6, loopMaxMs: delay.max / 1e6 });
+      delay.reset();
       cpu = process.cpuUsage();
       elu = performance.eventLoopUtilization();
       at = now;

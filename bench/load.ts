@@ -109,7 +109,7 @@ async function main() {
   // warm-up: every filter shape once, a few details
   for (let i = 0; i < 40; i++) await fetch(`${base}${i % 2 ? filters[i % filters.length]!() : `/api/stock/${1 + (i * 97) % ready.seeded}`}`, { headers: { cookie: editor } });
 
-  type Usage = Msg & { cpuMs: number; mainBusyMs: number; wallMs: number };
+  type Usage = Msg & { cpuMs: number; mainBusyMs: number; wallMs: number; loopP99Ms: number; loopMaxMs: number };
   await ask<Usage>(child, { type: 'mark' }, 'usage');
   const idleLoad = loadavg()[0]!;
   const idle = await drive(base, editor, ready.seeded);
@@ -164,7 +164,7 @@ async function main() {
   }
   const per = (u: Usage, rows: Row[]) => {
     const n = rows.reduce((a, r) => a + r.n, 0);
-    return `server CPU ${(u.cpuMs / n).toFixed(2)} ms/request (all threads), main thread busy ${(u.mainBusyMs / n).toFixed(2)} ms/request (${((100 * u.mainBusyMs) / u.wallMs).toFixed(0)}% of the time)`;
+    return `server CPU ${(u.cpuMs / n).toFixed(2)} ms/request (all threads), main thread busy ${(u.mainBusyMs / n).toFixed(2)} ms/request (${((100 * u.mainBusyMs) / u.wallMs).toFixed(0)}% of the time), event-loop delay p99 ${u.loopP99Ms.toFixed(0)} ms, max ${u.loopMaxMs.toFixed(0)} ms`;
   };
   console.log(`idle: ${per(idleUse, idle)}; load average ${idleLoad.toFixed(1)}`);
   console.log(`heavy work: ${per(heavyUse, heavy)}; load average ${heavyLoad.toFixed(1)}`);

@@ -52,7 +52,16 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
       let gone = false;
       res.on('close', () => (gone = true));
       const write = async (text: string) => {
-        if (!res.write(text)) await new Promise<void>((r) => res.once('drain', () => r()).once('close', () => r()));
+        // wait for a slow client; both listeners go once either fires (no pile of 'close' listeners)
+        if (!res.write(text)) {
+          await new Promise<void>((r) => {
+            const done = () => {
+              res.off('drain', done).off('close', done);
+              r();
+            };
+            res.once('drain', done).once('close', done);
+          });
+        }
       };
       await write(head(total));
       for (const batch of exportBatches(deps.db, filter, limit)) {

@@ -131,11 +131,19 @@ export function noteStockWrite(): void {
  * tilings), counted in a loop: SQLite needs 5-10 ms to count a filter through an index at that
  * size, the loop well under 1 ms. The snapshot is used only while nothing was written to the
  * database since it was taken (this area's writes, SQLite's total_changes() on this connection
- * and data_version for other connections), so totals are always exact. Taking one costs ~100 ms
- * at 50,000, so after a write it is retaken at most every SNAPSHOT_MIN_AGE_MS; until then totals
- * are counted by SQLite in the narrowest index.
+ * and data_version for other connections), so totals are always exact. Reading all rows at once
+ * took ~100 ms at 50,000, a stall for every request behind it, so a snapshot is (re)taken in
+ * chunks of 2,000 rows by rowid, one chunk per turn of the event loop (a few ms
+ * each); a write between two chunks discards the partial one. A retake starts once the database
+ * has not changed for SNAPSHOT_MIN_AGE_MS (at once for the first); meanwhile SQLite counts, in
+ * the narrowest index.
  */
 const SNAPSHOT_MIN_AGE_MS = 1_000;
+let snapshotChunkRows = 2_000;
+/** Tests: smaller chunks, so a few hundred rows take several turns. */
+export function setSnapshotChunkRowsForTests(n: number): void {
+  snapshotChunkRows = n;
+}
 
 interface FilterSnapshot {
   n: number;
@@ -150,7 +158,6 @@ interface FilterSnapshot {
   at: number;
 }
 const snapshots = new WeakMap<Sqlite, FilterSnapshot>();
-const snapshotSql = `select ${columnNames.map((c) => columnDef(c).sql).join(', ')} from stock indexed by stock_filter_idx`;
 const flagBit = new Map(columnNames.filter((c) => columnDef(c).kind === 'bool').map((c, k) => [c, 1 << k]));
 
 function databaseStamp(client: Sqlite): string {
@@ -159,16 +166,64 @@ function databaseStamp(client: Sqlite): string {
   return `${generation}:${changes}:${version}`;
 }
 
-/** The snapshot if it is current or may be retaken now; null when SQLite should count instead. */
+type SnapshotRow = (number | string | null)[];
+interface Retake {
+  stamp: string;
+  after: number;
+  rows: SnapshotRow[];
+}
+const retakes = new WeakMap<Sqlite, Retake>();
+/** the stamp last seen per connection and since when */
+const lastStamp = new WeakMap<Sqlite, { stamp: string; since: number }>();
+const chunkSql = `select rowid, ${columnNames.map((c) => columnDef(c).sql).join(', ')} from stock where rowid > ? order by rowid limit ?`;
+
+/** The snapshot if it is current; else null (SQLite counts), and a retake is started when due. */
 function filterSnapshot(client: Sqlite): FilterSnapshot | null {
   const now = Date.now();
   const stamp = databaseStamp(client);
   const hit = snapshots.get(client);
   if (hit && hit.stamp === stamp) return hit;
-  if (hit && now - hit.at < SNAPSHOT_MIN_AGE_MS) return null;
-  const rows = prepared(client, snapshotSql).raw().all() as (number | string | null)[][];
+  const seen = lastStamp.get(client);
+  if (!seen || seen.stamp !== stamp) lastStamp.set(client, { stamp, since: now });
+  const stableFor = seen && seen.stamp === stamp ? now - seen.since : 0;
+  const running = retakes.get(client);
+  if ((!running || running.stamp !== stamp) && (!hit || stableFor >= SNAPSHOT_MIN_AGE_MS)) startRetake(client, stamp);
+  return null;
+}
+
+/** Read the snapshot's rows chunk by chunk, one chunk per turn of the event loop. */
+function startRetake(client: Sqlite, stamp: string): void {
+  const r: Retake = { stamp, after: 0, rows: [] };
+  retakes.set(client, r);
+  const step = () => {
+    if (retakes.get(client) !== r) return;
+    // closed, or written since the retake began: give up (the next count starts another when due)
+    if (!client.open || databaseStamp(client) !== r.stamp) {
+      retakes.delete(client);
+      return;
+    }
+    const chunk = prepared(client, chunkSql).raw().all(r.after, snapshotChunkRows) as SnapshotRow[];
+    for (const row of chunk) r.rows.push(row.slice(1));
+    if (chunk.length === snapshotChunkRows) {
+      r.after = chunk[chunk.length - 1]![0] as number;
+      setImmediate(step);
+      return;
+    }
+    retakes.delete(client);
+    snapshots.set(client, buildSnapshot(r.rows, r.stamp, Date.now()));
+  };
+  setImmediate(step);
+}
+
+/** Tests: true once a snapshot matching the database as it is now is in place. */
+export function stockSnapshotCurrent(db: Db): boolean {
+  const hit = snapshots.get(db.$client);
+  return hit !== undefined && hit.stamp === databaseStamp(db.$client);
+}
+
+function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number): FilterSnapshot {
   const n = rows.length;
-  const snap: FilterSnapshot = { n, values: {}, codes: {}, flags: new Int32Array(n), stamp, at: now };
+  const snap: FilterSnapshot = { n, values: {}, codes: {}, flags: new Int32Array(n), stamp, at };
   columnNames.forEach((name, k) => {
     const kind = columnDef(name).kind;
     const bit = flagBit.get(name);
@@ -192,7 +247,6 @@ function filterSnapshot(client: Sqlite): FilterSnapshot | null {
       for (let i = 0; i < n; i++) a[i] = rows[i]![k] as number;
     }
   });
-  snapshots.set(client, snap);
   return snap;
 }
 

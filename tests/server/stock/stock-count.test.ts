@@ -4,7 +4,7 @@ import { stockFilterSchema } from '../../../shared/contracts/stock';
 import { stock } from '../../../server/areas/stock/schema';
 import { seedBulkStock } from '../../../server/areas/intake/demo-seed';
 import { exportStock, markStockUsed } from '../../../server/areas/stock/stock';
-import { countStock } from '../../../server/areas/stock/stock-filter';
+import { countStock, setSnapshotChunkRowsForTests, stockSnapshotCurrent } from '../../../server/areas/stock/stock-filter';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 // The list's totals are counted in memory (server/areas/stock/stock-filter.ts countStock); SQLite
@@ -35,8 +35,17 @@ function rng(seed: number) {
   };
 }
 
+async function snapshotTaken() {
+  for (let i = 0; i < 400 && !stockSnapshotCurrent(t.db); i++) {
+    countStock(t.db, {});
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  expect(stockSnapshotCurrent(t.db)).toBe(true);
+}
+
 describe('countStock', () => {
-  it('agrees with SQLite on 300 random filters', () => {
+  it('agrees with SQLite on 300 random filters', async () => {
+    await snapshotTaken(); // the in-memory count, not SQLite's
     const rnd = rng(10);
     const widths = t.db.select({ w: stock.width, h: stock.height, o: stock.order }).from(stock).all();
     const pick = <T,>(xs: readonly T[]) => xs[Math.floor(rnd() * xs.length)]!;
@@ -78,5 +87,42 @@ describe('countStock', () => {
     await new Promise((r) => setTimeout(r, 1100));
     expect(countStock(t.db, { used: 'used' })).toBe(before + 1);
     expect(countStock(t.db, { used: 'unused' })).toBe(exportStock(t.db, { used: 'unused' }, 100_000).length);
+  });
+
+  it('takes its snapshot chunk by chunk, one per turn of the event loop; SQLite counts meanwhile, exactly', async () => {
+    await snapshotTaken();
+    setSnapshotChunkRowsForTests(50); // 400 rows: 9 turns
+    try {
+      t.db.transaction((tx) => markStockUsed(tx, 11));
+      const unused = exportStock(t.db, { used: 'unused' }, 100_000).length;
+      await new Promise((r) => setTimeout(r, 1100)); // stable for the minimum age
+      expect(countStock(t.db, { used: 'unused' })).toBe(unused); // starts the retake, answers from SQLite
+      expect(stockSnapshotCurrent(t.db)).toBe(false);
+      await new Promise((r) => setImmediate(r));
+      await new Promise((r) => setImmediate(r));
+      expect(stockSnapshotCurrent(t.db)).toBe(false); // not in one piece
+      await snapshotTaken();
+      expect(countStock(t.db, { used: 'unused' })).toBe(unused);
+    } finally {
+      setSnapshotChunkRowsForTests(2_000);
+    }
+  });
+
+  it('a write between two chunks: counts stay exact, and a snapshot of the database as it is now follows', async () => {
+    await snapshotTaken();
+    setSnapshotChunkRowsForTests(50);
+    try {
+      t.db.transaction((tx) => markStockUsed(tx, 12));
+      await new Promise((r) => setTimeout(r, 1100));
+      countStock(t.db, {}); // starts a retake
+      await new Promise((r) => setImmediate(r)); // one chunk read
+      t.db.transaction((tx) => markStockUsed(tx, 13)); // a write between two chunks
+      await new Promise((r) => setTimeout(r, 100)); // the partial retake is dropped, not installed
+      expect(stockSnapshotCurrent(t.db)).toBe(false);
+      await snapshotTaken();
+      expect(countStock(t.db, { used: 'used' })).toBe(exportStock(t.db, { used: 'used' }, 100_000).length);
+    } finally {
+      setSnapshotChunkRowsForTests(2_000);
+    }
   });
 });
