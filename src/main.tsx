@@ -1,3 +1,5 @@
+// zod without eval, before any schema is built (see the file)
+import './lib/zod-jitless';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './app/app';

@@ -2,6 +2,8 @@
 // turns the server-rendered puzzle page into a board: the page's data (no answer in it)
 // comes from the JSON block the server wrote. Loaded by server/areas/reader/pages.ts.
 import '@vitejs/plugin-react/preamble';
+// zod without eval, before any schema is built (our CSP has no 'unsafe-eval'; see the file)
+import '../lib/zod-jitless';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { PlayApp } from './play-app';
