@@ -7,8 +7,8 @@
 
 import type { PlaneGraph } from './types';
 
-export const MAX_GRAPH_VERTICES = 400;
-export const MAX_GRAPH_EDGES = 2001;
+export const MAX_GRAPH_VERTICES = 1000;
+export const MAX_GRAPH_EDGES = 2994;
 
 export interface Darts {
   /** dart d goes from tail[d] to head[d]; darts of vertex v are first[v] .. first[v+1]-1 in rotation order */

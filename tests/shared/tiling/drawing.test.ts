@@ -46,7 +46,7 @@ describe('planeGraphFromDrawing: straight-line drawings to rotation systems', ()
     expect(bad([{ x: 0, y: 0 }, { x: 1, y: 0 }], [[0, 1], [1, 0]])).toBe('bad-drawing');
     expect(bad([{ x: 0, y: 0 }, { x: 1, y: 0 }], [[0]])).toBe('bad-drawing');
     expect(bad(null, [])).toBe('bad-drawing');
-    expect(bad(Array.from({ length: 401 }, (_, i) => ({ x: i, y: 0 })), [])).toBe('too-large');
+    expect(bad(Array.from({ length: 1001 }, (_, i) => ({ x: i, y: 0 })), [])).toBe('too-large');
   });
 
   it('sorts neighbours by angle', () => {

@@ -77,3 +77,16 @@ export function isThreeConnected(g: PlaneGraph): boolean {
   }
   return true;
 }
+
+/**
+ * A compound tiling by composition: `copies` copies of t stacked (every other one mirrored
+ * left to right), W x copies*H; for large Kirchhoff systems whose sides stay small.
+ */
+export function stackedTiling(t: Tiling, copies: number): Tiling {
+  const squares: Tiling['squares'] = [];
+  for (let i = 0; i < copies; i++) {
+    for (const s of t.squares) squares.push({ x: i % 2 === 0 ? s.x : t.W - s.x - s.s, y: i * t.H + s.y, s: s.s });
+  }
+  squares.sort((a, b) => a.y - b.y || a.x - b.x);
+  return { W: t.W, H: copies * t.H, squares };
+}

@@ -206,9 +206,10 @@ describe('solvePlaneNetwork: rejections', () => {
   });
 
   it('too large graphs are refused before any work', () => {
-    expect(solvePlaneNetwork(wheel(500), { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'too-large' });
-    // 4 vertices listing 2 x 2,002 darts: 2,002 edges, over the limit of 2,001
-    const heavy: PlaneGraph = { n: 4, adj: [Array.from({ length: 2002 }, () => 1), Array.from({ length: 2002 }, () => 0), [], []] };
+    // a wheel with 1,000 rim vertices has 1,001 vertices, over the limit of 1,000
+    expect(solvePlaneNetwork(wheel(1000), { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'too-large', message: 'the graph has 1001 vertices; at most 1000 are accepted' });
+    // 4 vertices listing 2 x 2,995 darts: 2,995 edges, over the limit of 2,994 (= 3 x 1,000 - 6, Euler's bound for a simple plane graph)
+    const heavy: PlaneGraph = { n: 4, adj: [Array.from({ length: 2995 }, () => 1), Array.from({ length: 2995 }, () => 0), [], []] };
     expect(solvePlaneNetwork(heavy, { p: 0, q: 1 })).toMatchObject({ ok: false, code: 'too-large' });
   });
 
