@@ -141,7 +141,9 @@ export function AssemblyBoard({ play, placements, wrong, locked, selected, onSel
       }
       return;
     }
-    if (!putDown(held)) setHeld(null);
+    // the piece goes where the finger or pointer left it (the last move may not have been drawn yet)
+    const at = snapped(start.piece, u.x - held.offset.x, u.y - held.offset.y, u.unitsPerPx);
+    if (!putDown({ ...held, ...at })) setHeld(null);
   };
 
   const onBoardPointerUp = (e: ReactPointerEvent) => {
