@@ -46,4 +46,11 @@ describe('accepting an invitation', () => {
     expect(calls.find((c) => c.method === 'POST')?.body).toEqual({ name: 'Wren Halloway', password: 'long-enough-secret' });
     expect(await screen.findByRole('navigation', { name: 'Main' })).toBeTruthy();
   });
+
+  it('says a cut or mistyped link is not known without asking the server (no failed request in the console)', async () => {
+    const { calls } = stubFetch({ 'GET /api/me': noSession, 'GET /api/session': { body: { user: null } } });
+    renderApp('/invite/not-a-token');
+    expect(await screen.findByText('This invitation link is not known.')).toBeTruthy();
+    expect(calls.some((c) => c.path.startsWith('/api/invitations'))).toBe(false);
+  });
 });

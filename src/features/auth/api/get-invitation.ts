@@ -1,9 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { invitationLookupResponseSchema, type InvitationLookup } from '../../../../shared/contracts/auth';
-import { apiRequest } from '../../../lib/api-client';
+import { invitationLookupResponseSchema, invitationTokenParamSchema, type InvitationLookup } from '../../../../shared/contracts/auth';
+import { ApiError, apiRequest } from '../../../lib/api-client';
 
-/** GET /api/invitations/:token (public): who the invitation is for, and whether it can still be used. */
-export function getInvitation(token: string, signal?: AbortSignal): Promise<InvitationLookup> {
+/**
+ * GET /api/invitations/:token (public): who the invitation is for, and whether it can still be used.
+ * A link whose token cannot be one of ours (the route's own rule) is not asked about: the answer
+ * would be a 400, a failed request in the browser's console, for a link that was cut or mistyped.
+ */
+export async function getInvitation(token: string, signal?: AbortSignal): Promise<InvitationLookup> {
+  if (!invitationTokenParamSchema.safeParse({ token }).success) throw new ApiError(404, 'not_found', 'This invitation link is not known.');
   return apiRequest(`/api/invitations/${encodeURIComponent(token)}`, { schema: invitationLookupResponseSchema, signal });
 }
 

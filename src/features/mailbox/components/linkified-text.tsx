@@ -14,7 +14,7 @@ export function LinkifiedText({ text }: { text: string }) {
     const url = match[0].replace(/[.,;:!?]+$/, '');
     if (start > last) parts.push(text.slice(last, start));
     parts.push(
-      <a key={`${start}-${url}`} href={url} className="break-all">
+      <a key={`${start}-${url}`} href={url} className="break-all underline">
         {url}
       </a>,
     );
