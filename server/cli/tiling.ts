@@ -8,6 +8,7 @@ import { createReadStream, readFileSync, statSync } from 'node:fs';
 import { createInterface } from 'node:readline';
 import { z } from 'zod';
 import {
+  acceptCode,
   TilingInputError,
   canonicalCode,
   checkKirchhoff,
@@ -34,8 +35,9 @@ function errorText(e: unknown): string {
 /** The verdict for one code line, exactly the documented JSON object. */
 export function verifyLine(code: string, line: number): { ok: boolean; json: string } {
   try {
-    const t = parseTiling(code);
-    const c = classifyTiling(t);
+    // one decode for verification, classification and the canonical code (acceptCode)
+    const f = acceptCode(code);
+    const c = f.classification;
     const out = {
       line,
       ok: true,
@@ -45,8 +47,8 @@ export function verifyLine(code: string, line: number): { ok: boolean; json: str
       square: c.square,
       perfect: c.perfect,
       simple: c.simple,
-      canonical: canonicalCode(t),
-      spanningTrees: tilingSpanningTrees(t).toString(),
+      canonical: f.code,
+      spanningTrees: tilingSpanningTrees(f.tiling).toString(),
     };
     return { ok: true, json: JSON.stringify(out) };
   } catch (e) {

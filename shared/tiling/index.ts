@@ -34,3 +34,5 @@ export { analysePlaneGraph, dartArrays, dualOf, edgeCount, edgesOf, facesOf, spl
 export { randomCNet } from './random-network';
 export { mulberry32, randomInt, shuffled } from './prng';
 export { sparseSymmetricDeterminant } from './modular-determinant';
+export { acceptCode, tilingFacts } from './tiling-facts';
+export type { TilingFacts } from './tiling-facts';

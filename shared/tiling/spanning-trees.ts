@@ -1,17 +1,87 @@
 // Counting spanning trees exactly by the matrix-tree theorem (Kirchhoff 1847): tau(G) is any
-// cofactor of the Laplacian; evaluated with Bareiss' fraction-free elimination in BigInt.
+// cofactor of the Laplacian. When the product of the degrees (a proven bound on tau: each
+// spanning tree picks at most one edge per vertex but the root) is below two primes just
+// under 2^26, the determinant is taken modulo those primes in Numbers (every product below
+// 2^52) and put together by the Chinese remainder theorem; otherwise Bareiss' fraction-free
+// elimination in BigInt, or the sparse modular determinant for large graphs.
 
 import { bareissDeterminant } from './bareiss';
 import { sparseSymmetricDeterminant } from './modular-determinant';
+import { invmod, prime } from './sparse-elimination';
 
 /** Above this many rows the sparse modular determinant replaces dense Bareiss. */
 export const DENSE_LIMIT = 60;
 import { smithDiagram } from './smith-diagram';
 import type { Tiling } from './types';
 
+/** det of the k x k integer matrix m (row-major) modulo the prime p < 2^26, by elimination with row swaps. */
+function detMod(m: Float64Array, k: number, p: number): number {
+  const a = new Float64Array(k * k);
+  for (let i = 0; i < k * k; i++) a[i] = ((m[i]! % p) + p) % p;
+  let det = 1;
+  for (let c = 0; c < k; c++) {
+    let r = c;
+    while (r < k && a[r * k + c] === 0) r++;
+    if (r === k) return 0;
+    if (r !== c) {
+      for (let j = c; j < k; j++) {
+        const t = a[r * k + j]!;
+        a[r * k + j] = a[c * k + j]!;
+        a[c * k + j] = t;
+      }
+      det = p - det;
+    }
+    const pv = a[c * k + c]!;
+    det = (det * pv) % p;
+    const inv = invmod(pv, p);
+    for (let i = c + 1; i < k; i++) {
+      const f = (a[i * k + c]! * inv) % p;
+      if (f === 0) continue;
+      for (let j = c + 1; j < k; j++) {
+        const w = (a[i * k + j]! - ((f * a[c * k + j]!) % p)) % p;
+        a[i * k + j] = w < 0 ? w + p : w;
+      }
+    }
+  }
+  return det;
+}
+
+/** tau by two primes when the degree product proves it below their product, else null. */
+function smallTau(n: number, edges: readonly (readonly [number, number])[]): bigint | null {
+  const k = n - 1;
+  const m = new Float64Array(k * k);
+  const deg = new Float64Array(n);
+  for (const [u, v] of edges) {
+    if (u === v) continue;
+    deg[u]! += 1;
+    deg[v]! += 1;
+    if (u < k) m[u * k + u]! += 1;
+    if (v < k) m[v * k + v]! += 1;
+    if (u < k && v < k) {
+      m[u * k + v]! -= 1;
+      m[v * k + u]! -= 1;
+    }
+  }
+  let bound = 1;
+  for (let v = 0; v < k; v++) bound *= deg[v]!;
+  const p1 = prime(0);
+  const p2 = prime(1);
+  if (bound < p1) return BigInt(detMod(m, k, p1));
+  if (bound >= p1 * p2) return null;
+  // Garner: x = r1 + p1 * ((r2 - r1) / p1 mod p2), below p1 * p2 < 2^52
+  const r1 = detMod(m, k, p1);
+  const r2 = detMod(m, k, p2);
+  const t = ((((r2 - r1) % p2) + p2) % p2) * invmod(p1 % p2, p2) % p2;
+  return BigInt(r1 + p1 * t);
+}
+
 /** tau of a multigraph on vertices 0..n-1 (parallel edges count separately; loops ignored). */
 export function countSpanningTrees(n: number, edges: readonly (readonly [number, number])[]): bigint {
   if (n <= 1) return 1n;
+  if (n - 1 <= DENSE_LIMIT) {
+    const small = smallTau(n, edges);
+    if (small !== null) return small;
+  }
   if (n - 1 > DENSE_LIMIT) {
     const diag: number[] = Array.from({ length: n - 1 }, () => 0);
     const pairs = new Map<number, number>();
