@@ -83,7 +83,8 @@ describe('payouts in the browser', () => {
     expect(draft.state).toBe('draft');
     const slots = [...draft.slots.map((s) => ({ puzzleId: s.puzzleId, instructions: s.instructions })), { puzzleId: String(made.id) }];
     await json(editor.request, 'PATCH', `/api/editions/${id}`, { slots });
-    const sent = editionSchema.parse(await json(editor.request, 'POST', `/api/editions/${id}/proofs`));
+    // the demo's half-scale Assembly pieces are under the column's 3 mm floor: sent with a reason, as the demo desk does
+    const sent = editionSchema.parse(await json(editor.request, 'POST', `/api/editions/${id}/proofs`, { override: { reason: 'Test: the small pieces are cut from card.' } }));
     expect(sent.state).toBe('in_proof');
     const version = sent.proofs.at(-1)!.version;
     expect(version).toBe(v1.version + 1);
@@ -115,12 +116,14 @@ describe('payouts in the browser', () => {
     await printer.getByRole('link', { name: 'The Saturday Quadrant No. 41' }).click();
     await printer.getByRole('heading', { name: `Proof v${version}` }).waitFor();
     await printer.getByRole('button', { name: 'Approve for press' }).click();
+    await printer.getByRole('dialog', { name: `Approve proof v${version} for press?` }).getByRole('button', { name: `Approve proof v${version}` }).click();
     await printer.getByText(/^Approved\./).waitFor({ timeout: 30_000 });
 
     // 3. The editor marks it published in the browser.
     await editor.goto(`/editions/${id}`);
     await editor.getByRole('heading', { name: 'The Saturday Quadrant No. 41', level: 1 }).waitFor({ timeout: 60_000 });
     await editor.getByRole('button', { name: 'Mark published' }).click();
+    await editor.getByRole('dialog', { name: 'Publish No. 41?' }).getByRole('button', { name: 'Publish No. 41' }).click();
     await expect.poll(async () => (await edition(editor.request, id)).state, { timeout: 15_000 }).toBe('published');
     await editor.getByRole('button', { name: 'Mark published' }).waitFor({ state: 'detached' });
     await screenshot(editor, 'edition-published');
