@@ -64,7 +64,8 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
         }
       };
       await write(head(total));
-      for (const batch of exportBatches(deps.db, filter, limit)) {
+      // 500 rows a turn of the event loop: a few ms of the request thread each
+      for (const batch of exportBatches(deps.db, filter, limit, 500)) {
         if (gone) return;
         await write(rows(batch));
         await new Promise<void>((r) => setImmediate(r));
