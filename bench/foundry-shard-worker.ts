@@ -6,7 +6,5 @@ import { exhaustiveTilings } from '../shared/foundry/index';
 
 const { order, squaresOnly, index, count } = workerData as { order: number; squaresOnly: boolean; index: number; count: number };
 const squares: string[] = [];
-const c0 = process.cpuUsage();
 const s = exhaustiveTilings({ order, squaresOnly, shard: { index, count }, onFound: (t) => { if (t.perfect && t.square) squares.push(t.code); } });
-const c = process.cpuUsage(c0);
-parentPort!.postMessage({ summary: s, squares, cpuMs: (c.user + c.system) / 1000 });
+parentPort!.postMessage({ summary: s, squares });

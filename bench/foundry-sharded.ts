@@ -15,17 +15,18 @@ export interface ShardedRun {
   /** canonical codes of the simple perfect squared squares found */
   squareCodes: string[];
   wallMs: number;
-  /** CPU time summed over the shards */
+  /** CPU time of this process over the run (every thread: process.cpuUsage counts them all) */
   cpuMs: number;
   threads: number;
 }
 
 export async function shardedRun(order: number, squaresOnly: boolean, threads = availableParallelism()): Promise<ShardedRun> {
   const w0 = performance.now();
+  const c0 = process.cpuUsage();
   const url = new URL('./foundry-shard-worker.ts', import.meta.url);
   const parts = await Promise.all(
     Array.from({ length: threads }, (_, index) =>
-      new Promise<{ summary: ExhaustiveSummary; squares: string[]; cpuMs: number }>((resolve, reject) => {
+      new Promise<{ summary: ExhaustiveSummary; squares: string[] }>((resolve, reject) => {
         const w = new Worker(sourceBootstrap(url), { workerData: { order, squaresOnly, index, count: threads } });
         w.once('message', resolve);
         w.once('error', reject);
@@ -42,7 +43,7 @@ export async function shardedRun(order: number, squaresOnly: boolean, threads = 
     squares: sum((s) => s.squares),
     squareCodes: parts.flatMap((p) => p.squares).sort(),
     wallMs: performance.now() - w0,
-    cpuMs: parts.reduce((a, p) => a + p.cpuMs, 0),
+    cpuMs: ((c) => (c.user + c.system) / 1000)(process.cpuUsage(c0)),
     threads,
   };
 }

@@ -62,7 +62,7 @@ function sharded(order: number, squares: boolean, targetS: number): ShardedRun {
   if (!met) failures++;
   console.log(
     `foundry: order ${order}${squares ? ' squares only' : ''} on ${r.threads} worker threads: ${s.toFixed(1)} s wall (target < ${targetS} s: ${met ? 'met' : 'MISSED'}), ` +
-      `${(r.cpuMs / 1000).toFixed(1)} s CPU over the shards; load average ${before} before, ${load()} after`,
+      `${(r.cpuMs / 1000).toFixed(1)} s CPU (the process, all threads); load average ${before} before, ${load()} after`,
   );
   return r;
 }
