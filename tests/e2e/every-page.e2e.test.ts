@@ -13,6 +13,9 @@ const detailPatterns = [/^\/stock\/\d+$/, /^\/puzzles\/\d+$/, /^\/editions\/[^/]
 
 type Finding = { path: string; what: string };
 
+/** Pages reached by a tab rather than a link of the navigation. */
+const extraPaths: Partial<Record<DemoRole, string[]>> = { setter: ['/submit?tab=upload', '/submit?tab=sketch'] };
+
 async function check(page: Page, path: string, findings: Finding[]) {
   await page.goto(path);
   await page.waitForLoadState('networkidle').catch(() => undefined);
@@ -40,7 +43,7 @@ describe('every page: no serious accessibility finding and no console error', ()
       const findings: Finding[] = [];
       const seen: string[] = [];
       const details = new Map<RegExp, string>();
-      for (const path of ['/', ...new Set(hrefs)]) {
+      for (const path of ['/', ...new Set(hrefs), ...(extraPaths[role] ?? [])]) {
         await check(page, path, findings);
         seen.push(path);
         const links = await page.locator('main a[href^="/"]').evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).pathname));
