@@ -188,6 +188,22 @@ for (const squares of [10, 20, 40, 80, 160]) {
       `mathjs ${fmt(them)} us [wall ${fmt(1e6 / theirs.wallPerSec)}]; ${(them / us).toFixed(0)}x (target 50x: ${verdict(them / us >= 50)})`,
   );
 }
+// accepting codes as the tilings grow: the same sizes, codes of the solved tilings
+{
+  const accUs: number[] = [];
+  const readUs: number[] = [];
+  const rows: string[] = [];
+  for (const squares of sizes) {
+    const tilings = squares <= 40 ? (nets[squares] ?? corpus(squares, 60, 2000 + squares).nets).slice(0, 60).flatMap((n) => { const r = solvePlaneNetwork(n.g, n); return r.ok ? [r.tiling] : []; }) : base20.map((t) => stackedTiling(t, squares / 20));
+    const codes = tilings.map((t) => toBouwkamp(t));
+    const acc = 1e6 / rate(codes, (c) => acceptCode(c), 200).perSec;
+    const rd = 1e6 / rate(codes, readNumbers, 100).perSec;
+    accUs.push(acc);
+    readUs.push(rd);
+    rows.push(`${squares}: ${acc.toFixed(1)} us (${(acc / rd).toFixed(1)}x reading)`);
+  }
+  console.log(`  accepting a code by size: ${rows.join('; ')}; growth exponent ${exponent(sizes, accUs).toFixed(2)} (reading ${exponent(sizes, readUs).toFixed(2)})`);
+}
 const eo = exponent(sizes, oursUs);
 const em = exponent(sizes, theirsUs);
 console.log(`  growth exponent 10..160 squares: ours ${eo.toFixed(2)}, mathjs ${em.toFixed(2)} (target: no worse than mathjs: ${verdict(eo <= em)})`);
