@@ -11,7 +11,7 @@ import { invmod, prime } from './sparse-elimination';
 
 /** Above this many rows the sparse modular determinant replaces dense Bareiss. */
 export const DENSE_LIMIT = 60;
-import { smithDiagram } from './smith-diagram';
+import { maximalSegments } from './segments';
 import type { Tiling } from './types';
 
 /** det of the k x k integer matrix m (row-major) modulo the prime p < 2^26, by elimination with row swaps. */
@@ -38,7 +38,7 @@ function detMod(m: Float64Array, k: number, p: number): number {
       const f = (a[i * k + c]! * inv) % p;
       if (f === 0) continue;
       for (let j = c + 1; j < k; j++) {
-        const w = (a[i * k + j]! - ((f * a[c * k + j]!) % p)) % p;
+        const w = a[i * k + j]! - ((f * a[c * k + j]!) % p); // both terms in [0, p)
         a[i * k + j] = w < 0 ? w + p : w;
       }
     }
@@ -110,10 +110,18 @@ export function countSpanningTrees(n: number, edges: readonly (readonly [number,
   return bareissDeterminant(L);
 }
 
-/** tau of the tiling's c-net: the horizontal Smith diagram plus the pole edge. */
+/** tau of the tiling's c-net: the horizontal Smith diagram plus the pole edge (built from the segments alone). */
 export function tilingSpanningTrees(t: Tiling): bigint {
-  const d = smithDiagram(t, 'horizontal');
-  const edges: [number, number][] = d.edges.map((e) => [e.from, e.to]);
-  edges.push([d.pole.from, d.pole.to]);
-  return countSpanningTrees(d.nodes.length, edges);
+  const seg = maximalSegments(t, false);
+  const count = seg.at.length;
+  let top = -1;
+  let bottom = -1;
+  for (let v = 0; v < count; v++) {
+    const at = seg.at[v]!;
+    if (at === 0 && top < 0) top = v;
+    else if (at === t.H && bottom < 0) bottom = v;
+  }
+  const edges: [number, number][] = t.squares.map((_, i) => [seg.before[i]!, seg.after[i]!]);
+  edges.push([top, bottom]);
+  return countSpanningTrees(count, edges);
 }
