@@ -15,9 +15,13 @@ import { maximalSegments } from './segments';
 import type { Tiling } from './types';
 
 /** det of the k x k integer matrix m (row-major) modulo the prime p < 2^26, by elimination with row swaps. */
-function detMod(m: Float64Array, k: number, p: number): number {
-  const a = new Float64Array(k * k);
-  for (let i = 0; i < k * k; i++) a[i] = ((m[i]! % p) + p) % p;
+function detMod(m: Float64Array, k: number, p: number, inPlace: boolean): number {
+  // entries are Laplacian entries, |x| < p: one conditional add brings them into [0, p)
+  const a = inPlace ? m : new Float64Array(k * k);
+  for (let i = 0; i < k * k; i++) {
+    const x = m[i]!;
+    a[i] = x < 0 ? x + p : x;
+  }
   let det = 1;
   for (let c = 0; c < k; c++) {
     let r = c;
@@ -66,11 +70,11 @@ function smallTau(n: number, edges: readonly (readonly [number, number])[]): big
   for (let v = 0; v < k; v++) bound *= deg[v]!;
   const p1 = prime(0);
   const p2 = prime(1);
-  if (bound < p1) return BigInt(detMod(m, k, p1));
+  if (bound < p1) return BigInt(detMod(m, k, p1, true));
   if (bound >= p1 * p2) return null;
   // Garner: x = r1 + p1 * ((r2 - r1) / p1 mod p2), below p1 * p2 < 2^52
-  const r1 = detMod(m, k, p1);
-  const r2 = detMod(m, k, p2);
+  const r1 = detMod(m, k, p1, false);
+  const r2 = detMod(m, k, p2, true);
   const t = ((((r2 - r1) % p2) + p2) % p2) * invmod(p1 % p2, p2) % p2;
   return BigInt(r1 + p1 * t);
 }
