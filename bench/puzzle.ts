@@ -164,6 +164,31 @@ for (const order of [21, 22, 23, 24, 25]) {
   console.log(`  order ${order}: ${[...verdicts].map(([v, c]) => `${c} ${v}`).join(', ')}; median ${fmt(median(ms))} ms, max ${fmt(Math.max(...ms))} ms; sides up to ${maxSide}; DLX: ${d && 'tooLarge' in d ? `cannot hold them (first set: ${d.tooLarge.toLocaleString('en')} entries)` : 'ran'}`);
 }
 
+// Assembly as the sets grow: seeded random simple perfect sets of orders 10 to 30 (frames up to
+// 10^6, the Assembly limit; random sets of higher orders exceed it), median CPU time of up to 4
+// per order and the growth exponent (least squares on log-log); the general reference
+// (dancing-links) cannot hold sets past order 10, so only ours is fitted.
+{
+  const orders = [10, 15, 20, 25, 30];
+  const med: number[] = [];
+  const rows: string[] = [];
+  for (const order of orders) {
+    const found: Tiling[] = [];
+    randomTilings({ count: 12, orderMin: order, orderMax: order, seed: 90 + order, onFound: (f) => found.push(f.tiling) });
+    const ms = found.filter((t) => t.W <= 1e6 && t.H <= 1e6).slice(0, 4).map((t) => time(() => solveAssembly({ width: t.W, height: t.H, pieces: sizes(t) }, { budget: { maxMs: 10_000 } })).ms);
+    med.push(Math.max(median(ms), 0.01));
+    rows.push(`${order}: ${fmt(median(ms))} ms`);
+  }
+  const lx = orders.map(Math.log);
+  const ly = med.map(Math.log);
+  const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
+  const my = ly.reduce((a, b) => a + b, 0) / ly.length;
+  let num = 0;
+  let den = 0;
+  lx.forEach((x, i) => { num += (x - mx) * (ly[i]! - my); den += (x - mx) ** 2; });
+  console.log(`puzzle: Assembly by order (median CPU of 4 seeded random sets): ${rows.join('; ')}; growth exponent ${(num / den).toFixed(2)}`);
+}
+
 console.log('puzzle: Deduction, fewest givens (16 seeded restarts + bounded exact search) on the order-25 random sets');
 for (const [level, showFrame] of [[2, false], [3, false], [4, false], [Number.POSITIVE_INFINITY, false], [Number.POSITIVE_INFINITY, true]] as const) {
   const ms: number[] = [];
