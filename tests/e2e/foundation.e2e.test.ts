@@ -9,12 +9,12 @@ import { baseUrl, demoAccount, navLabels, screenshot, signIn, submitSignInForAns
 // from the link in the mail the local fake SMTP server caught.
 // Expected navigation: docs screens.md / issue 2 (the product's own specification).
 
-const editorNav = ['Home', 'Review queue', 'Stock', 'Puzzles', 'Editions', 'Foundry', 'Payouts'];
+const editorNav = ['Home', 'Review queue', 'Stock', 'Puzzles', 'Editions', 'Foundry', 'Payouts', 'Readers', 'API keys'];
 const expectedNav: Record<DemoRole, string[]> = {
   setter: ['Home', 'Submit', 'My submissions', 'Earnings'],
   editor: editorNav,
   printer: ['Proofs', 'Press files'],
-  admin: [...editorNav, 'Users', 'Publications', 'Templates', 'Mailbox (local)'],
+  admin: [...editorNav, 'Users', 'Publications', 'Reader edition', 'Templates', 'Webhooks', 'Mailbox (local)'],
 };
 
 /** Tab to each field (focus visibly outlined), type, Enter; then Tab reaches the skip link first. */
@@ -94,7 +94,9 @@ describe('foundation in the browser', () => {
     const alert = page.getByRole('alert');
     await alert.waitFor();
     expect(await alert.innerText()).toMatch(/sign-in failed/i);
-    expect(await alert.innerText()).toMatch(/invalid|incorrect|wrong/i);
+    // our words (server/platform/http/auth-words.ts), never the sign-in library's
+    expect(await alert.innerText()).toContain('The e-mail address or the password is not right.');
+    expect(await alert.innerText()).not.toMatch(/invalid email or password/i);
     expect(new URL(page.url()).pathname).toBe('/sign-in');
     const me = await page.request.get('/api/me');
     expect(me.status()).toBe(401);
