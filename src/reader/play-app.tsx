@@ -113,7 +113,9 @@ export function PlayApp({ data }: { data: PageData }) {
         const r = await revealEntries(api, all ? { all: true, placements: p.placements } : { piece, placements: p.placements });
         if (!('placements' in r)) throw new Error('The server answered with sizes for an Assembly.');
         const shown = r.placements.filter((q) => !starters.has(q.piece));
-        count = shown.length;
+        // only what the reader did not have right counts as revealed
+        const had = (q: Placement) => p.placements.some((x) => x.piece === q.piece && x.x === q.x && x.y === q.y);
+        count = shown.filter((q) => !had(q)).length;
         update((q) => {
           // a revealed piece takes its place; any piece in the way goes back to the tray
           let placements = q.placements.filter((x) => !shown.some((y) => y.piece === x.piece));
@@ -125,7 +127,7 @@ export function PlayApp({ data }: { data: PageData }) {
             });
             placements.push(y);
           }
-          return { ...q, started: true, placements, revealed: q.revealed + shown.length };
+          return { ...q, started: true, placements, revealed: q.revealed + count };
         });
       } else {
         const givens = new Set(play.givens.map((g) => g.square));
@@ -137,8 +139,8 @@ export function PlayApp({ data }: { data: PageData }) {
         const r = await revealEntries(api, all ? { all: true } : { square });
         if (!('entries' in r)) throw new Error('The server answered with places for a Deduction.');
         const shown = r.entries.filter((e) => !givens.has(e.square));
-        count = shown.length;
-        update((q) => ({ ...q, started: true, entries: [...q.entries.filter((e) => !shown.some((x) => x.square === e.square)), ...shown], revealed: q.revealed + shown.length }));
+        count = shown.filter((e) => !p.entries.some((x) => x.square === e.square && x.size === e.size)).length;
+        update((q) => ({ ...q, started: true, entries: [...q.entries.filter((e) => !shown.some((x) => x.square === e.square)), ...shown], revealed: q.revealed + count }));
       }
       setWrong(new Set());
       event('revealed', count);
