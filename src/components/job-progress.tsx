@@ -19,6 +19,8 @@ const n = (x: number) => Math.round(x).toLocaleString('en-GB');
 export function jobProgressDetail(state: JobStateView, p: JobProgressView | null): string {
   if (!p) return state === 'queued' ? 'waiting for a free worker' : '';
   const running = state === 'running';
+  // a finished job says what it left behind, not the phase it was last in
+  if (state === 'done' && p.phase === STORING) return `${n(p.stored ?? p.done)} stored`;
   const parts = [`${n(p.done)}${p.total !== undefined ? ` of ${n(p.total)}` : ''} ${p.phase ?? ''}`.trim()];
   if (running && p.rate !== undefined) parts.push(`${p.rate.toLocaleString('en-GB')} /s`);
   if (running && p.etaMs !== undefined) parts.push(`${formatDuration(p.etaMs)} left`);

@@ -31,7 +31,7 @@ describe('the foundry page', () => {
     renderApp('/foundry');
     const bar = await screen.findByRole('progressbar', { name: 'Exhaustive, order 16' }, { timeout: 10_000 }); // the page is a lazy route
     expect(bar.getAttribute('aria-valuenow')).toBe(String(Math.round((412 / 1342) * 100)));
-    expect(bar.getAttribute('aria-valuetext')).toMatch(/412 of 1,342 graphs solved · 310.5 \/s · 3 s left · 2,500 perfect and 200 imperfect found/);
+    expect(bar.getAttribute('aria-valuetext')).toMatch(/412 of 1,342 graphs solved · 310.5 \/s · 3 s left · 2,700 tilings found: 2,500 perfect and 200 imperfect/);
     const row = screen.getByRole('row', { name: `Run ${running.id}` });
     await userEvent.click(within(row).getByRole('button', { name: 'Cancel' }));
     await expect.poll(() => calls.some((c) => c.method === 'POST' && c.path.endsWith('/cancel'))).toBe(true);

@@ -11,10 +11,11 @@ export function describeRun(run: Run): string {
   return 'Joining';
 }
 
-/** "2,609 perfect and 283 imperfect found": the split the run page and the list show. */
+/** "2,892 tilings found: 2,609 perfect and 283 imperfect": the split the run page and the list show. */
 export function foundText(run: Pick<Run, 'found' | 'foundPerfect' | 'foundImperfect'>): string {
   if (run.found === 0) return 'no tilings found yet';
-  return `${run.foundPerfect.toLocaleString('en-GB')} perfect and ${run.foundImperfect.toLocaleString('en-GB')} imperfect found`;
+  const n = (x: number) => x.toLocaleString('en-GB');
+  return `${n(run.found)} ${run.found === 1 ? 'tiling' : 'tilings'} found: ${n(run.foundPerfect)} perfect and ${n(run.foundImperfect)} imperfect`;
 }
 
 export function RunProgress({ run }: { run: Run }) {
