@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { ErrorAlert } from '../../../components/alert';
 import { Loading } from '../../../components/page';
@@ -10,9 +11,10 @@ const WEEK_MS = 7 * 86_400_000;
 /** Editor Home card: foundry runs finished in the last seven days and what they added to the stock. */
 export function FinishedRunsCard() {
   const runs = useRuns();
+  // the week is counted from when the card was first drawn (a render reads no clock)
+  const [since] = useState(() => Date.now() - WEEK_MS);
   if (runs.isPending) return <Loading />;
   if (runs.error) return <ErrorAlert error={runs.error} />;
-  const since = Date.now() - WEEK_MS;
   const done = runs.data.filter((r) => r.state === 'done' && r.finishedAt !== null && Date.parse(r.finishedAt) >= since);
   const added = done.reduce((n, r) => n + r.addedToStock, 0);
   return (
