@@ -127,7 +127,7 @@ describe('integrations in the browser', () => {
       expect(JSON.parse(again.body)).toMatchObject({ id: detailBefore.eventId, type: newest.eventType });
       const detailAfter = webhookDeliveryDetailSchema.parse(await (await page.request.get(`/api/webhooks/deliveries/${newest.id}`)).json());
       expect(detailAfter.history.length).toBe(detailBefore.history.length + 1);
-      await expect.poll(() => drawer.getByRole('table', { name: 'Attempts', exact: true }).getByRole('row').count()).toBe(detailAfter.history.length + 1);
+      await expect.poll(() => drawer.getByRole('table', { name: 'Attempts', exact: true }).getByRole('row').count(), { timeout: 30_000 }).toBe(detailAfter.history.length + 1);
       await screenshot(page, 'webhooks-delivery-drawer');
       await page.keyboard.press('Escape');
       await drawer.waitFor({ state: 'hidden' });

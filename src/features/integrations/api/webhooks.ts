@@ -82,8 +82,9 @@ export async function getDelivery(id: string, signal?: AbortSignal) {
 }
 export const deliveryQueryOptions = (id: string) => queryOptions({ queryKey: webhooksKeys.delivery(id), queryFn: ({ signal }) => getDelivery(id, signal) });
 
+/** While the drawer is open it reads again every 3 s: a "Send again now" is answered before its attempt is made. */
 export function useDelivery(id: string | null) {
-  return useQuery({ ...deliveryQueryOptions(id ?? ''), enabled: id !== null });
+  return useQuery({ ...deliveryQueryOptions(id ?? ''), enabled: id !== null, refetchInterval: 3_000 });
 }
 
 /** POST /api/webhooks/deliveries/:id/resend (admin). */
