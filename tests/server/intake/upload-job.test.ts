@@ -33,7 +33,10 @@ async function until(test: () => boolean, what: string, timeoutMs = 60_000) {
 describe('an upload as a job', () => {
   it('answers at once (202) with the job; progress counts lines checked of all; the report comes when it is done', async () => {
     const setter = await t.signInAs('setter');
-    const res = await setter.post('/api/submissions/upload').attach('file', longFile(40), 'long.txt').expect(202);
+    // 240 lines of ~5 ms each: longer than the worker's 250 ms between progress messages, so a
+    // poll can see it midway even on a fast machine (40 lines once finished before the first one)
+    const LINES = 240;
+    const res = await setter.post('/api/submissions/upload').attach('file', longFile(LINES), 'long.txt').expect(202);
     const started = uploadJobSchema.parse(res.body);
     expect(['queued', 'running']).toContain(started.state);
     expect(started.report).toBeNull();
@@ -41,17 +44,17 @@ describe('an upload as a job', () => {
     let midway = null as null | ReturnType<typeof uploadJobSchema.parse>;
     for (let i = 0; i < 600 && !midway; i++) {
       const u = uploadJobSchema.parse((await setter.get(`/api/submissions/uploads/${started.id}`).expect(200)).body);
-      if (u.state === 'running' && u.progress?.phase === 'lines checked' && u.progress.done > 0 && u.progress.done < 40) midway = u;
+      if (u.state === 'running' && u.progress?.phase === 'lines checked' && u.progress.done > 0 && u.progress.done < LINES) midway = u;
       if (u.state === 'done') break;
       await new Promise((r) => setTimeout(r, 25));
     }
     expect(midway).not.toBeNull();
-    expect(midway!.progress!.total).toBe(40);
+    expect(midway!.progress!.total).toBe(LINES);
     expect(midway!.report).toBeNull();
     const done = await followUpload(setter, started.id);
     expect(done.state).toBe('done');
-    expect(done.report!.summary).toEqual({ valid: 40, invalid: 0, duplicate: 0, created: 40 });
-    expect(done.summary.lines).toBe(40);
+    expect(done.report!.summary).toEqual({ valid: LINES, invalid: 0, duplicate: 0, created: LINES });
+    expect(done.summary.lines).toBe(LINES);
   });
 
   it('cancel stops it: the lines stored so far stay (the report lists them), nothing more is stored', async () => {
