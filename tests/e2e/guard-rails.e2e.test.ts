@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { editionSchema, publishCheckSchema } from '../../shared/contracts/editions';
-import { puzzleDetailSchema, puzzleListSchema } from '../../shared/contracts/puzzles';
+import { puzzleDetailSchema } from '../../shared/contracts/puzzles';
 import { verifyTiling } from '../../shared/tiling/index';
 import { baseUrl, screenshot, signIn, useBrowser } from './helpers/browser';
 
@@ -83,10 +83,20 @@ describe('guard rails in the browser', () => {
     const edition = editionSchema.parse((await call(editor, 'GET', `/api/editions/${editionId}`)).body);
     expect(edition).toMatchObject({ number: NUMBER, state: 'draft', slots: [] });
 
-    // a printable Deduction puzzle of the demo (proved unique, certificate current)
-    const puzzles = puzzleListSchema.parse((await call(editor, 'GET', '/api/puzzles?kind=deduction&printable=true&pageSize=50')).body);
-    expect(puzzles.items.length).toBeGreaterThan(0);
-    deductionId = puzzles.items[0]!.id;
+    // a printable Deduction puzzle of its own (proved unique, certificate current), made through
+    // the API from an unused stock tiling: other e2e files (print.e2e) put the demo's and their
+    // own newest puzzles into Squared Away Monthly editions, and a puzzle or tiling printed there
+    // again fails 'solution printed once' and the reuse window, as it should. The first unused
+    // tilings are left to the files that take them through the stock page.
+    const unused = (await call(editor, 'GET', '/api/stock?used=unused&perfect=true&sort=order&pageSize=50')).body as { items: { id: number }[] };
+    expect(unused.items.length).toBeGreaterThan(12);
+    const made = (await call(editor, 'POST', '/api/puzzles', { stockId: unused.items[12]!.id, kind: 'deduction' })).body as { id: number };
+    expect(Number.isInteger(made.id)).toBe(true);
+    await expect
+      .poll(async () => puzzleDetailSchema.parse((await call(editor, 'GET', `/api/puzzles/${made.id}`)).body).status, { timeout: 90_000, interval: 500 })
+      .not.toBe('proving');
+    expect(puzzleDetailSchema.parse((await call(editor, 'GET', `/api/puzzles/${made.id}`)).body)).toMatchObject({ kind: 'deduction', status: 'unique', certificateCurrent: true, usedIn: [] });
+    deductionId = made.id;
 
     await editor.goto(`/editions/${editionId}`);
     await editor.getByRole('heading', { name: `Squared Away Monthly No. ${NUMBER}`, level: 1 }).waitFor();
