@@ -9,7 +9,8 @@
 // - 100,000 CSV rows are exported (the whole stock, twice in a row).
 // Prints p50/p95/p99/max per route and case, the server's CPU time per request (all its
 // threads) and its main thread's busy time per request. Target under the heavy work: p95 < 50 ms,
-// p99 < 100 ms, max < 250 ms. BENCH_QUICK=1: 5,000 tilings and 10 s per case.
+// p99 < 100 ms, max < 250 ms. BENCH_QUICK=1: 5,000 tilings and 10 s per case. BENCH_SERVER_PROF=<dir>
+// writes the server's CPU profiles (V8 .cpuprofile, one a thread) into <dir>.
 import { fork, type ChildProcess } from 'node:child_process';
 import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
@@ -99,7 +100,12 @@ async function signIn(base: string, email: string): Promise<string> {
 const f1 = (x: number) => (Number.isFinite(x) ? x.toFixed(1) : '–');
 
 async function main() {
-  const child = fork(fileURLToPath(new URL('./load-server.ts', import.meta.url)), [], { env: { ...process.env, BENCH_STOCK: String(STOCK) }, stdio: ['ignore', 'inherit', 'inherit', 'ipc'] });
+  const child = fork(fileURLToPath(new URL('./load-server.ts', import.meta.url)), [], {
+    env: { ...process.env, BENCH_STOCK: String(STOCK) },
+    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+    // BENCH_SERVER_PROF=<dir>: the server's V8 CPU profiles (one a thread) are written there
+    ...(process.env.BENCH_SERVER_PROF ? { execArgv: [...process.execArgv, '--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_SERVER_PROF}`] } : {}),
+  });
   const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
   const ready = await Promise.race([ask<Msg & { port: number; seeded: number; seedMs: number; mode: string }>(child, { type: 'hello' }, 'ready'), exited.then((c) => { throw new Error(`load bench: the server exited (${c}) before it was ready`); })]);
   const base = `http://127.0.0.1:${ready.port}`;

@@ -119,7 +119,7 @@ export function prepared(client: Sqlite, text: string): Statement {
   return st;
 }
 
-/** Bumped by every write of the stock service (the snapshot and the list's page cache follow it). */
+/** Bumped by every write of the stock service (the list's page cache follows it). */
 let generation = 0;
 export const stockGeneration = () => generation;
 export function noteStockWrite(): void {
@@ -129,16 +129,23 @@ export function noteStockWrite(): void {
 /**
  * Totals come from a snapshot of the filter columns in typed arrays (about 1.2 MB for 50,000
  * tilings), counted in a loop: SQLite needs 5-10 ms to count a filter through an index at that
- * size, the loop well under 1 ms. The snapshot is used only while nothing was written to the
- * database since it was taken (this area's writes, SQLite's total_changes() on this connection
- * and data_version for other connections), so totals are always exact. Reading all rows at once
- * took ~100 ms at 50,000, a stall for every request behind it, so a snapshot is (re)taken in
- * chunks of 2,000 rows by rowid, one chunk per turn of the event loop (a few ms
- * each); a write between two chunks discards the partial one. A retake starts once the database
- * has not changed for SNAPSHOT_MIN_AGE_MS (at once for the first); meanwhile SQLite counts, in
- * the narrowest index.
+ * size, the loop well under 1 ms. Stock rows are only ever added, or changed in place (use
+ * count, reduced key); never deleted. So the snapshot holds the rows up to its last rowid and
+ * stays good while no row is changed: rows added since are counted by SQLite over the rowid
+ * range after it (a short range scan), so totals are always exact, also while a foundry run
+ * stores thousands of tilings (issue 14: before, any write to the database sent every count to
+ * SQLite until a second had passed without one). A change in place is seen by temporary
+ * triggers of this connection on the stock table (a counter in the connection's temp schema,
+ * rolled back with its transaction), a write of another connection by data_version. Reading
+ * all rows at once took ~100 ms at 50,000, a stall for every request behind it, so a snapshot
+ * is (re)taken in chunks of 2,000 rows by rowid, one chunk per turn of the event loop (a few ms
+ * each); a change between two chunks discards the partial one. A retake starts once nothing has
+ * been changed for SNAPSHOT_MIN_AGE_MS (at once for the first; meanwhile SQLite counts, in the
+ * narrowest index), or when RETAKE_AFTER_ADDED rows were added since the last one (meanwhile the
+ * snapshot in hand and the added range count).
  */
 const SNAPSHOT_MIN_AGE_MS = 1_000;
+const RETAKE_AFTER_ADDED = 5_000;
 let snapshotChunkRows = 2_000;
 /** Tests: smaller chunks, so a few hundred rows take several turns. */
 export function setSnapshotChunkRowsForTests(n: number): void {
@@ -155,20 +162,40 @@ interface FilterSnapshot {
   flags: Int32Array;
   /** what the database looked like when the snapshot was taken */
   stamp: string;
+  /** the last rowid it holds (rows after it are counted by SQLite) */
+  lastRowid: number;
   at: number;
 }
 const snapshots = new WeakMap<Sqlite, FilterSnapshot>();
 const flagBit = new Map(columnNames.filter((c) => columnDef(c).kind === 'bool').map((c, k) => [c, 1 << k]));
 
-function databaseStamp(client: Sqlite): string {
-  const changes = prepared(client, 'select total_changes()').pluck().get() as number;
-  const version = client.pragma('data_version', { simple: true }) as number;
-  return `${generation}:${changes}:${version}`;
+/** Temporary triggers (this connection only) that count changes in place of stock rows. */
+const watched = new WeakSet<Sqlite>();
+function watchRewrites(client: Sqlite): void {
+  if (watched.has(client)) return;
+  client.exec(
+    'create temp table if not exists stock_rewrites (n integer not null);' +
+      'insert into stock_rewrites (n) select 0 where not exists (select 1 from stock_rewrites);' +
+      'create temp trigger if not exists stock_rewrite_update after update on main.stock begin update stock_rewrites set n = n + 1; end;' +
+      'create temp trigger if not exists stock_rewrite_delete after delete on main.stock begin update stock_rewrites set n = n + 1; end;',
+  );
+  watched.add(client);
 }
+
+/** Changes in place on this connection (triggers) and writes of other connections (data_version); not rows added here. */
+function databaseStamp(client: Sqlite): string {
+  watchRewrites(client);
+  const rewrites = prepared(client, 'select n from temp.stock_rewrites').pluck().get() as number;
+  const version = client.pragma('data_version', { simple: true }) as number;
+  return `${rewrites}:${version}`;
+}
+
+const lastRowidOf = (client: Sqlite) => (prepared(client, 'select max(rowid) from stock').pluck().get() as number | null) ?? 0;
 
 type SnapshotRow = (number | string | null)[];
 interface Retake {
   stamp: string;
+  /** the last rowid read so far */
   after: number;
   rows: SnapshotRow[];
 }
@@ -182,7 +209,11 @@ function filterSnapshot(client: Sqlite): FilterSnapshot | null {
   const now = Date.now();
   const stamp = databaseStamp(client);
   const hit = snapshots.get(client);
-  if (hit && hit.stamp === stamp) return hit;
+  if (hit && hit.stamp === stamp) {
+    // many rows added since it was taken: take a new one, answering from this one meanwhile
+    if (!retakes.has(client) && lastRowidOf(client) - hit.lastRowid > RETAKE_AFTER_ADDED) startRetake(client, stamp);
+    return hit;
+  }
   const seen = lastStamp.get(client);
   if (!seen || seen.stamp !== stamp) lastStamp.set(client, { stamp, since: now });
   const stableFor = seen && seen.stamp === stamp ? now - seen.since : 0;
@@ -204,13 +235,13 @@ function startRetake(client: Sqlite, stamp: string): void {
     }
     const chunk = prepared(client, chunkSql).raw().all(r.after, snapshotChunkRows) as SnapshotRow[];
     for (const row of chunk) r.rows.push(row.slice(1));
+    if (chunk.length > 0) r.after = chunk[chunk.length - 1]![0] as number;
     if (chunk.length === snapshotChunkRows) {
-      r.after = chunk[chunk.length - 1]![0] as number;
       setImmediate(step);
       return;
     }
     retakes.delete(client);
-    snapshots.set(client, buildSnapshot(r.rows, r.stamp, Date.now()));
+    snapshots.set(client, buildSnapshot(r.rows, r.stamp, Date.now(), r.after));
   };
   setImmediate(step);
 }
@@ -221,9 +252,9 @@ export function stockSnapshotCurrent(db: Db): boolean {
   return hit !== undefined && hit.stamp === databaseStamp(db.$client);
 }
 
-function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number): FilterSnapshot {
+function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number, lastRowid: number): FilterSnapshot {
   const n = rows.length;
-  const snap: FilterSnapshot = { n, values: {}, codes: {}, flags: new Int32Array(n), stamp, at };
+  const snap: FilterSnapshot = { n, values: {}, codes: {}, flags: new Int32Array(n), stamp, at, lastRowid };
   columnNames.forEach((name, k) => {
     const kind = columnDef(name).kind;
     const bit = flagBit.get(name);
@@ -254,6 +285,17 @@ function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number): FilterSn
 export function countStock(db: Db, f: StockFilter): number {
   const s = filterSnapshot(db.$client);
   if (!s) return countStockInSql(db.$client, f);
+  return countInSnapshot(s, f) + countAddedSince(db.$client, f, s.lastRowid);
+}
+
+/** Rows added after `rowid` that match the filter: a range scan of the table by rowid (no index). */
+function countAddedSince(client: Sqlite, f: StockFilter, rowid: number): number {
+  const where = stockWhereSql(f);
+  const text = `select count(*) from stock not indexed where rowid > ?${where.text ? ` and ${where.text.slice('where '.length)}` : ''}`;
+  return (prepared(client, text).pluck().get(rowid, ...where.params) as number | undefined) ?? 0;
+}
+
+function countInSnapshot(s: FilterSnapshot, f: StockFilter): number {
   // bool conditions: the flag bits that must match (mask) and their values (want); the other
   // conditions on one column meet in one range [lo, hi] of its snapshot values
   let mask = 0;

@@ -5,6 +5,7 @@ import { stock } from '../../../server/areas/stock/schema';
 import { seedBulkStock } from '../../../server/areas/intake/demo-seed';
 import { exportStock, markStockUsed } from '../../../server/areas/stock/stock';
 import { countStock, setSnapshotChunkRowsForTests, stockSnapshotCurrent } from '../../../server/areas/stock/stock-filter';
+import { longTiling } from '../../fixtures/long-codes';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 // The list's totals are counted in memory (server/areas/stock/stock-filter.ts countStock); SQLite
@@ -124,5 +125,29 @@ describe('countStock', () => {
     } finally {
       setSnapshotChunkRowsForTests(2_000);
     }
+  });
+
+  it('rows added after the snapshot are counted over their rowid range, exactly, and the snapshot stays in use (a foundry run storing)', async () => {
+    await snapshotTaken();
+    const filters = [{}, { perfect: 'true' }, { provenance: 'demo' }, { used: 'unused' }, { orderMin: '12', simple: 'false' }, { provenance: 'setter', setterId }].map((q) => stockFilterSchema.parse(q));
+    // 40 more tilings through the stock service, in two transactions (compound rows of scaled
+    // order-9 and order-10 rectangles, tests/fixtures/long-codes.ts)
+    for (const from of [100, 120]) {
+      t.db.transaction((tx) => {
+        for (let i = from; i < from + 20; i++) expect(t.deps.stock.add(tx, { tiling: longTiling(i, 6), provenance: i % 2 ? 'setter' : 'demo' }).created).toBe(true);
+      });
+    }
+    expect(stockSnapshotCurrent(t.db)).toBe(true);
+    for (const f of filters) expect(countStock(t.db, f), JSON.stringify(f)).toBe(exportStock(t.db, f, 100_000).length);
+    // an insert that is rolled back is not counted
+    const all = countStock(t.db, {});
+    expect(() =>
+      t.db.transaction((tx) => {
+        t.deps.stock.add(tx, { tiling: longTiling(99, 6), provenance: 'setter' });
+        throw new Error('rolled back');
+      }),
+    ).toThrow('rolled back');
+    expect(countStock(t.db, {})).toBe(all);
+    expect(all).toBe(exportStock(t.db, {}, 100_000).length);
   });
 });
