@@ -1,6 +1,6 @@
 // Load bench (`npm run bench -- load`): does heavy work stall the desk? The server runs in its
 // own process (bench/load-server.ts, production mode, job threads as `npm start` has them) with
-// 50,000 tilings in stock; the load generator is autocannon in this process. 200 requests a
+// 50,000 tilings in stock; the load generator is autocannon in this process (see drive). 200 requests a
 // second for 30 s: 120/s on the stock list (five filter shapes, random pages, so not only cached
 // answers), 60/s on stock details (random ids), 20/s on /api/health; first idle, then WHILE
 // - a 5 MB upload of long codes (1,300 lines of ~1,900 squares each) is checked and stored,
@@ -59,35 +59,53 @@ const filters = [
 
 interface Row { route: string; n: number; p50: number; p95: number; p99: number; max: number; bad: number }
 
-/** One autocannon per route, all at once, for SECONDS; latency of every answer. */
+/**
+ * 200 requests a second, spread over the second as independent users would send them, for
+ * SECONDS; latency of every answer. autocannon's rate limit lets each connection send its
+ * whole quota for the second at once, at the same tick for every connection, so one instance
+ * with 12 connections at 120/s is a burst of 120 requests at the start of each second (it
+ * measured the queue behind that burst: p50 ~30 ms on an idle server answering in 2 ms). So
+ * each route is driven by rate/2 autocannon instances of one connection at 2 requests a second,
+ * started evenly spread over the first second.
+ */
+const PER_CONNECTION = 2;
 async function drive(base: string, cookie: string, seeded: number): Promise<Row[]> {
   const routes: [string, number, () => string][] = [
     ['GET /api/stock (filters)', 120, () => filters[Math.floor(rnd() * filters.length)]!()],
     ['GET /api/stock/:id', 60, () => `/api/stock/${1 + Math.floor(rnd() * seeded)}`],
     ['GET /api/health', 20, () => '/api/health'],
   ];
-  return Promise.all(
-    routes.map(async ([route, rate, path]) => {
-      const lat: number[] = [];
-      let bad = 0;
-      const inst = autocannon({
-        url: base,
-        connections: Math.max(4, Math.round(rate / 10)),
-        overallRate: rate,
-        duration: SECONDS,
-        timeout: 30,
-        headers: { cookie, accept: 'application/json' },
-        requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }],
+  const users = routes.reduce((n, [, rate]) => n + rate / PER_CONNECTION, 0);
+  let started = 0;
+  const results = routes.map(([route, rate, path]) => {
+    const lat: number[] = [];
+    let bad = 0;
+    const runs = Array.from({ length: rate / PER_CONNECTION }, () => {
+      const delay = (1000 * started++) / users;
+      return new Promise<void>((resolve) => setTimeout(resolve, delay)).then(async () => {
+        const inst = autocannon({
+          url: base,
+          connections: 1,
+          overallRate: PER_CONNECTION,
+          duration: SECONDS,
+          timeout: 30,
+          headers: { cookie, accept: 'application/json' },
+          requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }],
+        });
+        inst.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
+          lat.push(ms);
+          if (status !== 200) bad++;
+        });
+        const r = await inst;
+        bad += r.errors + r.timeouts;
       });
-      inst.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
-        lat.push(ms);
-        if (status !== 200) bad++;
-      });
-      const r = await inst;
+    });
+    return Promise.all(runs).then((): Row => {
       lat.sort((a, b) => a - b);
-      return { route, n: lat.length, p50: percentile(lat, 50), p95: percentile(lat, 95), p99: percentile(lat, 99), max: lat[lat.length - 1] ?? NaN, bad: bad + r.errors + r.timeouts };
-    }),
-  );
+      return { route, n: lat.length, p50: percentile(lat, 50), p95: percentile(lat, 95), p99: percentile(lat, 99), max: lat[lat.length - 1] ?? NaN, bad };
+    });
+  });
+  return Promise.all(results);
 }
 
 async function signIn(base: string, email: string): Promise<string> {
