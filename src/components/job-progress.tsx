@@ -20,7 +20,10 @@ export function jobProgressDetail(state: JobStateView, p: JobProgressView | null
   if (!p) return state === 'queued' ? 'waiting for a free worker' : '';
   const running = state === 'running';
   // a finished job says what it left behind, not the phase it was last in
-  if (state === 'done' && p.phase === STORING) return `${n(p.stored ?? p.done)} stored`;
+  if (state === 'done' && p.phase === STORING) {
+    const stored = p.stored ?? p.done;
+    return `${n(stored)} ${stored === 1 ? 'result' : 'results'} stored`;
+  }
   const parts = [`${n(p.done)}${p.total !== undefined ? ` of ${n(p.total)}` : ''} ${p.phase ?? ''}`.trim()];
   if (running && p.rate !== undefined) parts.push(`${p.rate.toLocaleString('en-GB')} /s`);
   if (running && p.etaMs !== undefined) parts.push(`${formatDuration(p.etaMs)} left`);
