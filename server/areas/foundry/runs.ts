@@ -3,6 +3,7 @@ import type { Run, RunList, RunRequest, RunResults } from '../../../shared/contr
 import { runRequestSchema, runSummarySchema } from '../../../shared/contracts/foundry';
 import type { Db } from '../../platform/db/client';
 import type { DbOrTx } from '../../platform/db/client';
+import { connectionOf, prepared } from '../../platform/db/statements';
 import type { EventSink } from '../../platform/events';
 import { Conflict, NotFound } from '../../platform/http/errors';
 import { defineJobSink, type JobRecord, type Jobs, type JobSink } from '../../platform/jobs/port';
@@ -35,25 +36,28 @@ export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: 
     // exhaustive runs list every simple tiling; only the perfect ones go into the stock unless the run asked for imperfect ones too (issue 16)
     const toStock = it.perfect || params.mode !== 'exhaustive' || params.includeImperfect;
     const s = toStock ? stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } }) : { id: null, created: false };
-    tx.insert(foundryResult)
-      .values({
-        jobId: runId,
-        canonicalKey: it.key,
-        code: it.code,
-        order: it.order,
-        width: it.width,
-        height: it.height,
-        perfect: it.perfect,
-        simple: it.simple,
-        square: it.square,
-        maxSize: it.maxSize,
-        origin: JSON.stringify({ ...it.origin, addedToStock: s.created }),
-        stockId: s.id,
-      })
-      .onConflictDoNothing()
-      .run();
+    // a prepared statement, not Drizzle: this runs once per result on the request thread (issue 14)
+    prepared(connectionOf(tx), insertResultSql).run(
+      runId,
+      it.key,
+      it.code,
+      it.order,
+      it.width,
+      it.height,
+      it.perfect ? 1 : 0,
+      it.simple ? 1 : 0,
+      it.square ? 1 : 0,
+      it.maxSize,
+      JSON.stringify({ ...it.origin, addedToStock: s.created }),
+      s.id,
+    );
   }
 }
+
+/** One foundry_result row (created_at takes its default); a key the run already stored is kept as it is. */
+const insertResultSql =
+  'insert into foundry_result (job_id, canonical_key, code, "order", width, height, perfect, simple, square, max_size, origin, stock_id) ' +
+  'values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?) on conflict do nothing';
 
 function inputFor(stock: StockPort, db: Db, params: RunRequest): FoundryInput {
   if (params.mode === 'random') return { knownKeys: stock.allKeys(db) };

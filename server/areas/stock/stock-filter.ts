@@ -1,8 +1,8 @@
 import { and, sql, type SQL } from 'drizzle-orm';
-import type { Statement } from 'better-sqlite3';
 import type { z } from 'zod';
 import type { stockFilterSchema } from '../../../shared/contracts/stock';
 import type { Db } from '../../platform/db/client';
+import { prepared } from '../../platform/db/statements';
 
 // The stock filter, defined once. Every filter field is a condition on one column (`fields`);
 // every column says how SQL reads it (`columns`). From these two tables come the SQL text of
@@ -101,23 +101,7 @@ export function stockWhere(f: StockFilter): SQL | undefined {
 }
 
 type Sqlite = Db['$client'];
-const statementCache = new WeakMap<Sqlite, Map<string, Statement>>();
-
-/**
- * A statement prepared once per database (Drizzle would build and SQLite would prepare the same
- * text on every request). Texts come from whitelists (columns, sorts); values are parameters.
- */
-export function prepared(client: Sqlite, text: string): Statement {
-  let perDb = statementCache.get(client);
-  if (!perDb) statementCache.set(client, (perDb = new Map()));
-  let st = perDb.get(text);
-  if (!st) {
-    // filter shapes x sorts are finitely many (a few thousand at most); keep the recent ones
-    if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-    perDb.set(text, (st = client.prepare(text)));
-  }
-  return st;
-}
+export { prepared };
 
 /** Bumped by every write of the stock service (the list's page cache follows it). */
 let generation = 0;

@@ -5,6 +5,7 @@ import type { Db, DbOrTx } from '../../platform/db/client';
 import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
+import { connectionOf } from '../../platform/db/statements';
 import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, gcdOfKey, reducedFormOf, smithDrawingOf } from './tiling-analysis';
@@ -22,34 +23,41 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   const v = verifyTiling(input.tiling);
   if (!v.ok) throw new Unprocessable(`not a valid tiling: ${v.message}`, v.square === undefined ? undefined : { square: v.square });
   const f = stockFacts(input.tiling);
-  const existing = tx.select({ id: stock.id }).from(stock).where(eq(stock.canonicalKey, f.canonicalKey)).get();
-  if (existing) return { id: existing.id, created: false, canonicalKey: f.canonicalKey };
+  // prepared statements, not Drizzle: a foundry run stores tens of thousands of rows on the
+  // request thread, and building and preparing each query was most of the cost (issue 14)
+  const c = connectionOf(tx);
+  const existing = prepared(c, 'select id from stock where canonical_key = ?').pluck().get(f.canonicalKey) as number | undefined;
+  if (existing !== undefined) return { id: existing, created: false, canonicalKey: f.canonicalKey };
   // a scaled copy of a stock tiling is no new tiling either (issue 16)
   const scaled = findStockByReducedKey(tx, f.reducedKey);
   if (scaled) return { id: scaled.id, created: false, canonicalKey: f.canonicalKey, scale: scaleText(f.gcd, gcdOfKey(scaled.canonicalKey)) };
   noteStockWrite();
-  const row = tx
-    .insert(stock)
-    .values({
-      canonicalKey: f.canonicalKey,
-      reducedKey: f.reducedKey,
-      canonicalCode: f.canonicalCode,
-      squaresJson: squaresToJson(f.canonical),
-      width: f.canonical.W,
-      height: f.canonical.H,
-      order: f.canonical.squares.length,
-      square: f.canonical.W === f.canonical.H,
-      perfect: f.perfect,
-      simple: f.simple,
-      provenance: input.provenance,
-      setterId: input.setterId ?? null,
-      paramsJson: input.params ? JSON.stringify(input.params) : null,
-      acceptedAt: input.acceptedAt ?? (input.provenance === 'setter' ? new Date() : null),
-    })
-    .returning({ id: stock.id })
-    .get();
-  return { id: row.id, created: true, canonicalKey: f.canonicalKey };
+  const acceptedAt = input.acceptedAt ?? (input.provenance === 'setter' ? new Date() : null);
+  const id = prepared(c, insertStockSql)
+    .pluck()
+    .get(
+      f.canonicalKey,
+      f.reducedKey,
+      f.canonicalCode,
+      squaresToJson(f.canonical),
+      f.canonical.W,
+      f.canonical.H,
+      f.canonical.squares.length,
+      f.canonical.W === f.canonical.H ? 1 : 0,
+      f.perfect ? 1 : 0,
+      f.simple ? 1 : 0,
+      input.provenance,
+      input.setterId ?? null,
+      input.params ? JSON.stringify(input.params) : null,
+      acceptedAt === null ? null : acceptedAt.getTime(),
+    ) as number;
+  return { id, created: true, canonicalKey: f.canonicalKey };
 }
+
+/** The columns addToStock writes (created_at and use_count take their defaults). */
+const insertStockSql =
+  'insert into stock (canonical_key, reduced_key, canonical_code, squares_json, width, height, "order", square, perfect, simple, provenance, setter_id, params_json, accepted_at) ' +
+  'values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?) returning id';
 
 /**
  * What a stock row needs: the canonical orientation with the engine's canonical code and key
@@ -75,7 +83,8 @@ export function markStockUsed(tx: DbOrTx, stockId: number, delta = 1): void {
 
 /** The stock row whose tiling is this one at some scale (same reduced key), if any. */
 export function findStockByReducedKey(db: DbOrTx, reducedKey: string): { id: number; canonicalKey: string } | null {
-  return db.select({ id: stock.id, canonicalKey: stock.canonicalKey }).from(stock).where(eq(stock.reducedKey, reducedKey)).orderBy(stock.id).limit(1).get() ?? null;
+  const row = prepared(connectionOf(db), 'select id, canonical_key as canonicalKey from stock where reduced_key = ? order by id limit 1').get(reducedKey) as { id: number; canonicalKey: string } | undefined;
+  return row ?? null;
 }
 
 /**
