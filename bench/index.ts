@@ -8,6 +8,7 @@ const modules: Record<string, () => Promise<unknown>> = {
   tiling: () => import('./tiling'),
   print: () => import('./print'),
   intake: () => import('./intake'),
+  store: () => import('./store'),
   load: () => import('./load'),
 };
 
