@@ -12,6 +12,7 @@ import { invmod, prime } from './sparse-elimination';
 /** Above this many rows the sparse modular determinant replaces dense Bareiss. */
 export const DENSE_LIMIT = 60;
 import { maximalSegments } from './segments';
+import { core } from './tiling-core';
 import type { Tiling } from './types';
 
 /** det of the k x k integer matrix m (row-major) modulo the prime p < 2^26, by elimination with row swaps. */
@@ -22,6 +23,10 @@ function detMod(m: Float64Array, k: number, p: number, inPlace: boolean): number
     const x = m[i]!;
     a[i] = x < 0 ? x + p : x;
   }
+  // products below 2^52 are exact in doubles; x mod p as x - floor(x / p) * p with 1 / p
+  // precomputed (the quotient is off by at most one, mended by one add or subtract): a
+  // floating-point remainder (%) costs several times more
+  const pinv = 1 / p;
   let det = 1;
   for (let c = 0; c < k; c++) {
     let r = c;
@@ -36,18 +41,37 @@ function detMod(m: Float64Array, k: number, p: number, inPlace: boolean): number
       det = p - det;
     }
     const pv = a[c * k + c]!;
-    det = (det * pv) % p;
+    det = reduce(det * pv, p, pinv);
     const inv = invmod(pv, p);
     for (let i = c + 1; i < k; i++) {
-      const f = (a[i * k + c]! * inv) % p;
+      const f = reduce(a[i * k + c]! * inv, p, pinv);
       if (f === 0) continue;
-      for (let j = c + 1; j < k; j++) {
-        const w = a[i * k + j]! - ((f * a[c * k + j]!) % p); // both terms in [0, p)
-        a[i * k + j] = w < 0 ? w + p : w;
-      }
+      const g = p - f; // a_ij - f a_cj = a_ij + (p - f) a_cj (mod p), all terms >= 0
+      for (let j = c + 1; j < k; j++) a[i * k + j] = reduce(a[i * k + j]! + g * a[c * k + j]!, p, pinv);
     }
   }
   return det;
+}
+
+/** x mod p for 0 <= x < 2^52 (exact: see detMod). */
+function reduce(x: number, p: number, pinv: number): number {
+  const r = x - Math.floor(x * pinv) * p;
+  return r < 0 ? r + p : r >= p ? r - p : r;
+}
+
+/** tau by two primes when the degree product proves it below their product, else null. m is the reduced Laplacian (k x k), deg the degrees of rows 0..k-1. */
+function smallTauOf(m: Float64Array, k: number, deg: Float64Array): bigint | null {
+  let bound = 1;
+  for (let v = 0; v < k; v++) bound *= deg[v]!;
+  const p1 = prime(0);
+  const p2 = prime(1);
+  if (bound < p1) return BigInt(detMod(m, k, p1, true));
+  if (bound >= p1 * p2) return null;
+  // Garner: x = r1 + p1 * ((r2 - r1) / p1 mod p2), below p1 * p2 < 2^52
+  const r1 = detMod(m, k, p1, false);
+  const r2 = detMod(m, k, p2, true);
+  const t = ((((r2 - r1) % p2) + p2) % p2) * invmod(p1 % p2, p2) % p2;
+  return BigInt(r1 + p1 * t);
 }
 
 /** tau by two primes when the degree product proves it below their product, else null. */
@@ -66,17 +90,7 @@ function smallTau(n: number, edges: readonly (readonly [number, number])[]): big
       m[v * k + u]! -= 1;
     }
   }
-  let bound = 1;
-  for (let v = 0; v < k; v++) bound *= deg[v]!;
-  const p1 = prime(0);
-  const p2 = prime(1);
-  if (bound < p1) return BigInt(detMod(m, k, p1, true));
-  if (bound >= p1 * p2) return null;
-  // Garner: x = r1 + p1 * ((r2 - r1) / p1 mod p2), below p1 * p2 < 2^52
-  const r1 = detMod(m, k, p1, false);
-  const r2 = detMod(m, k, p2, true);
-  const t = ((((r2 - r1) % p2) + p2) % p2) * invmod(p1 % p2, p2) % p2;
-  return BigInt(r1 + p1 * t);
+  return smallTauOf(m, k, deg);
 }
 
 /** tau of a multigraph on vertices 0..n-1 (parallel edges count separately; loops ignored). */
@@ -114,8 +128,11 @@ export function countSpanningTrees(n: number, edges: readonly (readonly [number,
   return bareissDeterminant(L);
 }
 
-/** tau of the tiling's c-net: the horizontal Smith diagram plus the pole edge (built from the segments alone). */
+/** tau of the tiling's c-net: the horizontal Smith diagram plus the pole edge. */
 export function tilingSpanningTrees(t: Tiling): bigint {
+  // the decode gives every square's top and bottom segment at once; a list of squares that
+  // does not tile its frame falls back to the sweep over the sides
+  if (t.squares.length > 0 && core.load(t)) return decodedSpanningTrees();
   const seg = maximalSegments(t, false);
   const count = seg.at.length;
   let top = -1;
@@ -128,4 +145,42 @@ export function tilingSpanningTrees(t: Tiling): bigint {
   const edges: [number, number][] = t.squares.map((_, i) => [seg.before[i]!, seg.after[i]!]);
   edges.push([top, bottom]);
   return countSpanningTrees(count, edges);
+}
+
+let lap = new Float64Array(0);
+let lapDeg = new Float64Array(0);
+
+/** tau of the c-net of the tiling the shared decoder holds (its last decode). */
+function decodedSpanningTrees(): bigint {
+  const { n, topSeg, botSeg, segCount } = core;
+  const top = 0;
+  const bottom = segCount - 1;
+  // the last row and column (the bottom edge) are dropped: any cofactor is tau
+  const k = segCount - 1;
+  if (k <= DENSE_LIMIT) {
+    if (lap.length < k * k) lap = new Float64Array(Math.max(k * k, 2 * lap.length));
+    if (lapDeg.length < segCount) lapDeg = new Float64Array(Math.max(segCount, 2 * lapDeg.length));
+    const m = lap;
+    const deg = lapDeg;
+    m.fill(0, 0, k * k);
+    deg.fill(0, 0, segCount);
+    const add = (u: number, v: number) => {
+      deg[u]! += 1;
+      deg[v]! += 1;
+      if (u < k) m[u * k + u]! += 1;
+      if (v < k) m[v * k + v]! += 1;
+      if (u < k && v < k) {
+        m[u * k + v]! -= 1;
+        m[v * k + u]! -= 1;
+      }
+    };
+    for (let i = 0; i < n; i++) add(topSeg[i]!, botSeg[i]!);
+    add(top, bottom);
+    const small = smallTauOf(m.subarray(0, k * k), k, deg);
+    if (small !== null) return small;
+  }
+  const edges: [number, number][] = [];
+  for (let i = 0; i < n; i++) edges.push([topSeg[i]!, botSeg[i]!]);
+  edges.push([top, bottom]);
+  return countSpanningTrees(segCount, edges);
 }

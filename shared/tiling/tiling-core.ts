@@ -114,6 +114,11 @@ export class TilingCore {
   private last = new Uint8Array(0);
   /** member lists: next square whose bottom lies on the same skyline piece */
   private nextMember = new Int32Array(0);
+  /** per square: the maximal horizontal segment through its top and through its bottom (0 = the top edge) */
+  topSeg = new Int32Array(0);
+  botSeg = new Int32Array(0);
+  /** how many maximal horizontal segments the decode found (the bottom edge is the last) */
+  segCount = 0;
   /** skyline pieces */
   private kx = new Float64Array(0);
   private kw = new Float64Array(0);
@@ -153,6 +158,8 @@ export class TilingCore {
     this.tailAbove = i();
     this.last = new Uint8Array(c + 1);
     this.nextMember = i();
+    this.topSeg = i();
+    this.botSeg = i();
     // at most one piece per square plus the first
     this.kx = f();
     this.kw = f();
@@ -181,7 +188,10 @@ export class TilingCore {
     this.ensure(n);
     this.n = n;
     this.W = W;
-    const { xs, ys, ss, topEnd, botStart, chainTop, up, tailAbove, last, nextMember, kx, kw, ky, kh, kt, kn, kp } = this;
+    const { xs, ys, ss, topEnd, botStart, chainTop, up, tailAbove, last, nextMember, topSeg, botSeg, kx, kw, ky, kh, kt, kn, kp } = this;
+    // a group fills one skyline piece, and a piece is a maximal segment (equal neighbours merge):
+    // each group start opens the next horizontal segment
+    let seg = -1;
     const limitH = H > 0 ? H : Infinity;
     // the skyline: a doubly linked list of pieces (x, width, y, member list), left to right
     kx[0] = 0;
@@ -212,7 +222,11 @@ export class TilingCore {
         }
         // a new group on piece b: its members' bottoms lie on the segment starting here
         const a = kx[b]!;
-        for (let m = kh[b]!; m >= 0; m = nextMember[m]!) botStart[m] = a;
+        seg++;
+        for (let m = kh[b]!; m >= 0; m = nextMember[m]!) {
+          botStart[m] = a;
+          botSeg[m] = seg;
+        }
         mp = kh[b]!;
         gTail = kt[b]!;
         gEnd = a + kw[b]!;
@@ -228,6 +242,7 @@ export class TilingCore {
       ys[k] = y;
       ss[k] = s;
       topEnd[k] = gEnd;
+      topSeg[k] = seg;
       while (mp >= 0 && xs[mp]! < x) mp = nextMember[mp]!;
       if (mp >= 0 && xs[mp] === x) {
         up[k] = mp;
@@ -290,6 +305,9 @@ export class TilingCore {
     if (rem >= 0) return DECODE_FAILED; // the last group short
     if (kn[head]! >= 0 || (H > 0 && ky[head] !== H)) return DECODE_FAILED; // incomplete
     this.H = ky[head]!;
+    seg++;
+    for (let m = kh[head]!; m >= 0; m = nextMember[m]!) botSeg[m] = seg;
+    this.segCount = seg + 1;
     this.finishSegments();
     return 0;
   }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { bareissDeterminant, countSpanningTrees, edgesOf, mulberry32, parseTiling, randomCNet, sparseSymmetricDeterminant, tilingSpanningTrees } from '../../../shared/tiling/index';
-import { O21_112, O9_33x32, O9_69x61 } from './helpers';
+import { bareissDeterminant, countSpanningTrees, edgesOf, mulberry32, parseTiling, randomCNet, solvePlaneNetwork, sparseSymmetricDeterminant, tilingSpanningTrees, type Tiling } from '../../../shared/tiling/index';
+import { maximalSegments } from '../../../shared/tiling/segments';
+import { greedyTiling, O21_112, O9_33x32, O9_69x61, stackedTiling } from './helpers';
 
 const complete = (n: number) => {
   const e: [number, number][] = [];
@@ -87,5 +88,55 @@ describe('large c-nets: sparse elimination modulo primes + Chinese remainder the
     for (let r = 0; r < 10; r++) for (let c = 0; c < 20; c++) for (const q of base.squares) squares.push({ x: q.x + 33 * c, y: q.y + 32 * r, s: q.s });
     const tau = tilingSpanningTrees({ W: 660, H: 320, squares });
     expect(tau > 10n ** 300n).toBe(true);
+  });
+});
+
+describe("the tiling's tree count from the decode (fast path) against the straightforward one", () => {
+  /** Straightforward: maximal segments by the sweep over the sides, the dense Laplacian, BigInt Bareiss. */
+  function straightforward(t: Tiling): bigint {
+    const seg = maximalSegments(t, false);
+    const k = seg.at.length;
+    const top = seg.at.findIndex((a) => a === 0);
+    const bottom = seg.at.findIndex((a) => a === t.H);
+    const L = Array.from({ length: k - 1 }, () => Array.from({ length: k - 1 }, () => 0));
+    const edges: [number, number][] = t.squares.map((_, i) => [seg.before[i]!, seg.after[i]!]);
+    edges.push([top, bottom]);
+    for (const [u, v] of edges) {
+      if (u < k - 1) L[u]![u]! += 1;
+      if (v < k - 1) L[v]![v]! += 1;
+      if (u < k - 1 && v < k - 1) {
+        L[u]![v]! -= 1;
+        L[v]![u]! -= 1;
+      }
+    }
+    return bareissDeterminant(L);
+  }
+
+  it('agrees on seeded random tilings: simple ones from random c-nets, compound ones with crosses (greedy fills, stacks)', () => {
+    const rng = mulberry32(4242);
+    const tilings: Tiling[] = [];
+    for (let i = 0; tilings.length < 60 && i < 400; i++) {
+      const g = randomCNet(8 + Math.floor(rng() * 30), rng);
+      const es = edgesOf(g);
+      const [p, q] = es[Math.floor(rng() * es.length)]!;
+      const r = solvePlaneNetwork(g, { p, q });
+      if (r.ok) tilings.push(r.tiling);
+    }
+    for (let i = 0; i < 40; i++) {
+      const W = 5 + Math.floor(rng() * 40);
+      const H = 5 + Math.floor(rng() * 40);
+      tilings.push(greedyTiling(W, H, Array.from({ length: 7 }, () => 1 + Math.floor(rng() * 12))));
+    }
+    tilings.push(stackedTiling(tilings[0]!, 3), stackedTiling(parseTiling(O9_33x32), 4));
+    let crosses = 0;
+    for (const t of tilings) {
+      const fast = tilingSpanningTrees(t);
+      expect(fast).toBe(straightforward(t));
+      // a cross: four squares meeting at one point (the segment through it is one vertex)
+      const corners = new Map<string, number>();
+      for (const s of t.squares) for (const c of [`${s.x},${s.y}`, `${s.x + s.s},${s.y}`, `${s.x},${s.y + s.s}`, `${s.x + s.s},${s.y + s.s}`]) corners.set(c, (corners.get(c) ?? 0) + 1);
+      if ([...corners.values()].some((v) => v === 4)) crosses++;
+    }
+    expect(crosses).toBeGreaterThan(5);
   });
 });
