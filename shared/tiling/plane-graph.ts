@@ -55,26 +55,78 @@ export function dartArrays(g: PlaneGraph): { first: Int32Array; tail: Int32Array
   return { first, tail, head, rev };
 }
 
-/** Checks shape, symmetry, loops, parallel edges, connectivity and Euler's formula V - E + F = 2. */
-export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
+/**
+ * Dart and face arrays that one validation fills (analyseInto), reusable from call to call:
+ * the arrays grow to the largest graph seen and only their first n + 1 (first), D (the dart
+ * arrays) or faceCount (faceFirst) entries are meaningful. The solver keeps one set at module
+ * level, so validating a small c-net allocates nothing.
+ */
+export class DartBuffers {
+  n = 0;
+  /** number of darts (twice the edges) */
+  D = 0;
+  faceCount = 0;
+  first = new Int32Array(0);
+  tail = new Int32Array(0);
+  head = new Int32Array(0);
+  rev = new Int32Array(0);
+  face = new Int32Array(0);
+  faceNext = new Int32Array(0);
+  faceFirst = new Int32Array(0);
+  /** scratch of n entries: the neighbour stamps, then the connectivity stack */
+  stamp = new Int32Array(0);
+  seen = new Uint8Array(0);
+
+  /** Room for n vertices and D darts (exactly that much when the arrays must grow). */
+  ensure(n: number, D: number): void {
+    if (this.first.length < n + 1) {
+      this.first = new Int32Array(n + 1);
+      this.stamp = new Int32Array(n);
+      this.seen = new Uint8Array(n);
+    }
+    if (this.tail.length < D) {
+      this.tail = new Int32Array(D);
+      this.head = new Int32Array(D);
+      this.rev = new Int32Array(D);
+      this.face = new Int32Array(D);
+      this.faceNext = new Int32Array(D);
+      this.faceFirst = new Int32Array(D);
+    }
+  }
+}
+
+type GraphFailure = Extract<GraphCheck, { ok: false }>;
+
+/**
+ * Checks shape, symmetry, loops, parallel edges, connectivity and Euler's formula V - E + F = 2,
+ * filling b with the darts and faces; null when every check passes.
+ */
+export function analyseInto(g: PlaneGraph, b: DartBuffers): GraphFailure | null {
   if (g === null || typeof g !== 'object' || !Array.isArray(g.adj)) {
     return { ok: false, code: 'not-plane', message: 'the graph must be an object { n, adj } with adj an array of neighbour lists' };
   }
   const n = g.n;
+  const adj = g.adj;
   if (!Number.isInteger(n) || n < 2) return { ok: false, code: 'not-plane', message: `n must be an integer >= 2 (got ${String(n)})` };
   if (n > MAX_GRAPH_VERTICES) return { ok: false, code: 'too-large', message: `the graph has ${n} vertices; at most ${MAX_GRAPH_VERTICES} are accepted` };
-  if (g.adj.length !== n) return { ok: false, code: 'not-plane', message: `adj has ${g.adj.length} lists but n = ${n}` };
+  if (adj.length !== n) return { ok: false, code: 'not-plane', message: `adj has ${adj.length} lists but n = ${n}` };
   let D = 0;
   for (let v = 0; v < n; v++) {
-    const list = g.adj[v];
+    const list = adj[v];
     if (!Array.isArray(list)) return { ok: false, code: 'not-plane', message: `adj[${v}] is not an array` };
     D += list.length;
   }
   if (D / 2 > MAX_GRAPH_EDGES) return { ok: false, code: 'too-large', message: `the graph has ${D / 2} edges; at most ${MAX_GRAPH_EDGES} are accepted` };
-  const stamp = new Int32Array(n).fill(-1);
-  for (let v = 0; v < n; v++) {
-    const list = g.adj[v]!;
-    for (let i = 0; i < list.length; i++) {
+  b.ensure(n, D);
+  b.n = n;
+  b.D = D;
+  b.faceCount = 0;
+  const { first, tail, head, rev, stamp, seen: seenV } = b;
+  stamp.fill(-1, 0, n);
+  first[0] = 0;
+  for (let v = 0, d = 0; v < n; v++) {
+    const list = adj[v]!;
+    for (let i = 0; i < list.length; i++, d++) {
       const u = list[i];
       if (typeof u !== 'number' || !Number.isInteger(u) || u < 0 || u >= n) {
         return { ok: false, code: 'not-plane', message: `adj[${v}][${i}] = ${String(u)} is not a vertex (0..${n - 1})` };
@@ -82,39 +134,50 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
       if (u === v) return { ok: false, code: 'not-plane', message: `vertex ${v} has a loop (adj[${v}][${i}] = ${v})` };
       if (stamp[u] === v) return { ok: false, code: 'not-plane', message: `vertex ${v} lists neighbour ${u} twice; parallel edges are not accepted` };
       stamp[u] = v;
+      tail[d] = v;
+      head[d] = u;
     }
+    first[v + 1] = d;
   }
-  const { first, tail, head, rev } = dartArrays(g);
-  const oneWay = rev.indexOf(-1);
-  if (oneWay >= 0) {
-    const u = tail[oneWay]!;
-    const v = head[oneWay]!;
-    return { ok: false, code: 'not-plane', message: `edge ${u}-${v} appears in adj[${u}] but ${u} is missing from adj[${v}]` };
+  // reverse darts, each pair found once from its first dart (no parallel edges: the pair is
+  // unique); the first dart without a reverse is the first one left unpaired
+  rev.fill(-1, 0, D);
+  for (let d = 0; d < D; d++) {
+    if (rev[d] !== -1) continue;
+    const v = head[d]!;
+    const u = tail[d]!;
+    const end = first[v + 1]!;
+    let r = first[v]!;
+    while (r < end && head[r] !== u) r++;
+    if (r === end) return { ok: false, code: 'not-plane', message: `edge ${u}-${v} appears in adj[${u}] but ${u} is missing from adj[${v}]` };
+    rev[d] = r;
+    rev[r] = d;
   }
-  // connectivity
-  const seenV = new Uint8Array(n);
-  const stack = [0];
+  // connectivity (depth first; stamp is free again and serves as the stack)
+  seenV.fill(0, 0, n);
+  const stack = stamp;
+  let top = 0;
+  stack[top++] = 0;
   seenV[0] = 1;
   let reached = 1;
-  while (stack.length > 0) {
-    const v = stack.pop()!;
+  while (top > 0) {
+    const v = stack[--top]!;
     for (let d = first[v]!; d < first[v + 1]!; d++) {
       const u = head[d]!;
       if (!seenV[u]) {
         seenV[u] = 1;
         reached++;
-        stack.push(u);
+        stack[top++] = u;
       }
     }
   }
   if (reached < n) {
-    const missing = seenV.indexOf(0);
+    const missing = seenV.subarray(0, n).indexOf(0);
     return { ok: false, code: 'disconnected', message: `the graph is not connected: vertex ${missing} cannot be reached from vertex 0` };
   }
   // faces
-  const face = new Int32Array(D).fill(-1);
-  const faceNext = new Int32Array(D);
-  const faceFirst = new Int32Array(D);
+  const { face, faceNext, faceFirst } = b;
+  face.fill(-1, 0, D);
   let faceCount = 0;
   for (let d0 = 0; d0 < D; d0++) {
     if (face[d0] !== -1) continue;
@@ -124,13 +187,14 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
       face[d] = faceCount;
       const r = rev[d]!; // dart v -> u at v
       const v = tail[r]!;
-      const deg = first[v + 1]! - first[v]!;
-      const nd = first[v]! + ((r - first[v]! + 1) % deg);
+      const f0 = first[v]!;
+      const nd = r + 1 === first[v + 1]! ? f0 : r + 1;
       faceNext[d] = nd;
       d = nd;
     }
     faceCount++;
   }
+  b.faceCount = faceCount;
   const E = D / 2;
   if (n - E + faceCount !== 2) {
     return {
@@ -139,7 +203,16 @@ export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
       message: `the rotation system is not a plane embedding: V - E + F = ${n} - ${E} + ${faceCount} = ${n - E + faceCount}, not 2 (check that every vertex lists its neighbours in the same cyclic sense)`,
     };
   }
-  return { ok: true, darts: { tail, head, first, rev, face, faceNext, faceFirst: faceFirst.subarray(0, faceCount), faceCount, edgeCount: E } };
+  return null;
+}
+
+/** Checks shape, symmetry, loops, parallel edges, connectivity and Euler's formula V - E + F = 2. */
+export function analysePlaneGraph(g: PlaneGraph): GraphCheck {
+  const b = new DartBuffers();
+  const fail = analyseInto(g, b);
+  if (fail) return fail;
+  const { tail, head, first, rev, face, faceNext, faceFirst, faceCount, D } = b;
+  return { ok: true, darts: { tail, head, first, rev, face, faceNext, faceFirst: faceFirst.subarray(0, faceCount), faceCount, edgeCount: D / 2 } };
 }
 
 // ---- Operations on trusted rotation systems (no validation; callers pass plane graphs) ----
