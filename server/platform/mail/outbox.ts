@@ -48,6 +48,8 @@ export type MailSender = {
   start(): void;
   stop(): Promise<void>;
   status(): { pending: number; failed: number; lastError: string | null };
+  /** the last delivery error (null after a success): what health needs, without counting the outbox */
+  lastError(): string | null;
 };
 
 export function retryDelayMs(attempts: number, base: number, max: number): number {
@@ -142,6 +144,7 @@ export function createMailSender(options: MailSenderOptions): MailSender {
       timer = undefined;
       await current?.catch(() => undefined);
     },
+    lastError: () => lastError,
     status() {
       if (!db.$client.open) return { pending: 0, failed: 0, lastError };
       const counts = db

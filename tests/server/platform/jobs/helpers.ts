@@ -6,6 +6,7 @@ import { jobKindNames } from '../../../../server/job-kinds';
 import { closeDatabase, openDatabase, type Db } from '../../../../server/platform/db/client';
 import { defineJobSink, type JobSink, type Jobs } from '../../../../server/platform/jobs/port';
 import { createJobs, jobEnvFrom } from '../../../../server/platform/jobs/runtime';
+import type { RequestPulse } from '../../../../server/platform/request-pulse';
 
 // The job system's tests run the tiny 'test-count' kind (server/platform/jobs/test-count-job.ts)
 // with a sink that writes each result into a table of its own, so what was stored can be counted.
@@ -64,12 +65,12 @@ export interface JobsFixture {
   close(): Promise<void>;
 }
 
-export function jobsFixture(o: { env?: Record<string, string>; busyUs?: number; graceMs?: number; onStore?: (jobId: string, n: number) => void } = {}): JobsFixture {
+export function jobsFixture(o: { env?: Record<string, string>; busyUs?: number; graceMs?: number; onStore?: (jobId: string, n: number) => void; pulse?: RequestPulse } = {}): JobsFixture {
   const dir = mkdtempSync(join(tmpdir(), 'sw-jobs-'));
   const db = openDatabase(join(dir, 'jobs.db'));
   const { sink, stored } = countSink(db, { ...(o.busyUs ? { busyUs: o.busyUs } : {}), ...(o.onStore ? { onStore: o.onStore } : {}) });
   const env = jobEnvFrom(o.env ?? {});
-  const make = () => createJobs({ db, kinds: jobKindNames, sinks: [sink], env, graceMs: o.graceMs ?? 1000 });
+  const make = () => createJobs({ db, kinds: jobKindNames, sinks: [sink], env, graceMs: o.graceMs ?? 1000, ...(o.pulse ? { pulse: o.pulse } : {}) });
   const f: JobsFixture = {
     dir,
     db,

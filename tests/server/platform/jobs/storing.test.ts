@@ -1,8 +1,10 @@
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { jobKindNames } from '../../../../server/job-kinds';
+import { STORE_SHARE } from '../../../../server/platform/jobs/host';
 import { STORING_PHASE } from '../../../../server/platform/jobs/progress';
 import { createJobs, jobEnvFrom } from '../../../../server/platform/jobs/runtime';
+import { RequestPulse } from '../../../../server/platform/request-pulse';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
 import { countSink, jobsFixture, sleep, until, type JobsFixture } from './helpers';
 
@@ -81,4 +83,42 @@ describe('the API while a large job stores its results', () => {
     // and storing went in many small transactions, not one big one
     expect(stored.sliceMs.get(id)!.length).toBeGreaterThan(50);
   });
+});
+
+describe('storing gives way while people use the server', () => {
+  // Two jobs store at once, each row costs 0.4 ms. With requests coming in (the pulse beaten
+  // every 20 ms, as the HTTP layer does per request), both together take at most their share
+  // (0.25, STORE_SHARE) of the thread; with no requests they store flat out.
+  const run = async (busy: boolean) => {
+    const pulse = new RequestPulse();
+    const ends: { at: number; job: string }[] = [];
+    const f = jobsFixture({ busyUs: 400, pulse, onStore: (job) => ends.push({ at: performance.now(), job }) });
+    const beat = busy ? setInterval(() => pulse.beat(), 20) : null;
+    pulse.beat(); // the first slice already sees the pulse when busy is true; harmless when not (one slice)
+    try {
+      const ids = [f.jobs.submit({ kind: 'test-count', params: { to: 1500 } }), f.jobs.submit({ kind: 'test-count', params: { to: 1500 } })];
+      for (const id of ids) expect((await f.jobs.wait(id)).state).toBe('done');
+      for (const id of ids) expect(f.stored.count(id)).toBe(1500);
+      // busy time of every slice (measured inside the transaction) over the time from the first slice's start to the last one's end
+      const slices = ends.map((e, i) => ({ ...e, ms: f.stored.sliceMs.get(e.job)![ends.slice(0, i).filter((x) => x.job === e.job).length]! }));
+      const start = Math.min(...slices.map((s) => s.at - s.ms));
+      const span = Math.max(...slices.map((s) => s.at)) - start;
+      const busyMs = slices.reduce((a, s) => a + s.ms, 0);
+      return { share: busyMs / span, slices: slices.length, busyMs };
+    } finally {
+      if (beat) clearInterval(beat);
+      await f.close();
+    }
+  };
+
+  it('takes at most STORE_SHARE of the thread for all jobs together while requests come in, and the whole thread when none do', async () => {
+    const busy = await run(true);
+    expect(STORE_SHARE).toBe(0.25);
+    expect(busy.busyMs).toBeGreaterThan(1000); // 3,000 rows at 0.4 ms: the measurement is long enough to mean something
+    expect(busy.slices).toBeGreaterThan(50);
+    // timers never fire early by more than their millisecond rounding, so the share can only come out lower
+    expect(busy.share).toBeLessThanOrEqual(0.3);
+    const idle = await run(false);
+    expect(idle.share).toBeGreaterThan(0.5);
+  }, 60_000);
 });
