@@ -21,7 +21,8 @@
 //
 // Canonical form: of the orientations with W >= H, the one whose table code is largest
 // (squaring.net). Its first size is its top-left corner square, so only the orientations whose
-// corner square is largest are ordered (a sort by row, then by position in the row).
+// corner square is largest are ordered, row by row from the segments (orientationLines), and
+// the winner's code and key are written digit by digit into byte buffers.
 import type { Classification, Rect, Tiling } from './types';
 
 export const MAX_LISTED_SUBRECTANGLES = 1000;
@@ -100,10 +101,7 @@ export class TilingCore {
   xs = new Float64Array(0);
   ys = new Float64Array(0);
   ss = new Float64Array(0);
-  /** per square: right end of the segment through its top; left end of the one through its bottom */
-  private topEnd = new Float64Array(0);
-  private botStart = new Float64Array(0);
-  /** per square: top and bottom ends of the segment through its left side; top end through its right side */
+  /** per square: top (subRectangles) and bottom ends of the segment through its left side; top end through its right side (subRectangles) */
   private chainTop = new Float64Array(0);
   private leftEnd = new Float64Array(0);
   private rightStart = new Float64Array(0);
@@ -119,6 +117,26 @@ export class TilingCore {
   botSeg = new Int32Array(0);
   /** how many maximal horizontal segments the decode found (the bottom edge is the last) */
   segCount = 0;
+  /** per horizontal segment: the first square whose bottom lies on it (member list, -1 for the top edge) and its y */
+  private segHead = new Int32Array(0);
+  private segY = new Float64Array(0);
+  /** per horizontal segment: its left and right ends */
+  private segStart = new Float64Array(0);
+  private segEnd = new Float64Array(0);
+  /** per last square of a group: the first member of the piece to its right at placement (-1 at the frame) */
+  private rightNb = new Int32Array(0);
+  /** per square: the bottom end of the segment through its right side (isSimple) */
+  private rightEnd = new Float64Array(0);
+  /** per square: the square above with the same right end (or -1), the one below (canonical form only) */
+  private upR = new Int32Array(0);
+  private downR = new Int32Array(0);
+  /** group starts of two reading orders; chain heads and their order; text buffers */
+  private gsA = new Uint8Array(0);
+  private gsB = new Uint8Array(0);
+  private heads = new Int32Array(0);
+  private perm = new Int32Array(0);
+  private codeBuf = new Uint8Array(0);
+  private keyBuf = new Uint8Array(0);
   /** skyline pieces */
   private kx = new Float64Array(0);
   private kw = new Float64Array(0);
@@ -148,8 +166,6 @@ export class TilingCore {
     this.xs = f();
     this.ys = f();
     this.ss = f();
-    this.topEnd = f();
-    this.botStart = f();
     this.chainTop = f();
     this.leftEnd = f();
     this.rightStart = f();
@@ -160,6 +176,21 @@ export class TilingCore {
     this.nextMember = i();
     this.topSeg = i();
     this.botSeg = i();
+    this.segHead = i();
+    this.segY = f();
+    this.segStart = f();
+    this.segEnd = f();
+    this.rightNb = i();
+    this.rightEnd = f();
+    this.upR = i();
+    this.downR = i();
+    this.gsA = new Uint8Array(c + 1);
+    this.gsB = new Uint8Array(c + 1);
+    this.heads = i();
+    this.perm = i();
+    // a number has at most 16 digits on the fast path (below 10^15)
+    this.codeBuf = new Uint8Array(18 * (c + 4));
+    this.keyBuf = new Uint8Array(18 * (c + 4));
     // at most one piece per square plus the first
     this.kx = f();
     this.kw = f();
@@ -188,7 +219,7 @@ export class TilingCore {
     this.ensure(n);
     this.n = n;
     this.W = W;
-    const { xs, ys, ss, topEnd, botStart, chainTop, up, tailAbove, last, nextMember, topSeg, botSeg, kx, kw, ky, kh, kt, kn, kp } = this;
+    const { xs, ys, ss, up, down, leftEnd, tailAbove, last, nextMember, topSeg, botSeg, segHead, segY, segStart, segEnd, rightNb, kx, kw, ky, kh, kt, kn, kp } = this;
     // a group fills one skyline piece, and a piece is a maximal segment (equal neighbours merge):
     // each group start opens the next horizontal segment
     let seg = -1;
@@ -206,7 +237,6 @@ export class TilingCore {
     let rem = -1; // the current group's remaining piece, -1 between groups
     let mp = -1; // walk through the members above the current group
     let gTail = -1;
-    let gEnd = 0;
     for (let k = 0; k < n; k++) {
       const s = sizes[off + k]!;
       let b: number;
@@ -223,13 +253,13 @@ export class TilingCore {
         // a new group on piece b: its members' bottoms lie on the segment starting here
         const a = kx[b]!;
         seg++;
-        for (let m = kh[b]!; m >= 0; m = nextMember[m]!) {
-          botStart[m] = a;
-          botSeg[m] = seg;
-        }
+        segHead[seg] = kh[b]!;
+        segY[seg] = ky[b]!;
+        segStart[seg] = a;
+        segEnd[seg] = a + kw[b]!;
+        for (let m = kh[b]!; m >= 0; m = nextMember[m]!) botSeg[m] = seg;
         mp = kh[b]!;
         gTail = kt[b]!;
-        gEnd = a + kw[b]!;
       } else {
         if (groupStart !== null && groupStart[off + k] === 1) return DECODE_FAILED; // the previous bracket group short
         b = rem;
@@ -241,19 +271,13 @@ export class TilingCore {
       xs[k] = x;
       ys[k] = y;
       ss[k] = s;
-      topEnd[k] = gEnd;
       topSeg[k] = seg;
       while (mp >= 0 && xs[mp]! < x) mp = nextMember[mp]!;
-      if (mp >= 0 && xs[mp] === x) {
-        up[k] = mp;
-        chainTop[k] = chainTop[mp]!;
-      } else {
-        up[k] = -1;
-        chainTop[k] = y;
-      }
-      botStart[k] = 0;
+      up[k] = mp >= 0 && xs[mp] === x ? mp : -1;
+      down[k] = -1;
       nextMember[k] = -1;
       const ny = y + s;
+      leftEnd[k] = ny;
       let c: number; // the piece now under k's bottom
       if (s === w) {
         last[k] = 1;
@@ -264,6 +288,7 @@ export class TilingCore {
         kh[c] = k;
         kt[c] = k;
         const r = kn[c]!;
+        rightNb[k] = r >= 0 ? kh[r]! : -1;
         if (r >= 0 && ky[r] === ny) {
           kw[c] = w + kw[r]!;
           nextMember[k] = kh[r]!;
@@ -306,22 +331,25 @@ export class TilingCore {
     if (kn[head]! >= 0 || (H > 0 && ky[head] !== H)) return DECODE_FAILED; // incomplete
     this.H = ky[head]!;
     seg++;
+    segHead[seg] = kh[head]!;
+    segY[seg] = this.H;
+    segStart[seg] = 0;
+    segEnd[seg] = W;
     for (let m = kh[head]!; m >= 0; m = nextMember[m]!) botSeg[m] = seg;
     this.segCount = seg + 1;
     this.finishSegments();
     return 0;
   }
 
-  /** Vertical segment ends from the chains (after decode). */
+  /** The chains of left sides downwards and their bottom ends (after decode; a square's chain successor comes later). */
   private finishSegments(): void {
-    const { n, xs, ss, W, up, down, last, tailAbove, chainTop, leftEnd, rightStart, ys } = this;
-    for (let k = 0; k < n; k++) down[k] = -1;
-    for (let k = 0; k < n; k++) if (up[k]! >= 0) down[up[k]!] = k;
-    for (let k = n - 1; k >= 0; k--) leftEnd[k] = down[k]! >= 0 ? leftEnd[down[k]!]! : ys[k]! + ss[k]!;
-    for (let k = 0; k < n; k++) {
-      if (!last[k]) rightStart[k] = chainTop[k + 1]!;
-      else if (xs[k]! + ss[k]! === W || tailAbove[k]! < 0) rightStart[k] = 0;
-      else rightStart[k] = rightStart[tailAbove[k]!]!;
+    const { n, up, down, leftEnd } = this;
+    for (let k = n - 1; k > 0; k--) {
+      const u = up[k]!;
+      if (u >= 0) {
+        down[u] = k;
+        leftEnd[u] = leftEnd[k]!;
+      }
     }
   }
 
@@ -367,18 +395,27 @@ export class TilingCore {
 
   /** The squares as a tiling (reading order). */
   tiling(): Tiling {
+    const { n, xs, ys, ss } = this;
     const squares: { x: number; y: number; s: number }[] = [];
-    for (let i = 0; i < this.n; i++) squares.push({ x: this.xs[i]!, y: this.ys[i]!, s: this.ss[i]! });
+    // small integers (|0 below 2^31) are stored unboxed in the objects' fields
+    for (let i = 0; i < n; i++) squares.push({ x: small(xs[i]!), y: small(ys[i]!), s: small(ss[i]!) });
     return { W: this.W, H: this.H, squares };
   }
 
   /** Visits the proper sub-rectangles of >= 2 squares; stops when visit returns false. */
   subRectangles(visit: (x: number, y: number, w: number, h: number) => boolean): void {
-    const { n, xs, ys, ss, W, H, topEnd, botStart, leftEnd, rightStart } = this;
+    const { n, xs, ys, ss, W, H, up, last, tailAbove, chainTop, leftEnd, rightStart, topSeg, botSeg, segStart, segEnd } = this;
+    // the top ends of the segments through the squares' left and right sides
+    for (let k = 0; k < n; k++) chainTop[k] = up[k]! >= 0 ? chainTop[up[k]!]! : ys[k]!;
+    for (let k = 0; k < n; k++) {
+      if (!last[k]) rightStart[k] = chainTop[k + 1]!;
+      else if (xs[k]! + ss[k]! === W || tailAbove[k]! < 0) rightStart[k] = 0;
+      else rightStart[k] = rightStart[tailAbove[k]!]!;
+    }
     for (let i = 0; i < n; i++) {
       const x1 = xs[i]!;
       const y1 = ys[i]!;
-      const te = topEnd[i]!;
+      const te = segEnd[topSeg[i]!]!;
       const le = leftEnd[i]!;
       for (let j = i + 1; j < n; j++) {
         const yj = ys[j]!;
@@ -386,29 +423,40 @@ export class TilingCore {
         const x2 = xs[j]! + ss[j]!;
         if (x2 <= x1 || x2 > te) continue;
         const y2 = yj + ss[j]!;
-        if (y2 > le || botStart[j]! > x1 || rightStart[j]! > y1) continue;
+        if (y2 > le || segStart[botSeg[j]!]! > x1 || rightStart[j]! > y1) continue;
         if (x1 === 0 && y1 === 0 && x2 === W && y2 === H) continue;
         if (!visit(x1, y1, x2 - x1, y2 - y1)) return;
       }
     }
   }
 
+  /**
+   * True when no proper sub-rectangle of two or more squares is a union of squares. Such a
+   * rectangle with top-left corner at square i has its right side at the right end of a square
+   * g of i's group (g >= i: the squares under its top side) and its bottom at the bottom of a
+   * square c of the chain of left sides down from i (the squares along its left side); it is a
+   * union of squares when the segment through c's bottom reaches x2 and the one through g's
+   * right side reaches y2 (the top and left sides lie in segments by construction).
+   */
   isSimple(): boolean {
-    const { n, xs, ys, ss, W, H, topEnd, botStart, leftEnd, rightStart } = this;
+    const { n, xs, ys, ss, W, H, last, down, leftEnd, rightNb, rightEnd, botSeg, segEnd } = this;
+    for (let g = 0; g < n; g++) {
+      if (!last[g]) rightEnd[g] = leftEnd[g + 1]!;
+      else if (xs[g]! + ss[g]! === W || rightNb[g]! < 0) rightEnd[g] = H;
+      else rightEnd[g] = leftEnd[rightNb[g]!]!;
+    }
     for (let i = 0; i < n; i++) {
       const x1 = xs[i]!;
       const y1 = ys[i]!;
-      const te = topEnd[i]!;
-      const le = leftEnd[i]!;
-      for (let j = i + 1; j < n; j++) {
-        const yj = ys[j]!;
-        if (yj >= le) break;
-        const x2 = xs[j]! + ss[j]!;
-        if (x2 <= x1 || x2 > te) continue;
-        const y2 = yj + ss[j]!;
-        if (y2 > le || botStart[j]! > x1 || rightStart[j]! > y1) continue;
-        if (x1 === 0 && y1 === 0 && x2 === W && y2 === H) continue;
-        return false;
+      for (let c = i; c >= 0; c = down[c]!) {
+        const y2 = ys[c]! + ss[c]!;
+        const be = segEnd[botSeg[c]!]!;
+        for (let g = i; g < n; g++) {
+          const x2 = xs[g]! + ss[g]!;
+          if (x2 > be) break;
+          if (rightEnd[g]! >= y2 && (c !== i || g !== i) && !(x1 === 0 && y1 === 0 && x2 === W && y2 === H)) return false;
+          if (last[g]) break;
+        }
       }
     }
     return true;
@@ -494,46 +542,126 @@ export class TilingCore {
     return 0;
   }
 
+  /** The chains of right sides: per square the square above with the same right end (or -1) and the one below. */
+  private rightChains(): void {
+    const { n, xs, ss, last, topSeg, segHead, nextMember, upR, downR } = this;
+    for (let k = 0; k < n; k++) downR[k] = -1;
+    let mq = -1;
+    for (let k = 0; k < n; k++) {
+      // the members above k's group, left to right (their right ends increase)
+      if (k === 0 || last[k - 1]) mq = segHead[topSeg[k]!]!;
+      const r = xs[k]! + ss[k]!;
+      while (mq >= 0 && xs[mq]! + ss[mq]! < r) mq = nextMember[mq]!;
+      if (mq >= 0 && xs[mq]! + ss[mq]! === r) {
+        upR[k] = mq;
+        downR[mq] = k;
+      } else upR[k] = -1;
+    }
+  }
+
   /**
-   * The reading order of orientation o into out[0..n): after transposing (x' = y, y' = x) and
-   * flipping, the result is read by y'' then x''; y'' comes from the original y (x when
-   * transposed), reversed by a flip of y, and x'' from the original x (y), reversed by a flip of x.
+   * The reading order of orientation o into out[0..n) and its bracket groups (gs[k] = 1 where a
+   * group starts), without sorting the squares. After transposing (x' = y, y' = x) and flipping,
+   * the rows of the reading order are the maximal segments through the squares' tops (no
+   * transpose, no flip of y: the decode's groups), their bottoms (flip of y: the member lists),
+   * their left sides (transpose: the chains of left sides) or their right sides (transpose and
+   * flip of y: the chains of right sides); a flip of x reverses each row. Horizontal segments
+   * come from the decode in order (y, then x); only the vertical ones are sorted (about n / 2).
    */
-  private orientationOrder(o: number, out: Int32Array): void {
+  private orientationLines(o: number, out: Int32Array, gs: Uint8Array): void {
     const [tr, fx, fy] = ORIENTATIONS[o]!;
-    const { n, ss, keys } = this;
+    const { n, xs, ys, ss, last } = this;
     if (!tr && !fy) {
-      // rows of the reading order, each reversed by a flip of x
       for (let a = 0; a < n; ) {
         let b = a + 1;
-        while (b < n && this.ys[b] === this.ys[a]) b++;
-        for (let k = a; k < b; k++) out[k] = fx ? a + b - 1 - k : k;
+        while (b < n && ys[b] === ys[a]) b++;
+        for (let k = a; k < b; k++) {
+          if (fx) {
+            const i = a + b - 1 - k;
+            out[k] = i;
+            gs[k] = last[i]!;
+          } else {
+            out[k] = k;
+            gs[k] = k === a ? 1 : last[k - 1]!;
+          }
+        }
         a = b;
       }
       return;
     }
-    const rowBy = tr ? this.xs : this.ys;
-    const inBy = tr ? this.ys : this.xs;
-    const rowMax = tr ? this.W : this.H;
-    const inMax = tr ? this.H : this.W;
-    const span = inMax + 1;
-    if ((rowMax + 1) * span * n < P52) {
-      for (let i = 0; i < n; i++) {
-        const r = fy ? rowMax - (rowBy[i]! + ss[i]!) : rowBy[i]!;
-        const c = fx ? inMax - (inBy[i]! + ss[i]!) : inBy[i]!;
-        keys[i] = r * span + c;
+    let p = 0;
+    if (!tr) {
+      // segments 1.. (0 is the top edge) by y descending, then x ascending (descending with fx)
+      const { segHead, segY, nextMember } = this;
+      for (let hi = this.segCount - 1; hi >= 1; ) {
+        let lo = hi;
+        while (lo > 1 && segY[lo - 1] === segY[hi]) lo--;
+        for (let t = lo; t <= hi; t++) {
+          const sg = fx ? lo + hi - t : t;
+          const start = p;
+          for (let m = segHead[sg]!; m >= 0; m = nextMember[m]!) {
+            out[p] = m;
+            gs[p] = 0;
+            p++;
+          }
+          gs[start] = 1;
+          if (fx) reverseRange(out, start, p);
+        }
+        hi = lo - 1;
       }
-      sortIndex(keys, n, out, this.keys2);
+      return;
+    }
+    let chainUp: Int32Array;
+    let chainDown: Int32Array;
+    if (fy) {
+      this.rightChains();
+      chainUp = this.upR;
+      chainDown = this.downR;
     } else {
-      const idx = Array.from({ length: n }, (_, i) => i);
-      const rk = (i: number) => (fy ? -(rowBy[i]! + ss[i]!) : rowBy[i]!);
-      const ck = (i: number) => (fx ? -(inBy[i]! + ss[i]!) : inBy[i]!);
-      idx.sort((a, b) => rk(a) - rk(b) || ck(a) - ck(b));
-      for (let k = 0; k < n; k++) out[k] = idx[k]!;
+      chainUp = this.up;
+      chainDown = this.down;
+    }
+    const { heads, perm, keys, W, H } = this;
+    let m = 0;
+    for (let k = 0; k < n; k++) if (chainUp[k]! < 0) heads[m++] = k;
+    // rows: the left x (W minus the right x with fy); in a row, by the top y
+    const span = H + 1;
+    if ((W + 1) * span * m < P52) {
+      for (let j = 0; j < m; j++) {
+        const k = heads[j]!;
+        keys[j] = (fy ? W - xs[k]! - ss[k]! : xs[k]!) * span + ys[k]!;
+      }
+      sortIndex(keys, m, perm, this.keys2);
+    } else {
+      const rowOf = (k: number) => (fy ? W - xs[k]! - ss[k]! : xs[k]!);
+      const idx = Array.from({ length: m }, (_, j) => j);
+      idx.sort((a, b) => rowOf(heads[a]!) - rowOf(heads[b]!) || ys[heads[a]!]! - ys[heads[b]!]!);
+      for (let j = 0; j < m; j++) perm[j] = idx[j]!;
+    }
+    for (let a = 0; a < m; ) {
+      const ka = heads[perm[a]!]!;
+      const ra = fy ? xs[ka]! + ss[ka]! : xs[ka]!;
+      let b = a + 1;
+      while (b < m) {
+        const kb = heads[perm[b]!]!;
+        if ((fy ? xs[kb]! + ss[kb]! : xs[kb]!) !== ra) break;
+        b++;
+      }
+      for (let t = a; t < b; t++) {
+        const start = p;
+        for (let k = heads[perm[fx ? a + b - 1 - t : t]!]!; k >= 0; k = chainDown[k]!) {
+          out[p] = k;
+          gs[p] = 0;
+          p++;
+        }
+        gs[start] = 1;
+        if (fx) reverseRange(out, start, p);
+      }
+      a = b;
     }
   }
 
-  /** The canonical orientation's index; its reading order in this.best. */
+  /** The canonical orientation's index; its reading order in this.best, its groups in this.gsA. */
   private canonicalOrientation(): number {
     const { n, ss, W, H } = this;
     // first sizes (the top-left corner squares) of the orientations with W >= H
@@ -550,26 +678,37 @@ export class TilingCore {
       if (f > top) top = f;
     }
     let chosen = -1;
-    const best = this.best;
-    const order = this.order;
+    let best = this.best;
+    let bestGs = this.gsA;
+    let cand = this.order;
+    let candGs = this.gsB;
     for (let o = 0; o < 8; o++) {
       if (firsts[o] !== top) continue;
       if (chosen < 0) {
         chosen = o;
-        this.orientationOrder(o, best);
+        this.orientationLines(o, best, bestGs);
         continue;
       }
-      this.orientationOrder(o, order);
+      this.orientationLines(o, cand, candGs);
       for (let k = 1; k < n; k++) {
-        const d = ss[order[k]!]! - ss[best[k]!]!;
+        const d = ss[cand[k]!]! - ss[best[k]!]!;
         if (d === 0) continue;
         if (d > 0) {
           chosen = o;
-          best.set(order.subarray(0, n));
+          const t = best;
+          best = cand;
+          cand = t;
+          const g = bestGs;
+          bestGs = candGs;
+          candGs = g;
         }
         break;
       }
     }
+    this.best = best;
+    this.gsA = bestGs;
+    this.order = cand;
+    this.gsB = candGs;
     return chosen;
   }
 
@@ -577,37 +716,129 @@ export class TilingCore {
   canonical(withTiling: boolean): { code: string; key: string; tiling: Tiling | null } {
     const o = this.canonicalOrientation();
     const [tr, fx, fy] = ORIENTATIONS[o]!;
-    const { n, xs, ys, ss, best } = this;
+    const { n, xs, ys, ss, best, gsA: gs } = this;
     const W2 = tr ? this.H : this.W;
     const H2 = tr ? this.W : this.H;
-    // code "n W H (a,b)(c)...", key "WxH:a,b,c" (string concatenation is the engine's cheapest way)
-    let code = `${n} ${W2} ${H2} `;
-    let key = `${W2}x${H2}:`;
-    const squares: { x: number; y: number; s: number }[] | null = withTiling ? [] : null;
-    let px = -1;
-    let py = -1;
-    let ps = 0;
-    for (let k = 0; k < n; k++) {
-      const i = best[k]!;
-      const s = ss[i]!;
-      let x = tr ? ys[i]! : xs[i]!;
-      let y = tr ? xs[i]! : ys[i]!;
-      if (fx) x = W2 - x - s;
-      if (fy) y = H2 - y - s;
-      if (k === 0) {
-        code += `(${s}`;
-        key += `${s}`;
-      } else {
-        code += y === py && px + ps === x ? `,${s}` : `)(${s}`;
-        key += `,${s}`;
+    let squares: { x: number; y: number; s: number }[] | null = null;
+    if (withTiling) {
+      squares = [];
+      for (let k = 0; k < n; k++) {
+        const i = best[k]!;
+        const s = ss[i]!;
+        let x = tr ? ys[i]! : xs[i]!;
+        let y = tr ? xs[i]! : ys[i]!;
+        if (fx) x = W2 - x - s;
+        if (fy) y = H2 - y - s;
+        squares.push({ x, y, s });
       }
-      if (squares) squares.push({ x, y, s });
-      px = x;
-      py = y;
-      ps = s;
     }
-    if (n > 0) code += ')';
-    return { code, key, tiling: squares ? { W: W2, H: H2, squares } : null };
+    const tiling = squares ? { W: W2, H: H2, squares } : null;
+    // code "n W H (a,b)(c)...", key "WxH:a,b,c": for a longer code, digits written into byte
+    // buffers when every number is an integer below 10^15 (always, for a code read or a verified
+    // tiling); string concatenation for short codes (cheaper below about 16 squares)
+    let plain = n >= 16 && isPlain(W2) && isPlain(H2);
+    for (let k = 0; k < n && plain; k++) plain = isPlain(ss[k]!);
+    if (!plain) {
+      let code = `${n} ${W2} ${H2} `;
+      let key = `${W2}x${H2}:`;
+      for (let k = 0; k < n; k++) {
+        const s = ss[best[k]!]!;
+        code += k === 0 ? `(${s}` : gs[k] ? `)(${s}` : `,${s}`;
+        key += k === 0 ? `${s}` : `,${s}`;
+      }
+      if (n > 0) code += ')';
+      return { code, key, tiling };
+    }
+    const cb = this.codeBuf;
+    const kb = this.keyBuf;
+    let p = putNum(cb, 0, n);
+    cb[p++] = 32;
+    p = putNum(cb, p, W2);
+    cb[p++] = 32;
+    p = putNum(cb, p, H2);
+    cb[p++] = 32;
+    let q = putNum(kb, 0, W2);
+    kb[q++] = 120; // x
+    q = putNum(kb, q, H2);
+    kb[q++] = 58; // :
+    for (let k = 0; k < n; k++) {
+      if (k === 0) cb[p++] = 40;
+      else {
+        if (gs[k]) {
+          cb[p++] = 41;
+          cb[p++] = 40;
+        } else cb[p++] = 44;
+        kb[q++] = 44;
+      }
+      const len = putNum2(cb, p, kb, q, ss[best[k]!]!);
+      p += len;
+      q += len;
+    }
+    if (n > 0) cb[p++] = 41;
+    return { code: TEXT.decode(cb.subarray(0, p)), key: TEXT.decode(kb.subarray(0, q)), tiling };
+  }
+}
+
+const TEXT = new TextDecoder();
+
+/** A non-negative integer below 10^15 (written digit by digit). */
+function isPlain(v: number): boolean {
+  return v >= 0 && v < 1e15 && Math.floor(v) === v;
+}
+
+/** The value as an int32 when it is one (the engine then keeps it unboxed), else itself. */
+function small(v: number): number {
+  return v <= 0x7fffffff && v >= 0 && (v | 0) === v ? v | 0 : v;
+}
+
+/** Writes the decimal digits of a plain number at b[p..); returns the end. */
+function putNum(b: Uint8Array, p: number, v: number): number {
+  if (v < 2147483648) {
+    let x = v | 0;
+    let len = 1;
+    for (let t = 10; t <= x && len < 10; t *= 10) len++;
+    for (let i = p + len - 1; i >= p; i--) {
+      const d = (x / 10) | 0;
+      b[i] = 48 + x - d * 10;
+      x = d;
+    }
+    return p + len;
+  }
+  let len = 1;
+  for (let t = 10; t <= v; t *= 10) len++;
+  for (let i = p + len - 1; i >= p; i--) {
+    const d = Math.floor(v / 10);
+    b[i] = 48 + v - d * 10;
+    v = d;
+  }
+  return p + len;
+}
+
+/** Writes the decimal digits of a plain number at a[p..) and b[q..); returns their count. */
+function putNum2(a: Uint8Array, p: number, b: Uint8Array, q: number, v: number): number {
+  if (v < 2147483648) {
+    let x = v | 0;
+    let len = 1;
+    for (let t = 10; t <= x && len < 10; t *= 10) len++;
+    for (let i = len - 1; i >= 0; i--) {
+      const d = (x / 10) | 0;
+      const ch = 48 + x - d * 10;
+      a[p + i] = ch;
+      b[q + i] = ch;
+      x = d;
+    }
+    return len;
+  }
+  const len = putNum(a, p, v) - p;
+  for (let i = 0; i < len; i++) b[q + i] = a[p + i]!;
+  return len;
+}
+
+function reverseRange(a: Int32Array, from: number, to: number): void {
+  for (let i = from, j = to - 1; i < j; i++, j--) {
+    const t = a[i]!;
+    a[i] = a[j]!;
+    a[j] = t;
   }
 }
 
