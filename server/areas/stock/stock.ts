@@ -31,7 +31,7 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   // a scaled copy of a stock tiling is no new tiling either (issue 16)
   const scaled = findStockByReducedKey(tx, f.reducedKey);
   if (scaled) return { id: scaled.id, created: false, canonicalKey: f.canonicalKey, scale: scaleText(f.gcd, gcdOfKey(scaled.canonicalKey)) };
-  noteStockWrite();
+  noteStockWrite(input.background ? 'background' : 'people');
   const acceptedAt = input.acceptedAt ?? (input.provenance === 'setter' ? new Date() : null);
   const id = prepared(c, insertStockSql)
     .pluck()
@@ -144,7 +144,9 @@ const sortColumns = {
  * read (decision 052).
  */
 const LIST_TTL_MS = 5_000;
-const listCache = new WeakMap<object, Map<string, { value: StockList; generation: number; at: number }>>();
+/** How late a list may show results a job stores (a foundry run storing thousands would otherwise empty the cache with each slice). */
+const BACKGROUND_LAG_MS = 1_000;
+const listCache = new WeakMap<object, Map<string, { value: StockList; generation: ReturnType<typeof stockGeneration>; at: number }>>();
 
 export function listStock(db: Db, q: StockListQuery): StockList {
   // the same page of the same view (editors page back and forth) is answered from memory until
@@ -154,10 +156,11 @@ export function listStock(db: Db, q: StockListQuery): StockList {
   if (!perDb) listCache.set(db, (perDb = new Map()));
   const hit = perDb.get(key);
   const now = Date.now();
-  if (hit && hit.generation === stockGeneration() && now - hit.at < LIST_TTL_MS) return hit.value;
+  const gen = stockGeneration();
+  if (hit && hit.generation.people === gen.people && now - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
   const value = listStockUncached(db, q);
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-  perDb.set(key, { value, generation: stockGeneration(), at: now });
+  perDb.set(key, { value, generation: gen, at: now });
   return value;
 }
 
