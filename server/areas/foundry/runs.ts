@@ -35,7 +35,7 @@ export function storeItems(stock: StockPort, tx: DbOrTx, runId: string, params: 
     const it = parseItem(runId, raw);
     // exhaustive runs list every simple tiling; only the perfect ones go into the stock unless the run asked for imperfect ones too (issue 16)
     const toStock = it.perfect || params.mode !== 'exhaustive' || params.includeImperfect;
-    const s = toStock ? stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin } }) : { id: null, created: false };
+    const s = toStock ? stock.add(tx, { tiling: it.tiling, provenance: 'foundry', params: { runId, ...params, origin: it.origin }, background: true }) : { id: null, created: false };
     // a prepared statement, not Drizzle: this runs once per result on the request thread (issue 14)
     prepared(connectionOf(tx), insertResultSql).run(
       runId,

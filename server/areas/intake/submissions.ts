@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
+import { connectionOf, prepared } from '../../platform/db/statements';
 import type { Role } from '../../../shared/contracts/common';
 import type {
   BulkReview,
@@ -353,11 +354,8 @@ export function sameTilingAs(stock: StockPort, db: DbOrTx, r: Pick<Row, 'id' | '
 
 /** Accepted submissions of a stock tiling, oldest first: the stock's history (see SubmissionHistory in ../stock/ports.ts). */
 export const submissionHistory: SubmissionHistory = {
+  // a prepared statement: this runs for every stock detail (issue 14)
   acceptedFor: (db, stockId) =>
-    db
-      .select({ submissionId: submission.id, submittedAt: submission.createdAt, acceptedAt: submission.reviewedAt })
-      .from(submission)
-      .where(and(eq(submission.stockId, stockId), eq(submission.status, 'accepted')))
-      .orderBy(asc(submission.createdAt))
-      .all(),
+    (prepared(connectionOf(db), "select id as submissionId, created_at as submittedAt, reviewed_at as acceptedAt from submission where stock_id = ? and status = 'accepted' order by created_at asc").all(stockId) as { submissionId: number; submittedAt: number; acceptedAt: number | null }[])
+      .map((r) => ({ submissionId: r.submissionId, submittedAt: new Date(r.submittedAt), acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt) })),
 };

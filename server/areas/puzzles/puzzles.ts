@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, ne, sql, type SQL } from 'drizzle-orm';
+import { connectionOf, prepared } from '../../platform/db/statements';
 import type { SessionUser } from '../../../shared/contracts/auth';
 import {
   type PuzzleCreate,
@@ -445,12 +446,14 @@ export function createPuzzleSource(stockPort: StockPort): PuzzleSource {
 /** The stock's history and summary (StockUsage in ../stock/ports.ts): puzzles made from a tiling, the editions they went into, counts by grade. */
 export function createStockUsage(editionUsage: EditionUsage): StockUsage {
   return {
+    // prepared statements: these run for every stock detail (issue 14)
     puzzlesFor: (db, stockId) =>
-      db.select({ id: puzzle.id, kind: puzzle.kind, grade: puzzle.grade, createdAt: puzzle.createdAt }).from(puzzle).where(eq(puzzle.stockId, stockId)).orderBy(asc(puzzle.createdAt)).all()
-        .map((p) => ({ id: p.id, kind: p.kind, grade: p.grade, createdAt: p.createdAt.toISOString() })),
+      (prepared(connectionOf(db), 'select id, kind, grade, created_at as createdAt from puzzle where stock_id = ? order by created_at asc, id asc').all(stockId) as { id: number; kind: 'assembly' | 'deduction'; grade: number | null; createdAt: number }[])
+        .map((p) => ({ id: p.id, kind: p.kind, grade: p.grade, createdAt: new Date(p.createdAt).toISOString() })),
     // editions whose slots hold a puzzle made from this tiling, one entry per edition
     editionsFor: (db, stockId) => {
-      const ids = db.select({ id: puzzle.id }).from(puzzle).where(eq(puzzle.stockId, stockId)).all().map((r) => r.id);
+      const ids = prepared(connectionOf(db), 'select id from puzzle where stock_id = ?').pluck().all(stockId) as number[];
+      if (ids.length === 0) return [];
       const seen = new Set<string>();
       return editionUsage
         .usesOf(db, ids)

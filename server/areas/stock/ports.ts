@@ -14,6 +14,8 @@ export interface AddToStockInput {
   setterId?: string | null;
   params?: Record<string, unknown> | null;
   acceptedAt?: Date | null;
+  /** stored by a job (a foundry run's results), not by someone's action: lists may show it up to a second late */
+  background?: boolean;
 }
 
 export interface AddToStockResult {

@@ -103,11 +103,15 @@ export function stockWhere(f: StockFilter): SQL | undefined {
 type Sqlite = Db['$client'];
 export { prepared };
 
-/** Bumped by every write of the stock service (the list's page cache follows it). */
-let generation = 0;
-export const stockGeneration = () => generation;
-export function noteStockWrite(): void {
-  generation++;
+/**
+ * Bumped by every write of the stock service (the list's page cache follows it): `people` by
+ * what someone does (accepting a submission, a puzzle made or dropped), `background` by results
+ * a job stores (a foundry run adds thousands, one slice after another).
+ */
+const generations = { people: 0, background: 0 };
+export const stockGeneration = (): Readonly<typeof generations> => ({ ...generations });
+export function noteStockWrite(by: 'people' | 'background' = 'people'): void {
+  generations[by]++;
 }
 
 /**

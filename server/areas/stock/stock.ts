@@ -31,7 +31,7 @@ export function addToStock(tx: DbOrTx, input: AddToStockInput): AddToStockResult
   // a scaled copy of a stock tiling is no new tiling either (issue 16)
   const scaled = findStockByReducedKey(tx, f.reducedKey);
   if (scaled) return { id: scaled.id, created: false, canonicalKey: f.canonicalKey, scale: scaleText(f.gcd, gcdOfKey(scaled.canonicalKey)) };
-  noteStockWrite();
+  noteStockWrite(input.background ? 'background' : 'people');
   const acceptedAt = input.acceptedAt ?? (input.provenance === 'setter' ? new Date() : null);
   const id = prepared(c, insertStockSql)
     .pluck()
@@ -144,7 +144,9 @@ const sortColumns = {
  * read (decision 052).
  */
 const LIST_TTL_MS = 5_000;
-const listCache = new WeakMap<object, Map<string, { value: StockList; generation: number; at: number }>>();
+/** How late a list may show results a job stores (a foundry run storing thousands would otherwise empty the cache with each slice). */
+const BACKGROUND_LAG_MS = 1_000;
+const listCache = new WeakMap<object, Map<string, { value: StockList; generation: ReturnType<typeof stockGeneration>; at: number }>>();
 
 export function listStock(db: Db, q: StockListQuery): StockList {
   // the same page of the same view (editors page back and forth) is answered from memory until
@@ -154,10 +156,11 @@ export function listStock(db: Db, q: StockListQuery): StockList {
   if (!perDb) listCache.set(db, (perDb = new Map()));
   const hit = perDb.get(key);
   const now = Date.now();
-  if (hit && hit.generation === stockGeneration() && now - hit.at < LIST_TTL_MS) return hit.value;
+  const gen = stockGeneration();
+  if (hit && hit.generation.people === gen.people && now - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
   const value = listStockUncached(db, q);
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-  perDb.set(key, { value, generation: stockGeneration(), at: now });
+  perDb.set(key, { value, generation: gen, at: now });
   return value;
 }
 
@@ -235,14 +238,24 @@ export function stockTiling(db: DbOrTx, id: number): StockTiling {
 
 /** params_json: how the tiling was made (AddToStockInput.params), read only here. */
 
+const detailSql =
+  'select id, canonical_key as canonicalKey, canonical_code as canonicalCode, width, height, "order", square, perfect, simple, provenance, ' +
+  'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt, squares_json as squaresJson, params_json as paramsJson from stock where id = ?';
+type DetailRow = Omit<ListRow, 'square' | 'perfect' | 'simple'> & { canonicalKey: string; canonicalCode: string; square: number; perfect: number; simple: number; paramsJson: string | null };
+
 export function getStockDetail(deps: { db: DbOrTx; stockUsage: StockUsage; submissionHistory: SubmissionHistory }, id: number): StockDetail {
   const { db, stockUsage: usage } = deps;
-  const r = db
-    .select({ ...itemColumns, squaresJson: stock.squaresJson, paramsJson: stock.paramsJson })
-    .from(stock)
-    .where(eq(stock.id, id))
-    .get();
-  if (!r) throw new NotFound(`stock tiling ${id} does not exist`);
+  // a prepared statement, not Drizzle: building the query was half the cost of a detail (issue 14)
+  const raw = prepared(connectionOf(db), detailSql).get(id) as DetailRow | undefined;
+  if (!raw) throw new NotFound(`stock tiling ${id} does not exist`);
+  const r = {
+    ...raw,
+    square: raw.square === 1,
+    perfect: raw.perfect === 1,
+    simple: raw.simple === 1,
+    createdAt: new Date(raw.createdAt),
+    acceptedAt: raw.acceptedAt === null ? null : new Date(raw.acceptedAt),
+  };
   const { squaresJson, paramsJson, ...item } = r;
   // the stored orientation is the canonical one: its Bouwkamp code is the canonical code
   const tiling = storedTiling('stock', { ...r, squaresJson });
