@@ -2,9 +2,9 @@
 // load generator never shares its event loop). A production-mode app on a fresh DATA_DIR with
 // BENCH_STOCK tilings (default 50,000), job threads as `npm start` has them (JOB_WORKERS
 // default). It answers the parent over IPC:
-//   { type: 'mark' }    -> { type: 'usage', cpuMs, mainBusyMs, wallMs, loopP99Ms, loopMaxMs } since the last mark
+//   { type: 'mark' }    -> { type: 'usage', cpuMs, mainBusyMs, wallMs, loopP99Ms, loopMaxMs, serverP95Ms, serverP99Ms, serverMaxMs } since the last mark
 //                          (process CPU of all its threads; main-thread busy time from the event
-//                          loop's utilisation)
+//                          loop's utilisation; server* = time of each GET inside the server but the export's)
 //   { type: 'render' }  -> a 12-puzzle A4 proof rendered on a job worker, as the proof route does
 //                          -> { type: 'rendered', ms, pages, bytes }
 //   { type: 'jobs' }    -> { type: 'jobs', jobs: [{ kind, state, progress }] }
@@ -44,7 +44,17 @@ const seedMs = Date.now() - t0;
 for (const [email, role] of [['bench-editor@test.squarewright.test', 'editor'], ['bench-setter@test.squarewright.test', 'setter']] as const) {
   await deps.auth.api.createUser({ body: { email, password: 'bench-password-123', name: `Bench ${role}`, role } });
 }
-const server = http.createServer(createApp(deps));
+const app = createApp(deps);
+// the server's own view of each request: from its arrival in JavaScript to the last byte handed
+// to the socket (what the load generator measures beyond this is queueing before the request
+// was read, in the kernel and in the generator itself)
+let inServer: number[] = [];
+const server = http.createServer((req, res) => {
+  const t0 = performance.now();
+  // the driven routes only (not the export, the upload or the run being started)
+  if (req.method === 'GET' && !req.url?.startsWith('/api/stock/export')) res.on('finish', () => inServer.push(performance.now() - t0));
+  app(req, res);
+});
 server.keepAliveTimeout = 120_000;
 await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
 // the renderer loaded on a job thread first, as the production server does a few seconds after start
@@ -63,7 +73,10 @@ process.on('message', (m: { type: string }) => {
       const c = process.cpuUsage(cpu);
       const e = performance.eventLoopUtilization(elu);
       const now = performance.now();
-      send({ type: 'usage', cpuMs: (c.user + c.system) / 1000, mainBusyMs: e.active, wallMs: now - at, loopP99Ms: delay.percentile(99) / 1e6, loopMaxMs: delay.max / 1e6 });
+      const sorted = inServer.sort((a, b) => a - b);
+      const pct = (p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]! : NaN);
+      send({ type: 'usage', cpuMs: (c.user + c.system) / 1000, mainBusyMs: e.active, wallMs: now - at, loopP99Ms: delay.percentile(99) / 1e6, loopMaxMs: delay.max / 1e6, serverP95Ms: pct(95), serverP99Ms: pct(99), serverMaxMs: sorted[sorted.length - 1] ?? NaN });
+      inServer = [];
       delay.reset();
       cpu = process.cpuUsage();
       elu = performance.eventLoopUtilization();

@@ -1,6 +1,6 @@
 // Load bench (`npm run bench -- load`): does heavy work stall the desk? The server runs in its
 // own process (bench/load-server.ts, production mode, job threads as `npm start` has them) with
-// 50,000 tilings in stock; the load generator is autocannon in this process (see drive). 200 requests a
+// 50,000 tilings in stock; the load generator is autocannon in a third process doing nothing else (bench/load-driver.ts; this one sends the upload and reads the export). 200 requests a
 // second for 30 s: 120/s on the stock list (five filter shapes, random pages, so not only cached
 // answers), 60/s on stock details (random ids), 20/s on /api/health; first idle, then WHILE
 // - a 5 MB upload of long codes (1,300 lines of ~1,900 squares each) is checked and stored,
@@ -10,17 +10,19 @@
 // Prints p50/p95/p99/max per route and case, the server's CPU time per request (all its
 // threads) and its main thread's busy time per request. Target under the heavy work: p95 < 50 ms,
 // p99 < 100 ms, max < 250 ms. BENCH_QUICK=1: 5,000 tilings and 10 s per case. BENCH_SERVER_PROF=<dir>
-// writes the server's CPU profiles (V8 .cpuprofile, one a thread) into <dir>.
+// writes the server's CPU profiles (V8 .cpuprofile, one a thread) into <dir>; BENCH_TRACE_GC=1
+// runs the server with --trace-gc; BENCH_SLOW=1 has the load generator list every answer over
+// 100 ms with its time into the case (slow answers that come together point at a pause).
 import { fork, type ChildProcess } from 'node:child_process';
 import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
-import autocannon from 'autocannon';
 import { longCodeFile } from '../tests/fixtures/long-codes';
 
 const quick = process.env.BENCH_QUICK === '1';
 const STOCK = Number(process.env.BENCH_STOCK ?? (quick ? 5_000 : 50_000));
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 10 : 30));
 const ORIGIN = 'http://localhost:3000';
+const warmUp = ['/api/stock?orderMin=22&orderMax=30', '/api/stock?provenance=foundry&sort=-width', '/api/stock?perfect=true&simple=true&used=unused&sort=order', '/api/stock?widthMin=1000&heightMax=400000&sort=-createdAt&pageSize=50', '/api/stock?square=false&orderMin=30'];
 
 type Msg = { type: string } & Record<string, unknown>;
 
@@ -36,76 +38,23 @@ function ask<T extends Msg>(child: ChildProcess, m: Msg, answer: string): Promis
   });
 }
 
-function percentile(sorted: number[], p: number): number {
-  if (sorted.length === 0) return NaN;
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!;
-}
-
-// a fixed pseudo-random sequence (mulberry32, seed 14) so runs are comparable
-let s = 14;
-const rnd = () => {
-  s = (s + 0x6d2b79f5) | 0;
-  let t = Math.imul(s ^ (s >>> 15), 1 | s);
-  t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-};
-const filters = [
-  () => `/api/stock?orderMin=${20 + Math.floor(rnd() * 8)}&orderMax=${28 + Math.floor(rnd() * 8)}&page=${1 + Math.floor(rnd() * 20)}`,
-  () => `/api/stock?provenance=foundry&sort=-width&page=${1 + Math.floor(rnd() * 50)}`,
-  () => `/api/stock?perfect=true&simple=true&used=unused&sort=order&page=${1 + Math.floor(rnd() * 5)}`,
-  () => `/api/stock?widthMin=${Math.floor(rnd() * 500000)}&heightMax=400000&sort=-createdAt&pageSize=50`,
-  () => `/api/stock?square=false&orderMin=30&page=${1 + Math.floor(rnd() * 10)}`,
-];
 
 interface Row { route: string; n: number; p50: number; p95: number; p99: number; max: number; bad: number }
+type DriverLoop = { loopP99Ms: number; loopMaxMs: number; cpuMs: number };
 
-/**
- * 200 requests a second, spread over the second as independent users would send them, for
- * SECONDS; latency of every answer. autocannon's rate limit lets each connection send its
- * whole quota for the second at once, at the same tick for every connection, so one instance
- * with 12 connections at 120/s is a burst of 120 requests at the start of each second (it
- * measured the queue behind that burst: p50 ~30 ms on an idle server answering in 2 ms). So
- * each route is driven by rate/2 autocannon instances of one connection at 2 requests a second,
- * started evenly spread over the first second.
- */
-const PER_CONNECTION = 2;
-async function drive(base: string, cookie: string, seeded: number): Promise<Row[]> {
-  const routes: [string, number, () => string][] = [
-    ['GET /api/stock (filters)', 120, () => filters[Math.floor(rnd() * filters.length)]!()],
-    ['GET /api/stock/:id', 60, () => `/api/stock/${1 + Math.floor(rnd() * seeded)}`],
-    ['GET /api/health', 20, () => '/api/health'],
-  ];
-  const users = routes.reduce((n, [, rate]) => n + rate / PER_CONNECTION, 0);
-  let started = 0;
-  const results = routes.map(([route, rate, path]) => {
-    const lat: number[] = [];
-    let bad = 0;
-    const runs = Array.from({ length: rate / PER_CONNECTION }, () => {
-      const delay = (1000 * started++) / users;
-      return new Promise<void>((resolve) => setTimeout(resolve, delay)).then(async () => {
-        const inst = autocannon({
-          url: base,
-          connections: 1,
-          overallRate: PER_CONNECTION,
-          duration: SECONDS,
-          timeout: 30,
-          headers: { cookie, accept: 'application/json' },
-          requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }],
-        });
-        inst.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
-          lat.push(ms);
-          if (status !== 200) bad++;
-        });
-        const r = await inst;
-        bad += r.errors + r.timeouts;
-      });
-    });
-    return Promise.all(runs).then((): Row => {
-      lat.sort((a, b) => a - b);
-      return { route, n: lat.length, p50: percentile(lat, 50), p95: percentile(lat, 95), p99: percentile(lat, 99), max: lat[lat.length - 1] ?? NaN, bad };
-    });
-  });
-  return Promise.all(results);
+/** One case of load from the load generator's own process (./load-driver.ts): rows per route and the generator's own event-loop delay. */
+async function drive(base: string, cookie: string, seeded: number): Promise<{ rows: Row[]; driver: DriverLoop }> {
+  const child = fork(fileURLToPath(new URL('./load-driver.ts', import.meta.url)), [], { stdio: ['ignore', 'inherit', 'inherit', 'ipc'] });
+  const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
+  const done = await Promise.race([
+    ask<Msg & { rows: Row[]; driver: DriverLoop }>(child, { type: 'drive', base, cookie, seeded, seconds: SECONDS }, 'driven'),
+    exited.then((c) => {
+      throw new Error(`load bench: the load generator exited (${c}) before it was done`);
+    }),
+  ]);
+  child.send({ type: 'stop' });
+  await exited;
+  return { rows: done.rows, driver: done.driver };
 }
 
 async function signIn(base: string, email: string): Promise<string> {
@@ -122,7 +71,7 @@ async function main() {
     env: { ...process.env, BENCH_STOCK: String(STOCK) },
     stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
     // BENCH_SERVER_PROF=<dir>: the server's V8 CPU profiles (one a thread) are written there
-    ...(process.env.BENCH_SERVER_PROF ? { execArgv: [...process.execArgv, '--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_SERVER_PROF}`] } : {}),
+    ...(process.env.BENCH_SERVER_PROF ? { execArgv: [...process.execArgv, '--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_SERVER_PROF}`] } : process.env.BENCH_TRACE_GC ? { execArgv: [...process.execArgv, '--trace-gc'] } : {}),
   });
   const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
   const ready = await Promise.race([ask<Msg & { port: number; seeded: number; seedMs: number; mode: string }>(child, { type: 'hello' }, 'ready'), exited.then((c) => { throw new Error(`load bench: the server exited (${c}) before it was ready`); })]);
@@ -131,12 +80,13 @@ async function main() {
   const editor = await signIn(base, 'bench-editor@test.squarewright.test');
   const setter = await signIn(base, 'bench-setter@test.squarewright.test');
   // warm-up: every filter shape once, a few details
-  for (let i = 0; i < 40; i++) await fetch(`${base}${i % 2 ? filters[i % filters.length]!() : `/api/stock/${1 + (i * 97) % ready.seeded}`}`, { headers: { cookie: editor } });
+  for (let i = 0; i < 40; i++) await fetch(`${base}${i % 2 ? warmUp[i % warmUp.length]! : `/api/stock/${1 + (i * 97) % ready.seeded}`}`, { headers: { cookie: editor } });
 
-  type Usage = Msg & { cpuMs: number; mainBusyMs: number; wallMs: number; loopP99Ms: number; loopMaxMs: number };
+  type Usage = Msg & { cpuMs: number; mainBusyMs: number; wallMs: number; loopP99Ms: number; loopMaxMs: number; serverP95Ms: number; serverP99Ms: number; serverMaxMs: number };
   await ask<Usage>(child, { type: 'mark' }, 'usage');
   const idleLoad = loadavg()[0]!;
-  const idle = await drive(base, editor, ready.seeded);
+  const idleRun = await drive(base, editor, ready.seeded);
+  const idle = idleRun.rows;
   const idleUse = await ask<Usage>(child, { type: 'mark' }, 'usage');
 
   // the heavy work, all started at once
@@ -161,7 +111,7 @@ async function main() {
     let n = 0;
     while (rows < 100_000) {
       const r = await fetch(`${base}/api/stock/export.csv`, { headers: { cookie: editor } });
-      // counted chunk by chunk as it streams (the load generator's own loop stays free)
+      // counted chunk by chunk as it streams (the load generator runs in its own process)
       let lines = 0;
       for await (const chunk of r.body ?? []) for (let i = (chunk as Uint8Array).indexOf(10); i >= 0; i = (chunk as Uint8Array).indexOf(10, i + 1)) lines++;
       rows += lines - 1; // the header line
@@ -169,7 +119,8 @@ async function main() {
     }
     heavyLog.push(`${rows.toLocaleString('en-GB')} CSV rows exported (${n} exports of the whole stock) by ${since()}`);
   })();
-  const heavy = await drive(base, editor, ready.seeded);
+  const heavyRun = await drive(base, editor, ready.seeded);
+  const heavy = heavyRun.rows;
   const heavyUse = await ask<Usage>(child, { type: 'mark' }, 'usage');
   const heavyLoad = loadavg()[0]!;
   await Promise.all([upload, run, render, exportRows]);
@@ -188,10 +139,11 @@ async function main() {
   }
   const per = (u: Usage, rows: Row[]) => {
     const n = rows.reduce((a, r) => a + r.n, 0);
-    return `server CPU ${(u.cpuMs / n).toFixed(2)} ms/request (all threads), main thread busy ${(u.mainBusyMs / n).toFixed(2)} ms/request (${((100 * u.mainBusyMs) / u.wallMs).toFixed(0)}% of the time), event-loop delay p99 ${u.loopP99Ms.toFixed(0)} ms, max ${u.loopMaxMs.toFixed(0)} ms`;
+    return `server CPU ${(u.cpuMs / n).toFixed(2)} ms/request (all threads), main thread busy ${(u.mainBusyMs / n).toFixed(2)} ms/request (${((100 * u.mainBusyMs) / u.wallMs).toFixed(0)}% of the time), event-loop delay p99 ${u.loopP99Ms.toFixed(0)} ms, max ${u.loopMaxMs.toFixed(0)} ms; inside the server (arrival in JavaScript to last byte, the driven GETs) p95 ${f1(u.serverP95Ms)}, p99 ${f1(u.serverP99Ms)}, max ${f1(u.serverMaxMs)} ms`;
   };
-  console.log(`idle: ${per(idleUse, idle)}; load average ${idleLoad.toFixed(1)}`);
-  console.log(`heavy work: ${per(heavyUse, heavy)}; load average ${heavyLoad.toFixed(1)}`);
+  const gen = (d: DriverLoop) => `load generator (its own process): CPU ${(d.cpuMs / 1000).toFixed(1)} s, event-loop delay p99 ${d.loopP99Ms.toFixed(0)} ms, max ${d.loopMaxMs.toFixed(0)} ms`;
+  console.log(`idle: ${per(idleUse, idle)}; ${gen(idleRun.driver)}; load average ${idleLoad.toFixed(1)}`);
+  console.log(`heavy work: ${per(heavyUse, heavy)}; ${gen(heavyRun.driver)}; load average ${heavyLoad.toFixed(1)}`);
   for (const l of heavyLog) console.log(`  ${l}`);
   const missed = heavy.filter((r) => !(r.p95 < 50 && r.p99 < 100 && r.max < 250) || r.bad > 0);
   console.log(missed.length ? `load: TARGET MISSED under heavy work on ${missed.map((r) => r.route).join(', ')} (p95 < 50, p99 < 100, max < 250 ms, all 200)` : 'load: under heavy work every route kept p95 < 50 ms, p99 < 100 ms, max < 250 ms');

@@ -4,7 +4,7 @@
 import { setPriority } from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import { jobKinds } from './job-kinds';
-import type { FromWorker, JobHandler, JobProgress, StopReason, ToWorker } from './platform/jobs/types';
+import { BATCH_ITEMS, MAX_UNSTORED_BATCHES, type FromWorker, type JobHandler, type JobProgress, type StopReason, type ToWorker } from './platform/jobs/types';
 
 const port = parentPort;
 if (!port) throw new Error('worker-entry must run in a worker thread');
@@ -24,8 +24,6 @@ function send(m: FromWorker): void {
   port!.postMessage(m);
 }
 
-/** Results are sent in batches of at most this many items (or every 250 ms). */
-const BATCH_ITEMS = 200;
 
 async function run(msg: ToWorker): Promise<void> {
   const flag = new Int32Array(msg.flag);
@@ -36,12 +34,24 @@ async function run(msg: ToWorker): Promise<void> {
   let lastSent = 0;
   let polls = 0;
   let reports = 0;
+  let batchesSent = 0;
+  // wait (blocking this thread: its search is synchronous) until storing catches up, or a stop
+  const awaitStoring = () => {
+    if (flag.length < 2) return;
+    for (;;) {
+      const stored = Atomics.load(flag, 1);
+      if (batchesSent - stored < MAX_UNSTORED_BATCHES || shouldStop()) return;
+      Atomics.wait(flag, 1, stored, 100);
+    }
+  };
   const flush = (force: boolean) => {
     const now = Date.now();
     if (!force && now - lastSent < 250) return;
     lastSent = now;
     if (pending.length > 0) {
+      awaitStoring();
       send({ type: 'results', taskId: msg.taskId, items: pending });
+      batchesSent++;
       pending = [];
     }
     if (lastProgress) send({ type: 'progress', taskId: msg.taskId, progress: lastProgress });

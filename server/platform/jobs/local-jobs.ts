@@ -35,7 +35,8 @@ export class ThreadDispatcher implements Dispatcher {
         {
           started: () => void this.host.partEvent(t.jobId, idx, { type: 'started' }),
           progress: (progress) => void this.host.partEvent(t.jobId, idx, { type: 'progress', progress }),
-          results: (items) => void this.host.partEvent(t.jobId, idx, { type: 'results', items }),
+          // the thread is told when a batch is stored, so it never runs far ahead of storing
+          results: (items, stored) => void this.host.partEvent(t.jobId, idx, { type: 'results', items }).finally(stored),
           done: (summary, stopped) => {
             forget();
             void this.host.partEvent(t.jobId, idx, { type: 'done', summary, stopped });

@@ -126,7 +126,8 @@ export class QueueWorker {
         {
           started: () => void send({ type: 'started' }),
           progress: (progress: JobProgress) => void send({ type: 'progress', progress }),
-          results: (items) => void send({ type: 'results', items }),
+          // the thread goes on once the batch is in the queue (it waits when too many are not)
+          results: (items, stored) => void send({ type: 'results', items }).finally(stored),
           done: (summary, stopped) => resolve({ summary, stopped }),
           failed: (error) => resolve({ error }),
         },

@@ -22,7 +22,8 @@ export interface PoolTask {
 export interface PoolCallbacks {
   started?(): void;
   progress?(p: JobProgress): void;
-  results?(items: unknown[]): void;
+  /** a batch of results; call `stored` once it is stored (or dropped): the thread waits when too many batches are unstored */
+  results?(items: unknown[], stored: () => void): void;
   done(summary: unknown, stopped: StopReason | null): void;
   failed(error: string): void;
 }
@@ -164,7 +165,8 @@ export class ThreadPool {
   }
 
   private start(slot: Slot, w: Waiting): void {
-    const sab = new SharedArrayBuffer(4);
+    // [0]: stop (1 = cancel); [1]: result batches stored so far (the thread waits on it, see worker-entry.ts)
+    const sab = new SharedArrayBuffer(8);
     const r: Running = { task: w.task, cb: w.cb, flag: new Int32Array(sab), killTimer: null, budgetTimer: null, settled: false };
     slot.busy = r;
     const t = w.task;
@@ -197,7 +199,15 @@ export class ThreadPool {
       if (r.task.budgetMs !== null && !r.budgetTimer) {
         r.budgetTimer = setTimeout(() => this.armKill(slot, () => r.cb.done(null, 'budget')), r.task.budgetMs);
       }
-    } else if (m.type === 'results') r.cb.results?.(m.items);
+    } else if (m.type === 'results') {
+      const flag = r.flag;
+      const stored = () => {
+        Atomics.add(flag, 1, 1);
+        Atomics.notify(flag, 1);
+      };
+      if (r.cb.results) r.cb.results(m.items, stored);
+      else stored();
+    }
     else if (m.type === 'progress') r.cb.progress?.(m.progress);
     else if (m.type === 'done') this.settle(slot, (x) => x.cb.done(m.summary, m.stopped));
     else this.settle(slot, (x) => x.cb.failed(m.error));

@@ -70,3 +70,13 @@ export type FromWorker =
   | { type: 'results'; taskId: string; items: unknown[] }
   | { type: 'done'; taskId: string; summary: unknown; stopped: StopReason | null }
   | { type: 'failed'; taskId: string; error: string };
+
+/** A job thread sends results in batches of at most this many items (or every 250 ms; server/worker-entry.ts). */
+export const BATCH_ITEMS = 200;
+/**
+ * Batches sent but not yet stored before the thread waits (flow control): storing runs on the
+ * request thread and gives way to requests, so a fast search would otherwise pile up its
+ * results in the server's memory (an order-18 run: 120,000 tilings, hundreds of MB, and long
+ * garbage-collection pauses on the thread that answers requests).
+ */
+export const MAX_UNSTORED_BATCHES = 10;

@@ -2,6 +2,7 @@ import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { jobKindNames } from '../../../../server/job-kinds';
 import { STORE_SHARE } from '../../../../server/platform/jobs/host';
+import { BATCH_ITEMS, MAX_UNSTORED_BATCHES } from '../../../../server/platform/jobs/types';
 import { STORING_PHASE } from '../../../../server/platform/jobs/progress';
 import { createJobs, jobEnvFrom } from '../../../../server/platform/jobs/runtime';
 import { RequestPulse } from '../../../../server/platform/request-pulse';
@@ -120,5 +121,32 @@ describe('storing gives way while people use the server', () => {
     expect(busy.share).toBeLessThanOrEqual(0.3);
     const idle = await run(false);
     expect(idle.share).toBeGreaterThan(0.5);
+  }, 60_000);
+});
+
+describe('flow control between a job thread and storing', () => {
+  it('keeps at most MAX_UNSTORED_BATCHES batches of results waiting to be stored, however fast the search', async () => {
+    // counting to 8,000 takes the thread milliseconds; storing each result costs 0.5 ms, so
+    // without flow control nearly all 8,000 would wait in the server's memory at once
+    const f = jobsFixture({ busyUs: 500 });
+    try {
+      const id = f.jobs.submit({ kind: 'test-count', params: { to: 8000 } });
+      let most = 0;
+      let seen = 0;
+      while (f.jobs.get(id)?.state !== 'done') {
+        const p = f.jobs.get(id)?.progress;
+        if (p?.received !== undefined && p.stored !== undefined) {
+          most = Math.max(most, p.received - p.stored);
+          seen++;
+        }
+        await sleep(25);
+      }
+      expect(f.stored.count(id)).toBe(8000);
+      expect(seen).toBeGreaterThan(10);
+      expect(most).toBeGreaterThan(0);
+      expect(most).toBeLessThanOrEqual(MAX_UNSTORED_BATCHES * BATCH_ITEMS);
+    } finally {
+      await f.close();
+    }
   }, 60_000);
 });
