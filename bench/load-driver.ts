@@ -1,7 +1,8 @@
 // The load generator of the load bench (bench/load.ts forks it for each case): autocannon in a
 // process of its own, doing nothing else, so its own event loop never delays the answers it
 // times (the parent reads the CSV export and sends the upload meanwhile). It answers
-//   { type: 'drive', base, cookie, seeded, seconds } -> { type: 'driven', rows, driver }
+//   { type: 'drive', base, cookie, seeded, seconds } -> { type: 'connected' } once every simulated
+//   user has started (about a second in), then { type: 'driven', rows, driver }
 // where driver is its own event-loop delay (p99, max) and CPU time over the case.
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import autocannon from 'autocannon';
@@ -39,6 +40,8 @@ interface Row { route: string; n: number; p50: number; p95: number; p99: number;
  * started evenly spread over the first second.
  */
 const PER_CONNECTION = 2;
+/** autocannon instances started so far: when all are, the parent is told ('connected') */
+let connected = 0;
 const slow: string[] = [];
 const t0 = performance.now();
 async function drive(base: string, cookie: string, seeded: number, SECONDS: number): Promise<Row[]> {
@@ -64,6 +67,7 @@ async function drive(base: string, cookie: string, seeded: number, SECONDS: numb
           headers: { cookie, accept: 'application/json' },
           requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }],
         });
+        if (++connected === users) process.send?.({ type: 'connected' });
         inst.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
           lat.push(ms);
           if (status !== 200) bad++;

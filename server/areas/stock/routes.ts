@@ -1,3 +1,4 @@
+import { processPulse } from '../../platform/request-pulse';
 import type { Response } from 'express';
 import { idParamsSchema } from '../../../shared/contracts/submissions';
 import {
@@ -64,10 +65,19 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
         }
       };
       await write(head(total));
-      // 500 rows a turn of the event loop: a few ms of the request thread each
-      for (const batch of exportBatches(deps.db, filter, limit, 500)) {
+      // 500 rows a turn of the event loop, a few ms of the request thread each; while other
+      // requests come in, an export is background work and takes only its share of the thread
+      // (with storing job results: server/platform/request-pulse.ts)
+      const batches = exportBatches(deps.db, filter, limit, 500);
+      for (;;) {
+        await processPulse.backgroundTurn();
         if (gone) return;
-        await write(rows(batch));
+        const t0 = performance.now();
+        const next = batches.next();
+        if (next.done) break;
+        const text = rows(next.value);
+        processPulse.backgroundDone(performance.now() - t0);
+        await write(text);
         await new Promise<void>((r) => setImmediate(r));
       }
       res.end();

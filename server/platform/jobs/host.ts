@@ -4,7 +4,7 @@ import { z } from 'zod';
 import type { Db } from '../db/client';
 import { parseStoredJson } from '../db/stored-json';
 import type { Logger } from '../log';
-import { processPulse, type RequestPulse } from '../request-pulse';
+import { BACKGROUND_SHARE, processPulse, type RequestPulse } from '../request-pulse';
 import type { ComputeOptions, FinalState, JobRecord, Jobs, JobSink, SinkJob, StoredProgress, SubmitOptions } from './port';
 import { ProgressTracker } from './progress';
 import { job, jobPart } from './schema';
@@ -18,15 +18,15 @@ import type { JobPart, JobProgress, StopReason } from './types';
 // Storing never holds the request thread for long: results are stored in small transactions
 // sized to about SLICE_MS each, with a turn of the event loop between them (setImmediate), so
 // a request waits behind at most one slice. While requests are coming in (../request-pulse.ts),
-// storing takes at most STORE_SHARE of the thread's time, for all jobs together: after a slice
-// of t ms the next one (of any job) starts no sooner than t * (1 - share) / share ms later; with
-// no requests it stores flat out. A cancel is handled between slices: once cancel() returns
+// storing takes at most STORE_SHARE of the thread's time, for all jobs (and exports) together:
+// after a slice of t ms the next piece of background work starts no sooner than
+// t * (1 - share) / share ms later; with no requests it stores flat out. A cancel is handled between slices: once cancel() returns
 // nothing more is stored for the job.
 
 /** Time one storing transaction aims at. */
 export const SLICE_MS = 4;
-/** The share of the request thread storing may take while people are using the server. */
-export const STORE_SHARE = 0.25;
+/** The share of the request thread storing (with other background work) may take while people are using the server. */
+export const STORE_SHARE = BACKGROUND_SHARE;
 
 export interface PartTask {
   jobId: string;
@@ -107,7 +107,6 @@ const storedProgressSchema = z.object({
 }) satisfies z.ZodType<StoredProgress>;
 
 const nextTurn = () => new Promise<void>((r) => setImmediate(r));
-const pause = (ms: number) => new Promise<void>((r) => setTimeout(r, ms));
 const incremented = sql`${jobPart.attempts} + 1`;
 
 export class JobHost implements Jobs {
@@ -119,8 +118,6 @@ export class JobHost implements Jobs {
   private readonly sliceMs: number;
   private readonly pulse: RequestPulse;
   private readonly storeShare: number;
-  /** when the next storing slice (of any job) may start, performance.now() time */
-  private nextSliceAt = 0;
   private closed = false;
 
   constructor(
@@ -400,8 +397,8 @@ export class JobHost implements Jobs {
     }
     let i = 0;
     while (i < items.length) {
-      // people first: wait for storing's turn (shared by every job), checking cancel after
-      for (let wait = this.nextSliceAt - performance.now(); wait > 0; wait = this.nextSliceAt - performance.now()) await pause(wait);
+      // people first: wait for background work's turn (shared by every job and export), checking cancel after
+      await this.pulse.backgroundTurn();
       if (a.over || this.closed) return;
       const n = Math.min(items.length - i, a.chunk);
       const slice = items.slice(i, i + n);
@@ -409,7 +406,7 @@ export class JobHost implements Jobs {
       this.db.transaction((tx) => onResults(slice, tx, a.job));
       const t1 = performance.now();
       const dt = t1 - t0;
-      if (this.pulse.active(t1)) this.nextSliceAt = t1 + (dt * (1 - this.storeShare)) / this.storeShare;
+      this.pulse.backgroundDone(dt, this.storeShare, t1);
       i += n;
       a.tracker.addStored(n, Date.now());
       // the next slice's size from this one's time per row, kept near sliceMs
