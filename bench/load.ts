@@ -7,6 +7,9 @@
 // - an exhaustive order-18 foundry run goes on (search in shards, then storing its results),
 // - a 12-puzzle A4 proof is rendered (on a job worker, as the proof route does),
 // - 100,000 CSV rows are exported (the whole stock, twice in a row).
+// The load generator counts answers to requests sent once every simulated user is connected
+// (about a second in: a new connection's first request waits for the connection, up to 2 s
+// when the server is busy), and the heavy work starts at that moment.
 // Prints p50/p95/p99/max per route and case, the server's CPU time per request (all its
 // threads) and its main thread's busy time per request. Target under the heavy work: p95 < 50 ms,
 // p99 < 100 ms, max < 250 ms. BENCH_QUICK=1: 5,000 tilings and 10 s per case. BENCH_SERVER_PROF=<dir>
