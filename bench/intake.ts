@@ -13,6 +13,7 @@ import { buildDeps } from '../server/compose';
 import { closeDatabase, openDatabase } from '../server/platform/db/client';
 import { loadEnv } from '../server/platform/env';
 import { seedBulkStock } from '../server/areas/intake/demo-seed';
+import { mulberry32 } from '../shared/tiling/prng';
 
 const quick = process.env.BENCH_QUICK === '1';
 const N = quick ? 5_000 : 50_000;
@@ -55,14 +56,8 @@ async function run(): Promise<void> {
     });
   }
 
-  // a fixed pseudo-random sequence (mulberry32, seed 6) so runs are comparable
-  let s = 6;
-  const rnd = () => {
-    s = (s + 0x6d2b79f5) | 0;
-    let t = Math.imul(s ^ (s >>> 15), 1 | s);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  // a fixed pseudo-random sequence (seed 6) so runs are comparable
+  const rnd = mulberry32(6);
   const filters = [
     () => `/api/stock?orderMin=${20 + Math.floor(rnd() * 8)}&orderMax=${28 + Math.floor(rnd() * 8)}&page=${1 + Math.floor(rnd() * 20)}`,
     () => `/api/stock?provenance=foundry&sort=-width&page=${1 + Math.floor(rnd() * 50)}`,

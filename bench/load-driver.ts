@@ -6,20 +6,15 @@
 // where driver is its own event-loop delay (p99, max) and CPU time over the case.
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import autocannon from 'autocannon';
+import { mulberry32 } from '../shared/tiling/prng';
 
 function percentile(sorted: number[], p: number): number {
   if (sorted.length === 0) return NaN;
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!;
 }
 
-// a fixed pseudo-random sequence (mulberry32, seed 14) so runs are comparable
-let s = 14;
-const rnd = () => {
-  s = (s + 0x6d2b79f5) | 0;
-  let t = Math.imul(s ^ (s >>> 15), 1 | s);
-  t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-};
+// a fixed pseudo-random sequence (seed 14) so runs are comparable
+const rnd = mulberry32(14);
 const filters = [
   () => `/api/stock?orderMin=${20 + Math.floor(rnd() * 8)}&orderMax=${28 + Math.floor(rnd() * 8)}&page=${1 + Math.floor(rnd() * 20)}`,
   () => `/api/stock?provenance=foundry&sort=-width&page=${1 + Math.floor(rnd() * 50)}`,

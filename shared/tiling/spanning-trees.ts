@@ -79,18 +79,20 @@ function smallTau(n: number, edges: readonly (readonly [number, number])[]): big
   const k = n - 1;
   const m = new Float64Array(k * k);
   const deg = new Float64Array(n);
-  for (const [u, v] of edges) {
-    if (u === v) continue;
-    deg[u]! += 1;
-    deg[v]! += 1;
-    if (u < k) m[u * k + u]! += 1;
-    if (v < k) m[v * k + v]! += 1;
-    if (u < k && v < k) {
-      m[u * k + v]! -= 1;
-      m[v * k + u]! -= 1;
-    }
-  }
+  for (const [u, v] of edges) if (u !== v) addEdge(m, deg, k, u, v);
   return smallTauOf(m, k, deg);
+}
+
+/** Add edge u-v to the Laplacian whose first k rows and columns are m (k x k, row-major), and to the degrees. */
+function addEdge(m: Float64Array, deg: Float64Array, k: number, u: number, v: number): void {
+  deg[u]! += 1;
+  deg[v]! += 1;
+  if (u < k) m[u * k + u]! += 1;
+  if (v < k) m[v * k + v]! += 1;
+  if (u < k && v < k) {
+    m[u * k + v]! -= 1;
+    m[v * k + u]! -= 1;
+  }
 }
 
 /** tau of a multigraph on vertices 0..n-1 (parallel edges count separately; loops ignored). */
@@ -164,18 +166,9 @@ function decodedSpanningTrees(): bigint {
     const deg = lapDeg;
     m.fill(0, 0, k * k);
     deg.fill(0, 0, segCount);
-    const add = (u: number, v: number) => {
-      deg[u]! += 1;
-      deg[v]! += 1;
-      if (u < k) m[u * k + u]! += 1;
-      if (v < k) m[v * k + v]! += 1;
-      if (u < k && v < k) {
-        m[u * k + v]! -= 1;
-        m[v * k + u]! -= 1;
-      }
-    };
-    for (let i = 0; i < n; i++) add(topSeg[i]!, botSeg[i]!);
-    add(top, bottom);
+    // each square joins the segment through its top to the one through its bottom
+    for (let i = 0; i < n; i++) addEdge(m, deg, k, topSeg[i]!, botSeg[i]!);
+    addEdge(m, deg, k, top, bottom);
     const small = smallTauOf(m.subarray(0, k * k), k, deg);
     if (small !== null) return small;
   }
