@@ -1,5 +1,9 @@
+import { z } from 'zod';
 import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
+
+/** The fields of a package.json we read (others ignored; a non-string counts as absent). */
+const packageJsonSchema = z.object({ name: z.string().optional().catch(undefined), version: z.string().optional().catch(undefined) });
 
 // The app root is the folder holding our package.json. It is found from the working
 // directory (or APP_ROOT), never from import.meta.url: paths move when the server is bundled.
@@ -13,8 +17,7 @@ export function appRoot(): string {
     const pkg = join(dir, 'package.json');
     if (existsSync(pkg)) {
       try {
-        const parsed = JSON.parse(readFileSync(pkg, 'utf8')) as { name?: unknown };
-        if (parsed.name === 'squarewright') {
+        if (packageJsonSchema.parse(JSON.parse(readFileSync(pkg, 'utf8'))).name === 'squarewright') {
           cached = dir;
           return dir;
         }
@@ -33,6 +36,5 @@ export function fromRoot(...parts: string[]): string {
 }
 
 export function appVersion(): string {
-  const parsed = JSON.parse(readFileSync(fromRoot('package.json'), 'utf8')) as { version?: unknown };
-  return typeof parsed.version === 'string' ? parsed.version : '0.0.0';
+  return packageJsonSchema.parse(JSON.parse(readFileSync(fromRoot('package.json'), 'utf8'))).version ?? '0.0.0';
 }

@@ -1,9 +1,13 @@
+import { z } from 'zod';
 import { fromNodeHeaders } from 'better-auth/node';
 import express, { type RequestHandler } from 'express';
 import type { ErrorBody } from '../../../shared/contracts/common';
 import type { Auth } from '../auth/auth';
 import { authErrorWords, ownAuthCodes } from './auth-words';
 import { jsonDepthProblem, MAX_JSON_DEPTH } from './json-depth';
+
+/** better-auth's error body, as far as we read it (other fields are ignored; non-strings count as absent). */
+const libraryErrorSchema = z.object({ code: z.string().optional().catch(undefined), message: z.string().optional().catch(undefined) });
 
 // /api/auth/*: better-auth behind our own door. The body is read here, with a size limit
 // (413 in our error shape; better-auth's own adapter reads any size into memory), checked as
@@ -60,9 +64,11 @@ export function authEndpoint(auth: Auth, publicUrl: string): RequestHandler[] {
         let libraryCode: string | undefined;
         let libraryMessage: string | undefined;
         try {
-          const parsed = JSON.parse(bytes.toString('utf8')) as { code?: unknown; message?: unknown };
-          if (typeof parsed.code === 'string') libraryCode = parsed.code;
-          if (typeof parsed.message === 'string') libraryMessage = parsed.message;
+          const parsed = libraryErrorSchema.safeParse(JSON.parse(bytes.toString('utf8')));
+          if (parsed.success) {
+            libraryCode = parsed.data.code;
+            libraryMessage = parsed.data.message;
+          }
         } catch {
           // not JSON: our words for its status
         }

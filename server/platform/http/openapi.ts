@@ -85,6 +85,8 @@ export function toOpenApiPath(path: string): string {
 }
 
 type Json = Record<string, unknown>;
+/** A JSON object of JSON objects (a map of schemas), read back after a text rewrite of our own document. */
+const schemaMapSchema = z.record(z.string(), z.record(z.string(), z.unknown()));
 
 const pascal = (words: string[]) => words.map((w) => w.charAt(0).toUpperCase() + w.slice(1)).join('');
 
@@ -144,7 +146,7 @@ function convert(registry: z.core.$ZodRegistry<{ id: string }>, io: 'input' | 'o
     new RegExp(`${refPrefix.replace(/[/#]/g, '\\$&')}__shared${mark}#/\\$defs/(\\w+)`, 'g'),
     (_m, id: string) => `${refPrefix}Shared${id.replace(/\W/g, '')}${mark}`,
   );
-  const out = JSON.parse(text) as Record<string, Json>;
+  const out: Record<string, Json> = schemaMapSchema.parse(JSON.parse(text));
   for (const s of Object.values(out)) {
     delete s.$schema;
     delete s.$id;
@@ -492,10 +494,10 @@ export class OpenApiCollector {
       const base = id.slice(0, -'Input'.length);
       if (inputVariants.has(id) && !reached.has(base)) renamed.set(id, base);
     }
-    const renameRefs = <T>(value: T): T =>
+    const renameRefs = (value: Json): Json =>
       renamed.size === 0
         ? value
-        : (JSON.parse(JSON.stringify(value).replace(/"#\/components\/schemas\/(\w+)"/g, (m, id: string) => (renamed.has(id) ? `"${refPrefix}${renamed.get(id)}"` : m))) as T);
+        : z.record(z.string(), z.unknown()).parse(JSON.parse(JSON.stringify(value).replace(/"#\/components\/schemas\/(\w+)"/g, (m, id: string) => (renamed.has(id) ? `"${refPrefix}${renamed.get(id)}"` : m))));
     const schemas: Record<string, Json> = {};
     for (const id of [...reached].sort()) {
       if (!components[id]) throw new Error(`OpenAPI: $ref to a missing component ${id}`);
