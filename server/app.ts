@@ -7,7 +7,7 @@ import { jsonDepthGuard } from './platform/http/json-depth';
 import { createApiRouter, JSON_BODY_LIMIT_BYTES, type ApiRouter } from './platform/http/route';
 import { allowedOrigins, sameOriginGuard } from './platform/http/same-origin';
 import { securityHeaders } from './platform/http/security-headers';
-import { processPulse, type RequestPulse } from './platform/request-pulse';
+import { processPulse } from './platform/request-pulse';
 import { areaRoutes } from './area-routes';
 
 /** Paths exempt from the same-origin check: checked by their own signature instead. */
@@ -18,8 +18,6 @@ export type CreateAppOptions = {
   mountClient?: (app: Express) => void;
   /** JSON body limit (default 1 MB, JSON_BODY_LIMIT_BYTES) */
   jsonLimit?: string;
-  /** beaten once per request, so storing job results gives way to people (default: this process's) */
-  pulse?: RequestPulse;
 };
 
 /** Build the Express app from its dependencies. No listening here (see server/index.ts). */
@@ -27,9 +25,9 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', false);
-  const pulse = options.pulse ?? processPulse;
+  // every request beats the process's pulse: background work gives way while people are here
   app.use((_req, _res, next) => {
-    pulse.beat();
+    processPulse.beat();
     next();
   });
 

@@ -37,7 +37,6 @@ async function run(msg: ToWorker): Promise<void> {
   let batchesSent = 0;
   // wait (blocking this thread: its search is synchronous) until storing catches up, or a stop
   const awaitStoring = () => {
-    if (flag.length < 2) return;
     for (;;) {
       const stored = Atomics.load(flag, 1);
       if (batchesSent - stored < MAX_UNSTORED_BATCHES || shouldStop()) return;

@@ -65,8 +65,6 @@ export interface JobHostOptions {
   sliceMs?: number;
   /** whether requests came in lately (default: this process's, beaten by server/app.ts) */
   pulse?: RequestPulse;
-  /** storing's share of the thread while requests come in (default STORE_SHARE) */
-  storeShare?: number;
 }
 
 interface Active {
@@ -117,7 +115,6 @@ export class JobHost implements Jobs {
   private readonly kinds: ReadonlySet<string>;
   private readonly sliceMs: number;
   private readonly pulse: RequestPulse;
-  private readonly storeShare: number;
   private closed = false;
 
   constructor(
@@ -127,8 +124,6 @@ export class JobHost implements Jobs {
     this.kinds = opts.kinds;
     this.sliceMs = opts.sliceMs ?? SLICE_MS;
     this.pulse = opts.pulse ?? processPulse;
-    this.storeShare = opts.storeShare ?? STORE_SHARE;
-    if (!(this.storeShare > 0 && this.storeShare <= 1)) throw new Error(`JobHost: storeShare must be in (0, 1], not ${this.storeShare}`);
     for (const s of opts.sinks ?? []) this.sinks.set(s.kind, s);
   }
 
@@ -406,7 +401,7 @@ export class JobHost implements Jobs {
       this.db.transaction((tx) => onResults(slice, tx, a.job));
       const t1 = performance.now();
       const dt = t1 - t0;
-      this.pulse.backgroundDone(dt, this.storeShare, t1);
+      this.pulse.backgroundDone(dt, STORE_SHARE, t1);
       i += n;
       a.tracker.addStored(n, Date.now());
       // the next slice's size from this one's time per row, kept near sliceMs

@@ -57,12 +57,10 @@ export interface CreateJobsOptions {
   sliceMs?: number;
   /** whether requests came in lately (default: the process's, ../request-pulse.ts) */
   pulse?: RequestPulse;
-  /** storing's share of the request thread while requests come in (default 0.25) */
-  storeShare?: number;
 }
 
 export function createJobs(o: CreateJobsOptions): Jobs {
-  const host = new JobHost(o.db, { kinds: o.kinds, sinks: o.sinks, ...(o.log ? { log: o.log } : {}), ...(o.sliceMs ? { sliceMs: o.sliceMs } : {}), ...(o.pulse ? { pulse: o.pulse } : {}), ...(o.storeShare ? { storeShare: o.storeShare } : {}) });
+  const host = new JobHost(o.db, { kinds: o.kinds, sinks: o.sinks, ...(o.log ? { log: o.log } : {}), ...(o.sliceMs ? { sliceMs: o.sliceMs } : {}), ...(o.pulse ? { pulse: o.pulse } : {}) });
   const threads = o.env.JOB_WORKERS ?? (o.env.REDIS_URL ? 0 : 1);
   if (!o.env.REDIS_URL) {
     host.attach(new ThreadDispatcher(host, { size: Math.max(1, threads), ...(o.graceMs ? { graceMs: o.graceMs } : {}) }));
