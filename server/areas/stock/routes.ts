@@ -11,11 +11,11 @@ import {
   type StockExportQuery,
   type StockItem,
 } from '../../../shared/contracts/stock';
-import { route, type ApiRouter } from '../../platform/http/route';
+import { JsonText, route, type ApiRouter } from '../../platform/http/route';
 import { PNG_SIZES } from '../../platform/images/tiling-png';
 import { tilingPngOnWorker } from './png-job';
 import type { StockDeps } from './ports';
-import { exportBatches, fillStockReducedKeys, getStockDetail, listStock, stockCodeFileHead, stockCsvHead, stockCsvRows, stockSummary, stockTiling } from './stock';
+import { exportBatches, fillStockReducedKeys, getStockDetail, stockListJson, stockCodeFileHead, stockCsvHead, stockCsvRows, stockSummary, stockTiling } from './stock';
 import { countStock } from './stock-filter';
 
 /** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
@@ -30,7 +30,7 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
   route(
     router,
     { method: 'GET', path: '/api/stock', summary: 'Stock tilings filtered by order, size, class, provenance, use and setter; sorted and paged', tags, query: stockListQuerySchema, response: stockListSchema },
-    ({ query }) => listStock(deps.db, query),
+    async ({ query }) => new JsonText(await stockListJson(deps, query)),
   );
 
   route(

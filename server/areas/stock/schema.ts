@@ -56,3 +56,14 @@ export const stock = sqliteTable(
     index('stock_filter_idx').on(t.order, t.width, t.height, t.square, t.perfect, t.simple, t.provenance, t.useCount, t.setterId, t.createdAt, t.id),
   ],
 );
+
+/**
+ * How many times stock rows were changed in place (or deleted): one row, kept by triggers on
+ * the stock table (migration 0019), so every connection (the request thread's and the list
+ * reader's, ./list-reader.ts) sees the same number in the same transaction. Rows added do not
+ * count: the stock's filter snapshot counts them by rowid (./stock-filter.ts).
+ */
+export const stockRevision = sqliteTable('stock_revision', {
+  id: integer('id').primaryKey(),
+  rewrites: integer('rewrites').notNull(),
+});

@@ -100,7 +100,7 @@ export function stockWhere(f: StockFilter): SQL | undefined {
   return conds.length ? and(...conds.map((c) => sql`${sql.raw(sqlTest(c))} ${sqlValue(c)}`)) : undefined;
 }
 
-type Sqlite = Db['$client'];
+export type Sqlite = Db['$client'];
 export { prepared };
 
 /**
@@ -122,9 +122,10 @@ export function noteStockWrite(by: 'people' | 'background' = 'people'): void {
  * stays good while no row is changed: rows added since are counted by SQLite over the rowid
  * range after it (a short range scan), so totals are always exact, also while a foundry run
  * stores thousands of tilings (issue 14: before, any write to the database sent every count to
- * SQLite until a second had passed without one). A change in place is seen by temporary
- * triggers of this connection on the stock table (a counter in the connection's temp schema,
- * rolled back with its transaction), a write of another connection by data_version. Reading
+ * SQLite until a second had passed without one). A change in place is seen by the stock's
+ * rewrite count (table stock_revision, kept by triggers on the stock table: migration 0019), the
+ * same number on every connection and in the same transaction as the rows, so the request
+ * thread's connection and the list reader's (./list-reader.ts) keep snapshots alike. Reading
  * all rows at once took ~100 ms at 50,000, a stall for every request behind it, so a snapshot
  * is (re)taken in chunks of 2,000 rows by rowid, one chunk per turn of the event loop (a few ms
  * each); a change between two chunks discards the partial one. A retake starts once nothing has
@@ -157,25 +158,9 @@ interface FilterSnapshot {
 const snapshots = new WeakMap<Sqlite, FilterSnapshot>();
 const flagBit = new Map(columnNames.filter((c) => columnDef(c).kind === 'bool').map((c, k) => [c, 1 << k]));
 
-/** Temporary triggers (this connection only) that count changes in place of stock rows. */
-const watched = new WeakSet<Sqlite>();
-function watchRewrites(client: Sqlite): void {
-  if (watched.has(client)) return;
-  client.exec(
-    'create temp table if not exists stock_rewrites (n integer not null);' +
-      'insert into stock_rewrites (n) select 0 where not exists (select 1 from stock_rewrites);' +
-      'create temp trigger if not exists stock_rewrite_update after update on main.stock begin update stock_rewrites set n = n + 1; end;' +
-      'create temp trigger if not exists stock_rewrite_delete after delete on main.stock begin update stock_rewrites set n = n + 1; end;',
-  );
-  watched.add(client);
-}
-
-/** Changes in place on this connection (triggers) and writes of other connections (data_version); not rows added here. */
+/** The stock's rewrite count (table stock_revision, kept by triggers: migration 0019); not rows added. */
 function databaseStamp(client: Sqlite): string {
-  watchRewrites(client);
-  const rewrites = prepared(client, 'select n from temp.stock_rewrites').pluck().get() as number;
-  const version = client.pragma('data_version', { simple: true }) as number;
-  return `${rewrites}:${version}`;
+  return String(prepared(client, 'select rewrites from stock_revision where id = 1').pluck().get() ?? 0);
 }
 
 const lastRowidOf = (client: Sqlite) => (prepared(client, 'select max(rowid) from stock').pluck().get() as number | null) ?? 0;
@@ -235,9 +220,10 @@ function startRetake(client: Sqlite, stamp: string): void {
 }
 
 /** Tests: true once a snapshot matching the database as it is now is in place. */
-export function stockSnapshotCurrent(db: Db): boolean {
-  const hit = snapshots.get(db.$client);
-  return hit !== undefined && hit.stamp === databaseStamp(db.$client);
+export function stockSnapshotCurrent(db: Db | Sqlite): boolean {
+  const client = '$client' in db ? db.$client : db;
+  const hit = snapshots.get(client);
+  return hit !== undefined && hit.stamp === databaseStamp(client);
 }
 
 function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number, lastRowid: number): FilterSnapshot {
@@ -271,8 +257,13 @@ function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number, lastRowid
 
 /** How many stock tilings match the filter: the same conditions as stockWhereSql, tested on the snapshot. */
 export function countStock(db: Db, f: StockFilter): number {
-  const s = filterSnapshot(db.$client);
-  if (!s) return countStockInSql(db.$client, f);
+  return countStockIn(db.$client, f);
+}
+
+/** countStock on a connection (the list reader's own, ./list-reader-thread.ts). */
+export function countStockIn(client: Sqlite, f: StockFilter): number {
+  const s = filterSnapshot(client);
+  if (!s) return countStockInSql(client, f);
   // one filter's count in the snapshot serves every page and sort of it (an editor paging
   // through a view; the load bench's random pages): kept with the snapshot, at most 200 filters
   const key = JSON.stringify(conditionsOf(f));
@@ -284,7 +275,7 @@ export function countStock(db: Db, f: StockFilter): number {
     if (counts.size >= 200) counts.delete(counts.keys().next().value!);
     counts.set(key, inSnapshot);
   }
-  return inSnapshot + countAddedSince(db.$client, f, s.lastRowid);
+  return inSnapshot + countAddedSince(client, f, s.lastRowid);
 }
 
 /** Counts in a snapshot by filter (its conditions as JSON); gone with the snapshot. */

@@ -6,7 +6,8 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { connectionOf } from '../../platform/db/statements';
-import { countStock, noteStockWrite, prepared, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
+import type { StockListReader } from './list-reader';
+import { countStockIn, noteStockWrite, prepared, type Sqlite, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, gcdOfKey, reducedFormOf, smithDrawingOf } from './tiling-analysis';
 import { scaleText } from '../../../shared/contracts/tilings';
@@ -141,27 +142,36 @@ const sortColumns = {
  * GET /api/stock. Two steps so the wide rows (squares JSON) are never scanned or sorted:
  * the page's ids come from a narrow covering index (stock_recent_idx or stock_filter_idx, as
  * SQLite picks), the total from countStock (./stock-filter.ts), then only the page's rows are
- * read (decision 052).
+ * read (decision 052). The page is read by the stock list reader's thread when the server has
+ * one (./list-reader.ts), else here; either way the answer is JSON text, cached as text.
  */
 const LIST_TTL_MS = 5_000;
 /** How late a list may show results a job stores (a foundry run storing thousands would otherwise empty the cache with each slice). */
 const BACKGROUND_LAG_MS = 1_000;
-const listCache = new WeakMap<object, Map<string, { value: StockList; generation: ReturnType<typeof stockGeneration>; at: number }>>();
+const listCache = new WeakMap<object, Map<string, { value: string; generation: ReturnType<typeof stockGeneration>; at: number }>>();
 
-export function listStock(db: Db, q: StockListQuery): StockList {
+/** A page of the stock list as JSON text (the StockList contract). */
+export async function stockListJson(deps: { db: Db; stockListReader?: StockListReader | null }, q: StockListQuery): Promise<string> {
   // the same page of the same view (editors page back and forth) is answered from memory until
   // the stock changes or LIST_TTL_MS passes
   const key = JSON.stringify(q);
-  let perDb = listCache.get(db);
-  if (!perDb) listCache.set(db, (perDb = new Map()));
+  let perDb = listCache.get(deps.db);
+  if (!perDb) listCache.set(deps.db, (perDb = new Map()));
   const hit = perDb.get(key);
-  const now = Date.now();
   const gen = stockGeneration();
-  if (hit && hit.generation.people === gen.people && now - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
-  const value = listStockUncached(db, q);
+  if (hit && hit.generation.people === gen.people && Date.now() - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
+  // the generation is taken before the page is read: a write meanwhile makes the next request read again
+  const at = Date.now();
+  const reader = deps.stockListReader;
+  const value = reader?.alive ? await reader.list(q) : JSON.stringify(listStockPage(deps.db.$client, q));
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
-  perDb.set(key, { value, generation: gen, at: now });
+  perDb.set(key, { value, generation: gen, at });
   return value;
+}
+
+/** A page of the stock list as an object (tests; the routes use stockListJson). */
+export function listStock(db: Db, q: StockListQuery): StockList {
+  return listStockPage(db.$client, q);
 }
 
 type ListRow = {
@@ -185,16 +195,21 @@ const listRowsSql =
   'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt, squares_json as squaresJson ' +
   'from stock where id in (select value from json_each(?))';
 
-function listStockUncached(db: Db, q: StockListQuery): StockList {
+/** One page of the stock list read on this connection, in one read transaction (its items and its total agree). */
+export function listStockPage(client: Sqlite, q: StockListQuery): StockList {
+  return client.transaction(() => readListPage(client, q))();
+}
+
+function readListPage(client: Sqlite, q: StockListQuery): StockList {
   const where = stockWhereSql(q);
   const dir = q.sort.desc ? 'desc' : 'asc';
   const col = sortColumns[q.sort.key];
   const offset = (q.page - 1) * q.pageSize;
-  const idRows = prepared(db.$client, `select id from stock ${where.text} order by ${col} ${dir}, id ${dir} limit ? offset ?`)
+  const idRows = prepared(client, `select id from stock ${where.text} order by ${col} ${dir}, id ${dir} limit ? offset ?`)
     .pluck()
     .all(...where.params, q.pageSize, offset) as number[];
-  const total = countStock(db, q);
-  const rows = idRows.length ? (prepared(db.$client, listRowsSql).all(JSON.stringify(idRows)) as ListRow[]) : [];
+  const total = countStockIn(client, q);
+  const rows = idRows.length ? (prepared(client, listRowsSql).all(JSON.stringify(idRows)) as ListRow[]) : [];
   const squares = storedSquaresOf('stock', rows);
   const byId = new Map(rows.map((r, i) => [r.id, { r, squares: squares[i]! }]));
   return {

@@ -68,8 +68,8 @@ export type RouteSpec<
 export const JSON_BODY_LIMIT_BYTES = 1024 * 1024;
 
 type Infer<T> = T extends z.ZodType ? z.output<T> : undefined;
-/** what a handler returns: the response schema's input, or anything JSON when there is none */
-type Answer<T> = T extends z.ZodType ? z.input<T> : unknown;
+/** what a handler returns: the response schema's input (or that as JsonText), or anything JSON when there is none */
+type Answer<T> = T extends z.ZodType ? z.input<T> | JsonText : unknown;
 
 export type RouteContext<P, Q, B> = {
   req: Request;
@@ -86,6 +86,15 @@ export type RouteContext<P, Q, B> = {
 export type RouteHandler<P, Q, B, R> = (
   ctx: RouteContext<P, Q, B>,
 ) => Promise<R | undefined | void> | R | undefined | void;
+
+/**
+ * A handler's answer already written as JSON text (a cached page, or one a reader thread wrote):
+ * sent as it is, and checked against the route's response schema outside production like any
+ * other answer.
+ */
+export class JsonText {
+  constructor(readonly text: string) {}
+}
 
 /** What register<Area>Routes(router, deps) receives. */
 export type ApiRouter = {
@@ -222,13 +231,15 @@ export function route<
         res.status(spec.status ?? 204).end();
         return;
       }
+      const text = result instanceof JsonText ? result.text : null;
       if (spec.response && checkResponses) {
-        const check = spec.response.safeParse(result);
+        const check = spec.response.safeParse(text !== null ? JSON.parse(text) : result);
         if (!check.success) {
           throw new Error(`response of ${key} does not match its schema: ${z.prettifyError(check.error)}`);
         }
       }
-      res.status(spec.status ?? 200).json(result);
+      if (text !== null) res.status(spec.status ?? 200).type('application/json').send(text);
+      else res.status(spec.status ?? 200).json(result);
     } catch (err) {
       next(err);
     }

@@ -11,13 +11,15 @@ export interface WorkerSpec {
   source: boolean;
 }
 
-export function workerSpec(): WorkerSpec {
+/**
+ * A worker entry: its TypeScript source when this runs from source, else its bundle
+ * dist/server/<bundle>.js (vite.config.ts serverEntries). Default: the job worker.
+ */
+export function workerSpec(entry: { source: URL; bundle: string } = { source: new URL('../../worker-entry.ts', import.meta.url), bundle: 'job-worker' }): WorkerSpec {
   const here = fileURLToPath(import.meta.url);
-  if (here.endsWith('.ts')) {
-    return { url: new URL('../../worker-entry.ts', import.meta.url), source: true };
-  }
-  const bundled = fromRoot('dist', 'server', 'job-worker.js');
-  if (!existsSync(bundled)) throw new Error(`job worker bundle missing: ${bundled} (run npm run build)`);
+  if (here.endsWith('.ts')) return { url: entry.source, source: true };
+  const bundled = fromRoot('dist', 'server', `${entry.bundle}.js`);
+  if (!existsSync(bundled)) throw new Error(`worker bundle missing: ${bundled} (run npm run build)`);
   return { url: pathToFileURL(bundled), source: false };
 }
 

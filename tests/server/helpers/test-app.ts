@@ -10,6 +10,7 @@ import type { Role } from '../../../shared/contracts/common';
 import { createApp } from '../../../server/app';
 import type { Clock } from '../../../server/platform/clock';
 import { buildDeps, createAppJobs } from '../../../server/compose';
+import { StockListReader } from '../../../server/areas/stock/index';
 import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
 import { user } from '../../../server/platform/auth/schema';
 import { mailboxMessage } from '../../../server/platform/mail/schema';
@@ -92,6 +93,8 @@ export type CreateTestAppOptions = {
   mail?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number };
   /** webhook outbox settings (retry delays, attempts, timeout); the sender is not started: call t.deps.webhooks.flush() */
   webhooks?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number; timeoutMs?: number };
+  /** read stock list pages on a reader thread, as the server does (default: on the request thread) */
+  listReader?: boolean;
 };
 
 /**
@@ -122,6 +125,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
   const db = openDatabase(join(dir, 'squarewright.db'));
   const smtp = await startFakeSmtp({ db });
   const clock = createTestClock();
+  const stockListReader = options.listReader ? new StockListReader(join(dir, 'squarewright.db')) : null;
   const demo = options.demo !== undefined && options.demo !== false;
   const deps = buildDeps({
     env,
@@ -131,6 +135,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     smtp: { url: smtp.url, localFake: true },
     clock,
     signInLimit: options.signInLimit ?? { window: 60, max: 1000 },
+    stockListReader,
     ...(options.mail ? { mail: options.mail } : {}),
     ...(options.webhooks ? { webhooks: options.webhooks } : {}),
   });
@@ -209,6 +214,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     },
     async close() {
       await deps.jobs.close();
+      await stockListReader?.close();
       await deps.mail.stop();
       await smtp.close();
       closeDatabase(db);
