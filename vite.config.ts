@@ -4,7 +4,7 @@ import tailwindcss from '@tailwindcss/vite';
 
 // The two builds' entries, typed alike (two different object shapes in one conditional do not
 // type-check as Rollup's input).
-const serverEntries: Record<string, string> = { index: 'server/index.ts', 'job-worker': 'server/worker-entry.ts', 'stock-list-reader': 'server/areas/stock/list-reader-thread.ts' };
+const serverEntries: Record<string, string> = { index: 'server/index.ts', 'job-worker': 'server/worker-entry.ts', 'stock-reader': 'server/areas/stock/stock-reader-thread.ts' };
 const clientEntries: Record<string, string> = { index: 'index.html', 'reader-play': 'src/reader/main.tsx', 'reader-embed': 'src/reader/embed-height.ts', reader: 'src/reader/reader.css' };
 
 // Client build goes to dist/client. The server is bundled separately with

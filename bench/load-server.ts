@@ -20,7 +20,7 @@ import { buildDeps } from '../server/compose';
 import { closeDatabase, openDatabase } from '../server/platform/db/client';
 import { loadEnv } from '../server/platform/env';
 import { seedBulkStock } from '../server/areas/intake/demo-seed';
-import { StockListReader } from '../server/areas/stock/index';
+import { StockReader } from '../server/areas/stock/index';
 import { renderOnWorker } from '../server/areas/print/index';
 import { benchEdition } from './load-edition';
 
@@ -37,9 +37,9 @@ const env = loadEnv({
   JOB_WORKERS: process.env.JOB_WORKERS ?? '2',
 });
 const db = openDatabase(join(dir, 'squarewright.db'));
-// the stock list's reader thread, as the server has it (server/bootstrap.ts); BENCH_NO_LIST_READER=1: without
-const stockListReader = process.env.BENCH_NO_LIST_READER === '1' ? null : new StockListReader(join(dir, 'squarewright.db'));
-const deps = buildDeps({ stockListReader, env, db, demo: false, secret: env.AUTH_SECRET ?? '', smtp: { url: 'smtp://127.0.0.1:9', localFake: true }, signInLimit: { window: 60, max: 1000 } });
+// the stock list's reader thread, as the server has it (server/bootstrap.ts); BENCH_NO_STOCK_READER=1: without
+const stockReader = process.env.BENCH_NO_STOCK_READER === '1' ? null : new StockReader(join(dir, 'squarewright.db'));
+const deps = buildDeps({ stockReader, env, db, demo: false, secret: env.AUTH_SECRET ?? '', smtp: { url: 'smtp://127.0.0.1:9', localFake: true }, signInLimit: { window: 60, max: 1000 } });
 await deps.jobs.ready();
 const t0 = Date.now();
 const seeded = seedBulkStock(deps, N);
@@ -93,7 +93,7 @@ process.on('message', (m: { type: string }) => {
     } else if (m.type === 'stop') {
       for (const id of deps.jobs.active()) deps.jobs.cancel(id);
       await deps.jobs.close();
-      await stockListReader?.close();
+      await stockReader?.close();
       await new Promise<void>((r) => server.close(() => r()));
       server.closeAllConnections();
       await deps.mail.stop();

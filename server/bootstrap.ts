@@ -20,7 +20,7 @@ import { privateDataDir, privateFile } from './platform/private-files';
 import { InstanceLockError, lockDataDir } from './platform/instance-lock';
 import { redactUrl } from './platform/jobs/runtime';
 import type { LocalFakeHandle } from './platform/local-fake';
-import { StockListReader } from './areas/stock/index';
+import { StockReader } from './areas/stock/index';
 
 // Start-up shared by server/index.ts (production) and server/dev.ts (Vite middleware).
 
@@ -99,10 +99,10 @@ async function startLocked(options: StartOptions, envIn: Env, log: ReturnType<ty
   const overrides = Object.assign({}, ...started.map((s) => s.handle.envOverrides ?? {})) as Record<string, string>;
   if (Object.keys(overrides).length > 0) env = loadEnv({ ...source, ...overrides });
 
-  // the stock list's pages are read on a thread of their own (server/areas/stock/list-reader.ts)
-  const stockListReader = new StockListReader(dbFile);
-  stops.push(() => stockListReader.close());
-  const deps = buildDeps({ env, db, demo, secret, smtp, log, stockListReader });
+  // the stock list's pages are read on a thread of their own (server/areas/stock/stock-reader.ts)
+  const stockReader = new StockReader(dbFile);
+  stops.push(() => stockReader.close());
+  const deps = buildDeps({ env, db, demo, secret, smtp, log, stockReader });
   // once per database: a new one in demo mode, or an older one started with DEMO=1
   if (demo && !wasDemoSeeded(db)) {
     await seedDemo(deps, options.seeders);

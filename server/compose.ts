@@ -10,7 +10,7 @@ import { foundryRunSink } from './areas/foundry/index';
 import { uploadSink } from './areas/intake/index';
 import { createPuzzleSource, createStockUsage, puzzleProofSink } from './areas/puzzles/index';
 import { publishedContent } from './areas/reader/index';
-import { stockPort, type StockListReader } from './areas/stock/index';
+import { stockPort, type StockReader } from './areas/stock/index';
 import { jobKindNames } from './job-kinds';
 import { createJobs } from './platform/jobs/runtime';
 import type { Env } from './platform/env';
@@ -35,7 +35,7 @@ export type BuildDepsInput = {
   /** the job system (tests pass their own); default: createJobs from the environment */
   jobs?: Jobs;
   /** the stock list's reader thread (the server starts one for its database file); none: the request thread reads list pages */
-  stockListReader?: StockListReader | null;
+  stockReader?: StockReader | null;
 };
 
 /** The app's job system: every job kind's server half (where its results go) with the kinds the workers run. */
@@ -75,7 +75,7 @@ export function buildDeps(input: BuildDepsInput): AppDeps {
   return {
     ...platform,
     stock: stockPort,
-    stockListReader: input.stockListReader ?? null,
+    stockReader: input.stockReader ?? null,
     submissionHistory,
     stockUsage: createStockUsage(editionUsage),
     editionUsage,

@@ -2,7 +2,7 @@
 // Other areas reach the stock's services only through the StockPort they are given
 // (./ports.ts, wired in server/compose.ts); the tiling analysis is pure and imported directly.
 export { registerStockRoutes } from './routes';
-export { StockListReader } from './list-reader';
+export { StockReader } from './stock-reader';
 export { fillStockReducedKeys, stockPort } from './stock';
 export { stock } from './schema';
 export {

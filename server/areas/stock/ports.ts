@@ -1,4 +1,4 @@
-import type { StockListReader } from './list-reader';
+import type { StockReader } from './stock-reader';
 import type { Provenance, StockDetail, StockSummary } from '../../../shared/contracts/stock';
 import type { Tiling } from '../../../shared/tiling/index';
 import type { DbOrTx } from '../../platform/db/client';
@@ -65,4 +65,4 @@ export interface SubmissionHistory {
 }
 
 /** What the stock's routes and services are given. */
-export type StockDeps = PlatformDeps & { stockUsage: StockUsage; submissionHistory: SubmissionHistory; stockListReader?: StockListReader | null };
+export type StockDeps = PlatformDeps & { stockUsage: StockUsage; submissionHistory: SubmissionHistory; stockReader?: StockReader | null };

@@ -9,13 +9,15 @@ import {
   stockListSchema,
   stockSummarySchema,
   type StockExportQuery,
-  type StockItem,
 } from '../../../shared/contracts/stock';
 import { JsonText, route, type ApiRouter } from '../../platform/http/route';
 import { PNG_SIZES } from '../../platform/images/tiling-png';
 import { tilingPngOnWorker } from './png-job';
 import type { StockDeps } from './ports';
-import { exportBatches, fillStockReducedKeys, getStockDetail, stockListJson, stockCodeFileHead, stockCsvHead, stockCsvRows, stockSummary, stockTiling } from './stock';
+import { exportPage, fillStockReducedKeys, getStockDetail, stockListJson, stockCodeFileHead, stockCsvHead, stockSummary, stockTiling, type ExportFormat, type ExportMark } from './stock';
+
+/** Rows per page of an export (a few ms to read and write as text). */
+const EXPORT_PAGE_ROWS = 500;
 import { countStock } from './stock-filter';
 
 /** PNG images by canonical key and size (a tiling's picture never changes); at most this many kept. */
@@ -41,14 +43,18 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
 
   /**
    * An export route's answer: the whole filtered selection (or the first `limit` rows) as a file,
-   * streamed in batches of 2,000 rows with a turn of the event loop between them (and waiting
-   * for the client when it reads slower), so a 100,000-row export does not hold up anyone else.
+   * streamed in pages of 500 rows (waiting for the client when it reads slower), so a 100,000-row
+   * export does not hold up anyone else. The pages are read and written as text on the stock
+   * reader's thread (./stock-reader.ts); without one, here, as background work that takes only
+   * its share of the request thread (with storing job results: server/platform/request-pulse.ts).
    */
   const exportAs =
-    (fileName: string, type: string, head: (count: number) => string, rows: (items: StockItem[]) => string) =>
+    (fileName: string, type: string, head: (count: number) => string, format: ExportFormat) =>
     async ({ res, query }: { res: Response; query: StockExportQuery }) => {
       const { limit, ...filter } = query;
-      const total = Math.min(countStock(deps.db, filter), limit ?? Infinity);
+      const reader = () => (deps.stockReader?.alive ? deps.stockReader : null);
+      const count = reader() ? await reader()!.count(filter) : countStock(deps.db, filter);
+      const total = Math.min(count, limit ?? Infinity);
       res.status(200).attachment(fileName).type(type).setHeader('X-Total-Count', String(total));
       let gone = false;
       res.on('close', () => (gone = true));
@@ -65,19 +71,23 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
         }
       };
       await write(head(total));
-      // 500 rows a turn of the event loop, a few ms of the request thread each; while other
-      // requests come in, an export is background work and takes only its share of the thread
-      // (with storing job results: server/platform/request-pulse.ts)
-      const batches = exportBatches(deps.db, filter, limit, 500);
-      for (;;) {
-        await processPulse.backgroundTurn();
+      let after: ExportMark | null = null;
+      for (let left = limit ?? Infinity; left > 0; ) {
+        const n = Math.min(EXPORT_PAGE_ROWS, left);
+        const r = reader();
+        let page: Awaited<ReturnType<typeof exportPage>>;
+        if (r) page = await r.exportPage(filter, after, n, format);
+        else {
+          await processPulse.backgroundTurn();
+          const t0 = performance.now();
+          page = exportPage(deps.db.$client, filter, after, n, format);
+          processPulse.backgroundDone(performance.now() - t0);
+        }
         if (gone) return;
-        const t0 = performance.now();
-        const next = batches.next();
-        if (next.done) break;
-        const text = rows(next.value);
-        processPulse.backgroundDone(performance.now() - t0);
-        await write(text);
+        if (page.count > 0) await write(page.text);
+        if (page.count < n) break;
+        left -= page.count;
+        after = page.after;
         await new Promise<void>((r) => setImmediate(r));
       }
       res.end();
@@ -86,13 +96,13 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
   route(
     router,
     { method: 'GET', path: '/api/stock/export.csv', summary: 'The whole filtered selection as CSV, streamed (limit: the first rows only); X-Total-Count says how many rows', tags, query: stockExportQuerySchema, produces: 'text/csv' },
-    exportAs('squarewright-stock.csv', 'text/csv; charset=utf-8', stockCsvHead, stockCsvRows),
+    exportAs('squarewright-stock.csv', 'text/csv; charset=utf-8', stockCsvHead, 'csv'),
   );
 
   route(
     router,
     { method: 'GET', path: '/api/stock/export.txt', summary: 'The whole filtered selection as a code file (one canonical Bouwkamp code a line), streamed', tags, query: stockExportQuerySchema, produces: 'text/plain' },
-    exportAs('squarewright-stock.txt', 'text/plain; charset=utf-8', (n) => stockCodeFileHead(n, deps.clock.now()), (items) => items.map((i) => `${i.canonicalCode}\n`).join('')),
+    exportAs('squarewright-stock.txt', 'text/plain; charset=utf-8', (n) => stockCodeFileHead(n, deps.clock.now()), 'codes'),
   );
 
   route(

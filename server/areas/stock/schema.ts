@@ -60,7 +60,7 @@ export const stock = sqliteTable(
 /**
  * How many times stock rows were changed in place (or deleted): one row, kept by triggers on
  * the stock table (migration 0019), so every connection (the request thread's and the list
- * reader's, ./list-reader.ts) sees the same number in the same transaction. Rows added do not
+ * reader's, ./stock-reader.ts) sees the same number in the same transaction. Rows added do not
  * count: the stock's filter snapshot counts them by rowid (./stock-filter.ts).
  */
 export const stockRevision = sqliteTable('stock_revision', {

@@ -125,7 +125,7 @@ export function noteStockWrite(by: 'people' | 'background' = 'people'): void {
  * SQLite until a second had passed without one). A change in place is seen by the stock's
  * rewrite count (table stock_revision, kept by triggers on the stock table: migration 0019), the
  * same number on every connection and in the same transaction as the rows, so the request
- * thread's connection and the list reader's (./list-reader.ts) keep snapshots alike. Reading
+ * thread's connection and the stock reader's (./stock-reader.ts) keep snapshots alike. Reading
  * all rows at once took ~100 ms at 50,000, a stall for every request behind it, so a snapshot
  * is (re)taken in chunks of 2,000 rows by rowid, one chunk per turn of the event loop (a few ms
  * each); a change between two chunks discards the partial one. A retake starts once nothing has
@@ -260,7 +260,7 @@ export function countStock(db: Db, f: StockFilter): number {
   return countStockIn(db.$client, f);
 }
 
-/** countStock on a connection (the list reader's own, ./list-reader-thread.ts). */
+/** countStock on a connection (the stock reader's own, ./stock-reader-thread.ts). */
 export function countStockIn(client: Sqlite, f: StockFilter): number {
   const s = filterSnapshot(client);
   if (!s) return countStockInSql(client, f);

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull, sql } from 'drizzle-orm';
 import { isSimple, verifyTiling, type Tiling } from '../../../shared/tiling/index';
 import type { Provenance, StockDetail, StockItem, StockList, StockListQuery, StockSummary } from '../../../shared/contracts/stock';
 import type { Db, DbOrTx } from '../../platform/db/client';
@@ -6,7 +6,7 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { connectionOf } from '../../platform/db/statements';
-import type { StockListReader } from './list-reader';
+import type { ExportFormat, ExportMark, StockReader } from './stock-reader';
 import { countStockIn, noteStockWrite, prepared, type Sqlite, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, gcdOfKey, reducedFormOf, smithDrawingOf } from './tiling-analysis';
@@ -142,8 +142,8 @@ const sortColumns = {
  * GET /api/stock. Two steps so the wide rows (squares JSON) are never scanned or sorted:
  * the page's ids come from a narrow covering index (stock_recent_idx or stock_filter_idx, as
  * SQLite picks), the total from countStock (./stock-filter.ts), then only the page's rows are
- * read (decision 052). The page is read by the stock list reader's thread when the server has
- * one (./list-reader.ts), else here; either way the answer is JSON text, cached as text.
+ * read (decision 052). The page is read by the stock reader's thread when the server has
+ * one (./stock-reader.ts), else here; either way the answer is JSON text, cached as text.
  */
 const LIST_TTL_MS = 5_000;
 /** How late a list may show results a job stores (a foundry run storing thousands would otherwise empty the cache with each slice). */
@@ -151,7 +151,7 @@ const BACKGROUND_LAG_MS = 1_000;
 const listCache = new WeakMap<object, Map<string, { value: string; generation: ReturnType<typeof stockGeneration>; at: number }>>();
 
 /** A page of the stock list as JSON text (the StockList contract). */
-export async function stockListJson(deps: { db: Db; stockListReader?: StockListReader | null }, q: StockListQuery): Promise<string> {
+export async function stockListJson(deps: { db: Db; stockReader?: StockReader | null }, q: StockListQuery): Promise<string> {
   // the same page of the same view (editors page back and forth) is answered from memory until
   // the stock changes or LIST_TTL_MS passes
   const key = JSON.stringify(q);
@@ -162,7 +162,7 @@ export async function stockListJson(deps: { db: Db; stockListReader?: StockListR
   if (hit && hit.generation.people === gen.people && Date.now() - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
   // the generation is taken before the page is read: a write meanwhile makes the next request read again
   const at = Date.now();
-  const reader = deps.stockListReader;
+  const reader = deps.stockReader;
   const value = reader?.alive ? await reader.list(q) : JSON.stringify(listStockPage(deps.db.$client, q));
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
   perDb.set(key, { value, generation: gen, at });
@@ -303,34 +303,41 @@ export function stockSummary(db: DbOrTx, usage: StockUsage): StockSummary {
   return { total, byOrder, byGrade: usage.gradeCounts(db) };
 }
 
-export interface ExportRow extends StockItem {
-  squaresJson: string;
-}
+export type { ExportFormat, ExportMark } from './stock-reader';
+
+type ExportRowRead = Omit<ListRow, 'squaresJson'> & { canonicalKey: string; canonicalCode: string };
+const exportColumns =
+  'id, canonical_key as canonicalKey, canonical_code as canonicalCode, width, height, "order", square, perfect, simple, provenance, ' +
+  'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt';
 
 /**
- * The filtered selection for export, newest first, in batches of `batch` rows read by keyset
- * (created_at, id): each batch is one short query, so an export of 100,000 rows never holds the
- * thread for long; at most `limit` rows in all (every row when undefined).
+ * The next rows of an export (newest first, after `after`) as the file's text: prepared SQL
+ * over the stock_recent_idx order, the position by row value, so each page costs the same
+ * however far the export has got. Read on the stock reader's thread when there is one.
  */
-export function* exportBatches(db: DbOrTx, f: StockFilter, limit: number | undefined, batch = 2_000): Generator<StockItem[]> {
-  let left = limit ?? Infinity;
-  let after: { createdAt: Date; id: number } | null = null;
-  while (left > 0) {
-    const keyset: SQL | undefined = after ? sql`(${stock.createdAt} < ${after.createdAt.getTime()} or (${stock.createdAt} = ${after.createdAt.getTime()} and ${stock.id} < ${after.id}))` : undefined;
-    const rows: ItemRow[] = db
-      .select(itemColumns)
-      .from(stock)
-      .where(and(stockWhere(f), keyset))
-      .orderBy(desc(stock.createdAt), desc(stock.id))
-      .limit(Math.min(batch, left))
-      .all();
-    if (rows.length === 0) return;
-    left -= rows.length;
-    const last: ItemRow = rows[rows.length - 1]!;
-    after = { createdAt: last.createdAt, id: last.id };
-    yield rows.map(toItem);
-    if (rows.length < batch) return;
-  }
+export function exportPage(client: Sqlite, f: StockFilter, after: ExportMark | null, n: number, format: ExportFormat): { text: string; count: number; after: ExportMark | null } {
+  const where = stockWhereSql(f);
+  const cond = [where.text.slice('where '.length), after ? '(created_at, id) < (?, ?)' : ''].filter(Boolean).join(' and ');
+  const text = `select ${exportColumns} from stock ${cond ? `where ${cond}` : ''} order by created_at desc, id desc limit ?`;
+  const rows = prepared(client, text).all(...where.params, ...(after ? [after.createdAt, after.id] : []), n) as ExportRowRead[];
+  const items: StockItem[] = rows.map((r) => ({
+    id: r.id,
+    canonicalKey: r.canonicalKey,
+    canonicalCode: r.canonicalCode,
+    width: r.width,
+    height: r.height,
+    order: r.order,
+    square: r.square === 1,
+    perfect: r.perfect === 1,
+    simple: r.simple === 1,
+    provenance: r.provenance,
+    setterId: r.setterId,
+    useCount: r.useCount,
+    createdAt: new Date(r.createdAt).toISOString(),
+    acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
+  }));
+  const last = rows[rows.length - 1];
+  return { text: format === 'csv' ? stockCsvRows(items) : stockCodeRows(items), count: rows.length, after: last ? { createdAt: last.createdAt, id: last.id } : after };
 }
 
 /** The filtered selection for export, newest first, at most `limit` rows, at once (tests; routes stream exportBatches). */
@@ -369,9 +376,12 @@ export function stockCsv(items: StockItem[]): string {
 /** The code file's comment lines (`#`: our upload skips them). */
 export const stockCodeFileHead = (count: number, now: Date) => `# Squarewright stock export, ${count} tilings, ${now.toISOString()}\n# one canonical Bouwkamp code per line\n`;
 
+/** Code file lines of these items (no head): one canonical Bouwkamp code a line. */
+export const stockCodeRows = (items: StockItem[]) => items.map((i) => `${i.canonicalCode}\n`).join('');
+
 /** One canonical Bouwkamp code a line; `#` lines are comments (our upload reads this file back). */
 export function stockCodeFile(items: StockItem[], now: Date): string {
-  return stockCodeFileHead(items.length, now) + items.map((i) => `${i.canonicalCode}\n`).join('');
+  return stockCodeFileHead(items.length, now) + stockCodeRows(items);
 }
 
 /** Every canonical key in the stock. */

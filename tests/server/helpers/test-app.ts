@@ -10,7 +10,7 @@ import type { Role } from '../../../shared/contracts/common';
 import { createApp } from '../../../server/app';
 import type { Clock } from '../../../server/platform/clock';
 import { buildDeps, createAppJobs } from '../../../server/compose';
-import { StockListReader } from '../../../server/areas/stock/index';
+import { StockReader } from '../../../server/areas/stock/index';
 import { closeDatabase, openDatabase, type Db } from '../../../server/platform/db/client';
 import { user } from '../../../server/platform/auth/schema';
 import { mailboxMessage } from '../../../server/platform/mail/schema';
@@ -94,7 +94,7 @@ export type CreateTestAppOptions = {
   /** webhook outbox settings (retry delays, attempts, timeout); the sender is not started: call t.deps.webhooks.flush() */
   webhooks?: { baseDelayMs?: number; maxDelayMs?: number; maxAttempts?: number; timeoutMs?: number };
   /** read stock list pages on a reader thread, as the server does (default: on the request thread) */
-  listReader?: boolean;
+  stockReader?: boolean;
 };
 
 /**
@@ -125,7 +125,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
   const db = openDatabase(join(dir, 'squarewright.db'));
   const smtp = await startFakeSmtp({ db });
   const clock = createTestClock();
-  const stockListReader = options.listReader ? new StockListReader(join(dir, 'squarewright.db')) : null;
+  const stockReader = options.stockReader ? new StockReader(join(dir, 'squarewright.db')) : null;
   const demo = options.demo !== undefined && options.demo !== false;
   const deps = buildDeps({
     env,
@@ -135,7 +135,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     smtp: { url: smtp.url, localFake: true },
     clock,
     signInLimit: options.signInLimit ?? { window: 60, max: 1000 },
-    stockListReader,
+    stockReader,
     ...(options.mail ? { mail: options.mail } : {}),
     ...(options.webhooks ? { webhooks: options.webhooks } : {}),
   });
@@ -214,7 +214,7 @@ export async function createTestApp(options: CreateTestAppOptions = {}): Promise
     },
     async close() {
       await deps.jobs.close();
-      await stockListReader?.close();
+      await stockReader?.close();
       await deps.mail.stop();
       await smtp.close();
       closeDatabase(db);

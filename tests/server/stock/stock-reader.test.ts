@@ -1,15 +1,15 @@
 import { eq } from 'drizzle-orm';
 import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { stockListQuerySchema, stockListSchema } from '../../../shared/contracts/stock';
+import { stockFilterSchema, stockListQuerySchema, stockListSchema } from '../../../shared/contracts/stock';
 import { parseTiling } from '../../../shared/tiling/index';
 import { seedBulkStock } from '../../../server/areas/intake/demo-seed';
 import { stock } from '../../../server/areas/stock/schema';
-import { addToStock, listStock, markStockUsed } from '../../../server/areas/stock/stock';
+import { addToStock, exportStock, listStock, markStockUsed, stockCsvHead, stockCsvRows } from '../../../server/areas/stock/stock';
 import { order21Square } from '../../fixtures/intake/order10';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
-// The stock list read on its own thread (server/areas/stock/list-reader.ts), with its own
+// The stock list read on its own thread (server/areas/stock/stock-reader.ts), with its own
 // read-only connection, must answer exactly what the request thread reads on its connection,
 // and see every write the moment it is committed. Oracle: the same page read in-process
 // (listStock on the request thread's connection, whose totals countStock checks against SQLite
@@ -18,13 +18,13 @@ import { createTestApp, type TestApp } from '../helpers/test-app';
 let t: TestApp;
 let editor: TestAgent;
 beforeAll(async () => {
-  t = await createTestApp({ listReader: true });
+  t = await createTestApp({ stockReader: true });
   editor = await t.signInAs('editor');
   seedBulkStock(t.deps, 300);
 });
 afterAll(() => t.close());
 
-const queries = [
+const queries: Record<string, string>[] = [
   {},
   { orderMin: '20', orderMax: '30', page: '2' },
   { provenance: 'foundry', sort: '-width', pageSize: '50' },
@@ -40,9 +40,9 @@ async function both(q: Record<string, string>) {
   return { thread: stockListSchema.parse(r.body), here: listStock(t.db, stockListQuerySchema.parse(q)) };
 }
 
-describe('the stock list reader thread', () => {
+describe('the stock reader thread', () => {
   it('is running, and answers every filter shape as the request thread reads it', async () => {
-    expect(t.deps.stockListReader?.alive).toBe(true);
+    expect(t.deps.stockReader?.alive).toBe(true);
     for (const q of queries) {
       const { thread, here } = await both(q);
       expect(thread, JSON.stringify(q)).toEqual(here);
@@ -78,9 +78,24 @@ describe('the stock list reader thread', () => {
     }
   });
 
+  it('counts and pages the exports as the Drizzle query reads the same selection (CSV and code file, with a limit)', async () => {
+    for (const f of [{}, { orderMin: '22', perfect: 'true' }, { used: 'used' }] as Record<string, string>[]) {
+      const expected = exportStock(t.db, stockFilterSchema.parse(f), 100_000);
+      const csv = await editor.get('/api/stock/export.csv').query(f).expect(200);
+      expect(csv.headers['x-total-count']).toBe(String(expected.length));
+      expect(csv.text).toBe(stockCsvHead() + stockCsvRows(expected));
+      const codes = await editor.get('/api/stock/export.txt').query({ ...f, limit: '7' }).buffer(true).parse((res, cb) => {
+        let body = '';
+        res.on('data', (c: Buffer) => (body += c.toString()));
+        res.on('end', () => cb(null, body));
+      }).expect(200);
+      expect((codes.body as string).split('\n').filter((l) => l && !l.startsWith('#'))).toEqual(expected.slice(0, 7).map((i) => i.canonicalCode));
+    }
+  });
+
   it('once closed, the request thread reads the pages itself', async () => {
-    await t.deps.stockListReader!.close();
-    expect(t.deps.stockListReader!.alive).toBe(false);
+    await t.deps.stockReader!.close();
+    expect(t.deps.stockReader!.alive).toBe(false);
     // a page not asked for before (not in the page cache)
     const after = await both({ orderMin: '22', pageSize: '21' });
     expect(after.thread.items.length).toBeGreaterThan(0);
