@@ -24,13 +24,35 @@ function answer(m: StockReaderAsk): unknown {
   }
 }
 
-port.on('message', (m: StockReaderAsk) => {
+function reply(m: StockReaderAsk): void {
   let a: StockReaderAnswer;
   try {
     a = { id: m.id, value: answer(m) };
   } catch (e) {
     a = { id: m.id, error: e instanceof Error ? e.message : String(e) };
   }
-  port.postMessage(a);
+  port!.postMessage(a);
+}
+
+// people's pages and counts before export pages: one ask a turn of this thread's event loop, so
+// asks that arrived meanwhile are queued first and a list page waits behind at most one export page
+const urgent: StockReaderAsk[] = [];
+const later: StockReaderAsk[] = [];
+let draining = false;
+function drain(): void {
+  const m = urgent.shift() ?? later.shift();
+  if (!m) {
+    draining = false;
+    return;
+  }
+  reply(m);
+  setImmediate(drain);
+}
+port.on('message', (m: StockReaderAsk) => {
+  (m.kind === 'export' ? later : urgent).push(m);
+  if (!draining) {
+    draining = true;
+    setImmediate(drain);
+  }
 });
 port.postMessage({ id: 0, value: 'ready' } satisfies StockReaderAnswer);
