@@ -190,6 +190,24 @@ type ListRow = {
   squaresJson: string;
 };
 
+/** A list or export row's common fields as the API gives them (flags as booleans, times as ISO text). */
+function itemFieldsOf(r: Omit<ListRow, 'squaresJson'>) {
+  return {
+    id: r.id,
+    width: r.width,
+    height: r.height,
+    order: r.order,
+    square: r.square === 1,
+    perfect: r.perfect === 1,
+    simple: r.simple === 1,
+    provenance: r.provenance,
+    setterId: r.setterId,
+    useCount: r.useCount,
+    createdAt: new Date(r.createdAt).toISOString(),
+    acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
+  };
+}
+
 const listRowsSql =
   'select id, width, height, "order", square, perfect, simple, provenance, ' +
   'setter_id as setterId, use_count as useCount, created_at as createdAt, accepted_at as acceptedAt, squares_json as squaresJson ' +
@@ -216,24 +234,7 @@ function readListPage(client: Sqlite, q: StockListQuery): StockList {
     items: idRows.flatMap((id) => {
       const hit = byId.get(id);
       if (!hit) return [];
-      const { r } = hit;
-      return [
-        {
-          id: r.id,
-          width: r.width,
-          height: r.height,
-          order: r.order,
-          square: r.square === 1,
-          perfect: r.perfect === 1,
-          simple: r.simple === 1,
-          provenance: r.provenance,
-          setterId: r.setterId,
-          useCount: r.useCount,
-          createdAt: new Date(r.createdAt).toISOString(),
-          acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
-          squares: hit.squares,
-        },
-      ];
+      return [{ ...itemFieldsOf(hit.r), squares: hit.squares }];
     }),
     total,
     page: q.page,
@@ -320,22 +321,7 @@ export function exportPage(client: Sqlite, f: StockFilter, after: ExportMark | n
   const cond = [where.text.slice('where '.length), after ? '(created_at, id) < (?, ?)' : ''].filter(Boolean).join(' and ');
   const text = `select ${exportColumns} from stock ${cond ? `where ${cond}` : ''} order by created_at desc, id desc limit ?`;
   const rows = prepared(client, text).all(...where.params, ...(after ? [after.createdAt, after.id] : []), n) as ExportRowRead[];
-  const items: StockItem[] = rows.map((r) => ({
-    id: r.id,
-    canonicalKey: r.canonicalKey,
-    canonicalCode: r.canonicalCode,
-    width: r.width,
-    height: r.height,
-    order: r.order,
-    square: r.square === 1,
-    perfect: r.perfect === 1,
-    simple: r.simple === 1,
-    provenance: r.provenance,
-    setterId: r.setterId,
-    useCount: r.useCount,
-    createdAt: new Date(r.createdAt).toISOString(),
-    acceptedAt: r.acceptedAt === null ? null : new Date(r.acceptedAt).toISOString(),
-  }));
+  const items: StockItem[] = rows.map((r) => ({ ...itemFieldsOf(r), canonicalKey: r.canonicalKey, canonicalCode: r.canonicalCode }));
   const last = rows[rows.length - 1];
   return { text: format === 'csv' ? stockCsvRows(items) : stockCodeRows(items), count: rows.length, after: last ? { createdAt: last.createdAt, id: last.id } : after };
 }
