@@ -100,7 +100,7 @@ async function startLocked(options: StartOptions, envIn: Env, log: ReturnType<ty
   if (Object.keys(overrides).length > 0) env = loadEnv({ ...source, ...overrides });
 
   // the stock list's pages are read on a thread of their own (server/areas/stock/stock-reader.ts)
-  const stockReader = new StockReader(dbFile);
+  const stockReader = new StockReader(dbFile, (e, again) => log.warn(`${e.message}; ${again ? 'starting it again in a second' : 'too many restarts: the request thread reads the stock itself from now on'}`));
   stops.push(() => stockReader.close());
   const deps = buildDeps({ env, db, demo, secret, smtp, log, stockReader });
   // once per database: a new one in demo mode, or an older one started with DEMO=1

@@ -26,20 +26,37 @@ export type StockReaderAsk = { id: number } & (
 export type StockReaderAnswer = { id: number; value: unknown } | { id: number; error: string };
 type Ask = StockReaderAsk extends infer A ? (A extends { id: number } ? Omit<A, 'id'> : never) : never;
 
+/** A reader thread that stops is started again after RESTART_DELAY_MS, at most MAX_RESTARTS times a minute. */
+const RESTART_DELAY_MS = 1_000;
+const MAX_RESTARTS = 5;
+
 export class StockReader {
-  private readonly worker: Worker;
+  private worker: Worker;
   private readonly pending = new Map<number, { resolve: (value: unknown) => void; reject: (e: Error) => void }>();
   private seq = 0;
-  private dead: Error | null = null;
-  /** resolves once the thread has opened the database (or failed) */
+  /** why the thread is not answering (null while it runs) */
+  private down: Error | null = null;
+  private closed = false;
+  private restarts: number[] = [];
+  /** resolves once the first thread has opened the database (or failed) */
   readonly ready: Promise<void>;
 
-  constructor(file: string) {
+  /** onDown: told when the thread stops unasked (the request thread reads for itself meanwhile). */
+  constructor(
+    private readonly file: string,
+    private readonly onDown?: (e: Error, restarting: boolean) => void,
+  ) {
+    const started = this.start();
+    this.worker = started.worker;
+    this.ready = started.opened;
+  }
+
+  private start(): { worker: Worker; opened: Promise<void> } {
     const spec = workerSpec({ source: new URL('./stock-reader-thread.ts', import.meta.url), bundle: 'stock-reader' });
-    this.worker = new Worker(spec.source ? sourceBootstrap(spec.url) : spec.url, { workerData: { file } });
+    const worker = new Worker(spec.source ? sourceBootstrap(spec.url) : spec.url, { workerData: { file: this.file } });
     let opened: () => void = () => undefined;
-    this.ready = new Promise<void>((resolve) => (opened = resolve));
-    this.worker.on('message', (a: StockReaderAnswer) => {
+    const openedP = new Promise<void>((resolve) => (opened = resolve));
+    worker.on('message', (a: StockReaderAnswer) => {
       if (a.id === 0) {
         opened();
         return;
@@ -50,25 +67,47 @@ export class StockReader {
       if ('error' in a) p.reject(new Error(a.error));
       else p.resolve(a.value);
     });
+    let failed = false;
     const fail = (e: Error) => {
-      this.dead ??= e;
       opened();
+      if (failed || worker !== this.worker) return;
+      failed = true;
+      this.down = e;
       for (const p of this.pending.values()) p.reject(e);
       this.pending.clear();
+      if (this.closed) return;
+      const now = Date.now();
+      this.restarts = this.restarts.filter((t) => now - t < 60_000);
+      const again = this.restarts.length < MAX_RESTARTS;
+      this.onDown?.(e, again);
+      if (!again) return;
+      this.restarts.push(now);
+      setTimeout(() => {
+        if (this.closed) return;
+        this.worker = this.start().worker;
+        this.down = null;
+      }, RESTART_DELAY_MS).unref();
     };
-    this.worker.on('error', fail);
-    this.worker.on('exit', (code) => fail(new Error(`the stock reader stopped (exit code ${code})`)));
+    worker.on('error', fail);
+    worker.on('exit', (code) => fail(new Error(`the stock reader stopped (exit code ${code})`)));
     // an idle reader does not keep the process alive
-    this.worker.unref();
+    worker.unref();
+    return { worker, opened: openedP };
   }
 
-  /** False once the thread has failed or been closed (the request thread then reads for itself). */
+  /** False while the thread is down or after close (the request thread then reads for itself). */
   get alive(): boolean {
-    return this.dead === null;
+    return this.down === null && !this.closed;
+  }
+
+  /** Tests: stop the thread as a crash would (it is started again after RESTART_DELAY_MS). */
+  async crashForTests(): Promise<void> {
+    await this.worker.terminate();
   }
 
   private ask(a: Ask): Promise<unknown> {
-    if (this.dead) return Promise.reject(this.dead);
+    if (this.closed) return Promise.reject(new Error('the stock reader is closed'));
+    if (this.down) return Promise.reject(this.down);
     const id = ++this.seq;
     return new Promise<unknown>((resolve, reject) => {
       this.pending.set(id, { resolve, reject });
@@ -92,7 +131,7 @@ export class StockReader {
   }
 
   async close(): Promise<void> {
-    this.dead ??= new Error('the stock reader is closed');
+    this.closed = true;
     await this.worker.terminate();
   }
 }

@@ -93,6 +93,19 @@ describe('the stock reader thread', () => {
     }
   });
 
+  it('a thread that stops is started again; meanwhile the request thread reads the pages', async () => {
+    const reader = t.deps.stockReader!;
+    await reader.crashForTests();
+    expect(reader.alive).toBe(false);
+    const meanwhile = await both({ orderMin: '21', pageSize: '13' });
+    expect(meanwhile.thread).toEqual(meanwhile.here);
+    for (let i = 0; i < 100 && !reader.alive; i++) await new Promise((r) => setTimeout(r, 50));
+    expect(reader.alive).toBe(true);
+    // read by the new thread (a page not cached yet)
+    const again = await both({ orderMin: '21', pageSize: '14' });
+    expect(again.thread).toEqual(again.here);
+  });
+
   it('once closed, the request thread reads the pages itself', async () => {
     await t.deps.stockReader!.close();
     expect(t.deps.stockReader!.alive).toBe(false);
