@@ -13,6 +13,7 @@ import {
 import { JsonText, route, type ApiRouter } from '../../platform/http/route';
 import { PNG_SIZES } from '../../platform/images/tiling-png';
 import { tilingPngOnWorker } from './png-job';
+import { readStock } from './stock-reader';
 import type { StockDeps } from './ports';
 import { exportPage, fillStockReducedKeys, getStockDetail, stockListJson, stockCodeFileHead, stockCsvHead, stockSummary, stockTiling, type ExportFormat, type ExportMark } from './stock';
 
@@ -52,8 +53,7 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
     (fileName: string, type: string, head: (count: number) => string, format: ExportFormat) =>
     async ({ res, query }: { res: Response; query: StockExportQuery }) => {
       const { limit, ...filter } = query;
-      const reader = () => (deps.stockReader?.alive ? deps.stockReader : null);
-      const count = reader() ? await reader()!.count(filter) : countStock(deps.db, filter);
+      const count = await readStock(deps.stockReader, (r) => r.count(filter), () => countStock(deps.db, filter));
       const total = Math.min(count, limit ?? Infinity);
       res.status(200).attachment(fileName).type(type).setHeader('X-Total-Count', String(total));
       let gone = false;
@@ -74,15 +74,18 @@ export function registerStockRoutes(router: ApiRouter, deps: StockDeps) {
       let after: ExportMark | null = null;
       for (let left = limit ?? Infinity; left > 0; ) {
         const n = Math.min(EXPORT_PAGE_ROWS, left);
-        const r = reader();
-        let page: Awaited<ReturnType<typeof exportPage>>;
-        if (r) page = await r.exportPage(filter, after, n, format);
-        else {
-          await processPulse.backgroundTurn();
-          const t0 = performance.now();
-          page = exportPage(deps.db.$client, filter, after, n, format);
-          processPulse.backgroundDone(performance.now() - t0);
-        }
+        const page = await readStock(
+          deps.stockReader,
+          (r) => r.exportPage(filter, after, n, format),
+          async () => {
+            // on the request thread: background work, within its share
+            await processPulse.backgroundTurn();
+            const t0 = performance.now();
+            const p = exportPage(deps.db.$client, filter, after, n, format);
+            processPulse.backgroundDone(performance.now() - t0);
+            return p;
+          },
+        );
         if (gone) return;
         if (page.count > 0) await write(page.text);
         if (page.count < n) break;

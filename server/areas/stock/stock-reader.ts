@@ -135,3 +135,17 @@ export class StockReader {
     await this.worker.terminate();
   }
 }
+
+/**
+ * Reads through the stock reader while it runs, else on the request thread (`here`); also when
+ * the thread stops while the ask is out (an error of the read itself is passed on as it is).
+ */
+export async function readStock<T>(reader: StockReader | null | undefined, viaReader: (r: StockReader) => Promise<T>, here: () => T | Promise<T>): Promise<T> {
+  if (!reader?.alive) return here();
+  try {
+    return await viaReader(reader);
+  } catch (e) {
+    if (reader.alive) throw e;
+    return here();
+  }
+}

@@ -6,7 +6,7 @@ import { stock } from './schema';
 import { NotFound, Unprocessable } from '../../platform/http/errors';
 import type { AddToStockInput, AddToStockResult, StockPort, StockTiling, StockUsage, SubmissionHistory } from './ports';
 import { connectionOf } from '../../platform/db/statements';
-import type { ExportFormat, ExportMark, StockReader } from './stock-reader';
+import { readStock, type ExportFormat, type ExportMark, type StockReader } from './stock-reader';
 import { countStockIn, noteStockWrite, prepared, type Sqlite, stockGeneration, stockWhere, stockWhereSql, type StockFilter } from './stock-filter';
 import { squaresToJson, storedParamsOf, storedSquaresOf, storedTiling } from './stored-json';
 import { canonicalFormOf, classificationOf, gcdOfKey, reducedFormOf, smithDrawingOf } from './tiling-analysis';
@@ -162,8 +162,7 @@ export async function stockListJson(deps: { db: Db; stockReader?: StockReader | 
   if (hit && hit.generation.people === gen.people && Date.now() - hit.at < (hit.generation.background === gen.background ? LIST_TTL_MS : BACKGROUND_LAG_MS)) return hit.value;
   // the generation is taken before the page is read: a write meanwhile makes the next request read again
   const at = Date.now();
-  const reader = deps.stockReader;
-  const value = reader?.alive ? await reader.list(q) : JSON.stringify(listStockPage(deps.db.$client, q));
+  const value = await readStock(deps.stockReader, (r) => r.list(q), () => JSON.stringify(listStockPage(deps.db.$client, q)));
   if (perDb.size >= 500) perDb.delete(perDb.keys().next().value!);
   perDb.set(key, { value, generation: gen, at });
   return value;
