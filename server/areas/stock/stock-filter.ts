@@ -220,10 +220,9 @@ function startRetake(client: Sqlite, stamp: string): void {
 }
 
 /** Tests: true once a snapshot matching the database as it is now is in place. */
-export function stockSnapshotCurrent(db: Db | Sqlite): boolean {
-  const client = '$client' in db ? db.$client : db;
-  const hit = snapshots.get(client);
-  return hit !== undefined && hit.stamp === databaseStamp(client);
+export function stockSnapshotCurrent(db: Db): boolean {
+  const hit = snapshots.get(db.$client);
+  return hit !== undefined && hit.stamp === databaseStamp(db.$client);
 }
 
 function buildSnapshot(rows: SnapshotRow[], stamp: string, at: number, lastRowid: number): FilterSnapshot {
