@@ -7,6 +7,7 @@
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import autocannon from 'autocannon';
 import { mulberry32 } from '../shared/tiling/prng';
+import { stockListShapes } from './load-shapes';
 
 function percentile(sorted: number[], p: number): number {
   if (sorted.length === 0) return NaN;
@@ -15,13 +16,7 @@ function percentile(sorted: number[], p: number): number {
 
 // a fixed pseudo-random sequence (seed 14) so runs are comparable
 const rnd = mulberry32(14);
-const filters = [
-  () => `/api/stock?orderMin=${20 + Math.floor(rnd() * 8)}&orderMax=${28 + Math.floor(rnd() * 8)}&page=${1 + Math.floor(rnd() * 20)}`,
-  () => `/api/stock?provenance=foundry&sort=-width&page=${1 + Math.floor(rnd() * 50)}`,
-  () => `/api/stock?perfect=true&simple=true&used=unused&sort=order&page=${1 + Math.floor(rnd() * 5)}`,
-  () => `/api/stock?widthMin=${Math.floor(rnd() * 500000)}&heightMax=400000&sort=-createdAt&pageSize=50`,
-  () => `/api/stock?square=false&orderMin=30&page=${1 + Math.floor(rnd() * 10)}`,
-];
+const filters = stockListShapes.map((shape) => () => shape(rnd));
 
 interface Row { route: string; n: number; p50: number; p95: number; p99: number; max: number; bad: number }
 

@@ -20,12 +20,15 @@ import { fork, type ChildProcess } from 'node:child_process';
 import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { longCodeFile } from '../tests/fixtures/long-codes';
+import { mulberry32 } from '../shared/tiling/prng';
+import { stockListShapes } from './load-shapes';
 
 const quick = process.env.BENCH_QUICK === '1';
 const STOCK = Number(process.env.BENCH_STOCK ?? (quick ? 5_000 : 50_000));
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 10 : 30));
 const ORIGIN = 'http://localhost:3000';
-const warmUp = ['/api/stock?orderMin=22&orderMax=30', '/api/stock?provenance=foundry&sort=-width', '/api/stock?perfect=true&simple=true&used=unused&sort=order', '/api/stock?widthMin=1000&heightMax=400000&sort=-createdAt&pageSize=50', '/api/stock?square=false&orderMin=30'];
+// every filter shape once (fixed parameters)
+const warmUp = stockListShapes.map((shape) => shape(mulberry32(1)));
 
 type Msg = { type: string } & Record<string, unknown>;
 

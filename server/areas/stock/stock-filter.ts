@@ -206,10 +206,12 @@ function startRetake(client: Sqlite, stamp: string): void {
       retakes.delete(client);
       return;
     }
-    const chunk = prepared(client, chunkSql).raw().all(r.after, snapshotChunkRows) as SnapshotRow[];
+    // the stock reader takes smaller chunks: a list page waits behind at most one (a few ms)
+    const rows = client.readonly ? Math.min(500, snapshotChunkRows) : snapshotChunkRows;
+    const chunk = prepared(client, chunkSql).raw().all(r.after, rows) as SnapshotRow[];
     for (const row of chunk) r.rows.push(row.slice(1));
     if (chunk.length > 0) r.after = chunk[chunk.length - 1]![0] as number;
-    if (chunk.length === snapshotChunkRows) {
+    if (chunk.length === rows) {
       setImmediate(step);
       return;
     }
@@ -274,17 +276,36 @@ export function countStockIn(client: Sqlite, f: StockFilter): number {
     if (counts.size >= 200) counts.delete(counts.keys().next().value!);
     counts.set(key, inSnapshot);
   }
-  return inSnapshot + countAddedSince(client, f, s.lastRowid);
+  if (!client.readonly) return inSnapshot + countAddedBetween(client, f, s.lastRowid, Infinity);
+  // a read-only connection (the stock reader) sees only committed rows, and rowids only grow:
+  // what it counted after the snapshot stays counted, so each count scans only the rows added
+  // since this filter's last one (a foundry run adds thousands while the list is read)
+  let added = snapshotAdded.get(s);
+  if (!added) snapshotAdded.set(s, (added = new Map()));
+  const last = lastRowidOf(client);
+  let a = added.get(key) ?? { upTo: s.lastRowid, n: 0 };
+  if (last > a.upTo) {
+    a = { upTo: last, n: a.n + countAddedBetween(client, f, a.upTo, last) };
+    if (added.size >= 200) added.delete(added.keys().next().value!);
+    added.set(key, a);
+  }
+  return inSnapshot + a.n;
 }
 
 /** Counts in a snapshot by filter (its conditions as JSON); gone with the snapshot. */
 const snapshotCounts = new WeakMap<FilterSnapshot, Map<string, number>>();
+/** Rows added after a snapshot that match a filter, counted up to a rowid (read-only connections); gone with the snapshot. */
+const snapshotAdded = new WeakMap<FilterSnapshot, Map<string, { upTo: number; n: number }>>();
 
-/** Rows added after `rowid` that match the filter: a range scan of the table by rowid (no index). */
-function countAddedSince(client: Sqlite, f: StockFilter, rowid: number): number {
+/**
+ * Rows with after < rowid <= upTo that match the filter: a range scan of the table by rowid (no
+ * index). On a writing connection upTo is Infinity: rows added in a transaction of its own that
+ * may still roll back (and give their rowids again) are never remembered.
+ */
+function countAddedBetween(client: Sqlite, f: StockFilter, after: number, upTo: number): number {
   const where = stockWhereSql(f);
-  const text = `select count(*) from stock not indexed where rowid > ?${where.text ? ` and ${where.text.slice('where '.length)}` : ''}`;
-  return (prepared(client, text).pluck().get(rowid, ...where.params) as number | undefined) ?? 0;
+  const text = `select count(*) from stock not indexed where rowid > ? and rowid <= ?${where.text ? ` and ${where.text.slice('where '.length)}` : ''}`;
+  return (prepared(client, text).pluck().get(after, Number.isFinite(upTo) ? upTo : Number.MAX_SAFE_INTEGER, ...where.params) as number | undefined) ?? 0;
 }
 
 function countInSnapshot(s: FilterSnapshot, f: StockFilter): number {

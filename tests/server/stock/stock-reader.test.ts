@@ -66,6 +66,21 @@ describe('the stock reader thread', () => {
     expect(used2.thread).toEqual(used2.here);
   });
 
+  it('keeps its totals exact while rows are added between its counts (each count adds only the new rows)', async () => {
+    let before = (await both({})).here.total;
+    for (const n of [330, 360, 400]) {
+      seedBulkStock(t.deps, n);
+      const now = (await both({ pageSize: '2' })).here.total;
+      expect(now).toBeGreaterThan(before);
+      before = now;
+      for (const q of queries) {
+        const { thread, here } = await both(q);
+        expect(thread.total, `${n}: ${JSON.stringify(q)}`).toBe(here.total);
+        expect(thread, `${n}: ${JSON.stringify(q)}`).toEqual(here);
+      }
+    }
+  });
+
   it('reports a stored row that does not read as the request thread does (500, nothing half-sent)', async () => {
     const [row] = t.db.select({ id: stock.id, squaresJson: stock.squaresJson }).from(stock).limit(1).all();
     t.db.update(stock).set({ squaresJson: '[[0,0,"x"]]' }).where(eq(stock.id, row!.id)).run();
