@@ -55,4 +55,3 @@ port.on('message', (m: StockReaderAsk) => {
     setImmediate(drain);
   }
 });
-port.postMessage({ id: 0, value: 'ready' } satisfies StockReaderAnswer);

@@ -38,29 +38,19 @@ export class StockReader {
   private down: Error | null = null;
   private closed = false;
   private restarts: number[] = [];
-  /** resolves once the first thread has opened the database (or failed) */
-  readonly ready: Promise<void>;
 
   /** onDown: told when the thread stops unasked (the request thread reads for itself meanwhile). */
   constructor(
     private readonly file: string,
     private readonly onDown?: (e: Error, restarting: boolean) => void,
   ) {
-    const started = this.start();
-    this.worker = started.worker;
-    this.ready = started.opened;
+    this.worker = this.start();
   }
 
-  private start(): { worker: Worker; opened: Promise<void> } {
+  private start(): Worker {
     const spec = workerSpec({ source: new URL('./stock-reader-thread.ts', import.meta.url), bundle: 'stock-reader' });
     const worker = new Worker(spec.source ? sourceBootstrap(spec.url) : spec.url, { workerData: { file: this.file } });
-    let opened: () => void = () => undefined;
-    const openedP = new Promise<void>((resolve) => (opened = resolve));
     worker.on('message', (a: StockReaderAnswer) => {
-      if (a.id === 0) {
-        opened();
-        return;
-      }
       const p = this.pending.get(a.id);
       if (!p) return;
       this.pending.delete(a.id);
@@ -69,7 +59,6 @@ export class StockReader {
     });
     let failed = false;
     const fail = (e: Error) => {
-      opened();
       if (failed || worker !== this.worker) return;
       failed = true;
       this.down = e;
@@ -84,7 +73,7 @@ export class StockReader {
       this.restarts.push(now);
       setTimeout(() => {
         if (this.closed) return;
-        this.worker = this.start().worker;
+        this.worker = this.start();
         this.down = null;
       }, RESTART_DELAY_MS).unref();
     };
@@ -92,7 +81,7 @@ export class StockReader {
     worker.on('exit', (code) => fail(new Error(`the stock reader stopped (exit code ${code})`)));
     // an idle reader does not keep the process alive
     worker.unref();
-    return { worker, opened: openedP };
+    return worker;
   }
 
   /** False while the thread is down or after close (the request thread then reads for itself). */
